@@ -1,0 +1,16 @@
+// Public entry for applications that embed SQLite and link almanac's static
+// library: registers every almanac SQL function on one connection.
+#pragma once
+
+#include <sqlite3.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+// Returns SQLITE_OK, or the SQLite error code of the first registration that failed.
+int almanac_register(sqlite3* db);
+
+#ifdef __cplusplus
+}
+#endif

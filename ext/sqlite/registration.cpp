@@ -1,0 +1,15 @@
+#include "registration.h"
+
+#include <initializer_list>
+
+#include "almanac.h"
+
+extern "C" int almanac_register(sqlite3* db) {
+    using namespace almanac::sqlite;
+    for (auto step : {register_period_functions, register_periods_table,
+                      register_statistics_functions, register_report_functions}) {
+        int rc = step(db);
+        if (rc != SQLITE_OK) return rc;
+    }
+    return SQLITE_OK;
+}

@@ -1,0 +1,13 @@
+// One registration function per binding file; almanac_register calls them all.
+#pragma once
+
+#include "sqlite_api.h"
+
+namespace almanac::sqlite {
+
+int register_period_functions(sqlite3* db);
+int register_periods_table(sqlite3* db);
+int register_statistics_functions(sqlite3* db);
+int register_report_functions(sqlite3* db);
+
+}  // namespace almanac::sqlite
