@@ -1,21 +1,164 @@
+// Calendar period functions.
+//
+//  1. period_floor(t, spec [, zone]), period_end(t, spec [, zone]):
+//     the start (inclusive) and end (exclusive) of the period of `spec`
+//     holding t, in t's representation: TEXT in, TEXT out (a bare date for
+//     day and longer units, a date-time for shorter ones, local with ±HH:MM
+//     when a zone is given); Unix seconds in, Unix seconds out (INTEGER for
+//     INTEGER input); a Julian day in, a REAL Julian day out.
+//  2. period_label(t, spec [, zone]): TEXT label of that period.
+//  3. period_serial(t, spec [, zone]): INTEGER; 0 for the period holding
+//     1970-01-01 00:00 on the (zone's) clock, neighbours differ by 1.
+//  4. period_shift(t, n, spec [, zone]): t moved by n whole periods, in t's
+//     own representation and TEXT form; n is a whole number.
+//  5. valid_time(t): 1 when t is a time value every function accepts, else 0;
+//     NULL for NULL; never raises.
+//  6. almanac_version(): TEXT.
+//  Any NULL argument gives NULL. A time that is not a time value, a spec that
+//  does not parse, an unknown zone, or a result outside years 0000-9999 is an
+//  error naming the function, the argument and the value. The forms without a
+//  zone are deterministic; the zoned forms are not (a tz database update can
+//  change their results).
+#include "../core/error.h"
 #include "arguments.h"
+#include "period_context.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
 namespace {
+
+enum class Question { Floor, End, Label, Serial };
+
+struct PeriodFunction {
+    const char* name;
+    Question question;
+};
+
+const PeriodFunction kFloor{"period_floor", Question::Floor};
+const PeriodFunction kEnd{"period_end", Question::End};
+const PeriodFunction kLabel{"period_label", Question::Label};
+const PeriodFunction kSerial{"period_serial", Question::Serial};
+
+template <typename Body>
+void run(sqlite3_context* context, const char* function, Body&& body) noexcept {
+    guarded(context, [&] {
+        try {
+            body();
+        } catch (const Error& error) {
+            raise_function_error(function, error.what());
+        }
+    });
+}
+
+// period_floor / period_end / period_label / period_serial share one shape.
+void answer_period_question(sqlite3_context* context, int argc, sqlite3_value** argv) {
+    const auto* function = static_cast<const PeriodFunction*>(sqlite3_user_data(context));
+    run(context, function->name, [&] {
+        ArgumentRef t_arg{function->name, 1, "t"};
+        ArgumentRef spec_arg{function->name, 2, "spec"};
+        ArgumentRef zone_arg{function->name, 3, "zone"};
+        auto t = read_time(t_arg, argv[0]);
+        const PeriodCalendar* calendar =
+            cached_calendar(context, 1, spec_arg, argv, 2, argc == 3 ? &zone_arg : nullptr);
+        if (!t || !calendar) return sqlite3_result_null(context);
+        Instant instant = place_on_time_line(*t, *calendar);
+        switch (function->question) {
+            case Question::Floor:
+                return result_boundary(context, *t, calendar->floor(instant), *calendar);
+            case Question::End:
+                return result_boundary(context, *t, calendar->period_of(instant).end, *calendar);
+            case Question::Label: {
+                std::string label = calendar->label(calendar->period_of(instant));
+                return sqlite3_result_text(context, label.c_str(), static_cast<int>(label.size()),
+                                           SQLITE_TRANSIENT);
+            }
+            case Question::Serial:
+                return sqlite3_result_int64(context, calendar->period_of(instant).serial);
+        }
+    });
+}
+
+// TEXT in the caller's own form: a date stays a date; a date-time keeps its
+// precision, its separator and its kind of suffix.
+std::string write_like(const TimeValue& like, Instant t, const PeriodCalendar& calendar) {
+    const TextForm& form = like.form;
+    std::chrono::seconds offset{0};
+    if (form.suffix == TextForm::Suffix::Offset) {
+        offset = calendar.clock().is_utc() ? form.offset : calendar.clock().offset_at(t);
+    }
+    LocalTime reading{(t + offset).time_since_epoch()};
+    std::string text = format_date_time(reading, form.precision, form.t_separator);
+    if (form.suffix == TextForm::Suffix::Z) text += 'Z';
+    if (form.suffix == TextForm::Suffix::Offset) text += format_offset(offset);
+    return text;
+}
+
+void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
+    const char* name = "period_shift";
+    run(context, name, [&] {
+        ArgumentRef t_arg{name, 1, "t"};
+        ArgumentRef n_arg{name, 2, "n"};
+        ArgumentRef spec_arg{name, 3, "spec"};
+        ArgumentRef zone_arg{name, 4, "zone"};
+        auto t = read_time(t_arg, argv[0]);
+        auto n = read_integer(n_arg, argv[1], -100000000LL, 100000000LL);
+        const PeriodCalendar* calendar =
+            cached_calendar(context, 2, spec_arg, argv, 3, argc == 4 ? &zone_arg : nullptr);
+        if (!t || !n || !calendar) return sqlite3_result_null(context);
+        if (t->is_calendar_day) {
+            if (calendar->spec().is_sub_day()) {
+                raise_argument_error(t_arg, argv[0],
+                                     "a bare date cannot move by sub-day periods; give a date-time "
+                                     "such as 'YYYY-MM-DD 00:00'");
+            }
+            std::string text = format_date(calendar->shift_day(t->day, *n));
+            return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+        }
+        Instant moved = calendar->shift(t->instant, *n);
+        if (!in_supported_range(moved)) raise_function_error(name, "the result falls outside years 0000 through 9999");
+        switch (t->representation) {
+            case Representation::Text: {
+                std::string text = write_like(*t, moved, *calendar);
+                return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+            }
+            default:
+                return result_boundary(context, *t, moved, *calendar);
+        }
+    });
+}
+
 void almanac_version(sqlite3_context* context, int, sqlite3_value**) {
     sqlite3_result_text(context, ALMANAC_VERSION, -1, SQLITE_STATIC);
 }
+
 void valid_time(sqlite3_context* context, int, sqlite3_value** argv) {
     if (sqlite3_value_type(argv[0]) == SQLITE_NULL) return sqlite3_result_null(context);
     sqlite3_result_int(context, is_valid_time(argv[0]) ? 1 : 0);
 }
+
 }  // namespace
 
 int register_period_functions(sqlite3* db) {
     constexpr int kPure = SQLITE_UTF8 | SQLITE_DETERMINISTIC | SQLITE_INNOCUOUS;
-    int rc = sqlite3_create_function(db, "almanac_version", 0, kPure, nullptr, almanac_version, nullptr, nullptr);
-    if (rc == SQLITE_OK) rc = sqlite3_create_function(db, "valid_time", 1, kPure, nullptr, valid_time, nullptr, nullptr);
+    // A zone's rules come from the tz database, which can change under us.
+    constexpr int kZoned = SQLITE_UTF8 | SQLITE_INNOCUOUS;
+    int rc = SQLITE_OK;
+    auto add = [&](const char* name, int arity, int flags, const void* data,
+                   void (*function)(sqlite3_context*, int, sqlite3_value**)) {
+        if (rc == SQLITE_OK) {
+            rc = sqlite3_create_function(db, name, arity, flags, const_cast<void*>(data), function,
+                                         nullptr, nullptr);
+        }
+    };
+    for (const PeriodFunction* function : {&kFloor, &kEnd, &kLabel, &kSerial}) {
+        add(function->name, 2, kPure, function, answer_period_question);
+        add(function->name, 3, kZoned, function, answer_period_question);
+    }
+    add("period_shift", 3, kPure, nullptr, period_shift);
+    add("period_shift", 4, kZoned, nullptr, period_shift);
+    add("valid_time", 1, kPure, nullptr, valid_time);
+    add("almanac_version", 0, kPure, nullptr, almanac_version);
     return rc;
 }
+
 }  // namespace almanac::sqlite
