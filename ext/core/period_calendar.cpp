@@ -319,9 +319,15 @@ Period PeriodCalendar::period_of(Instant t) const {
 }
 
 Instant PeriodCalendar::floor(Instant t) const {
-    if (sub_day_ || !clock_.is_utc()) return period_of(t).start;
-    // UTC calendar periods: the boundary is the reading itself.
-    return Instant{grid_->boundary(grid_->index_of(LocalTime{t.time_since_epoch()})).time_since_epoch()};
+    if (sub_day_) return period_of(t).start;
+    LocalTime local = clock_.to_local(t);
+    std::int64_t k = grid_->index_of(local);
+    // Only a reading within a day of the next boundary can be in a repeated
+    // hour that already passed it (see period_of).
+    if (!clock_.is_utc() && grid_->boundary(k + 1) - local < std::chrono::hours{24}) {
+        return period_of(t).start;
+    }
+    return clock_.first_instant_at(grid_->boundary(k));
 }
 
 Instant PeriodCalendar::start_of_day(date::local_days day) const {

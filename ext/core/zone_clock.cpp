@@ -43,17 +43,27 @@ ZoneClock::Regime ZoneClock::regime_at(Instant t) const {
                       Instant{Millis{std::numeric_limits<std::int64_t>::max() / 2}},
                       std::chrono::seconds{0}};
     }
+    if (has_last_ && last_.begin <= t && t < last_.end) return last_;
     auto info = zone_->get_info(t);
-    return Regime{Instant{info.begin}, Instant{info.end}, info.offset};
+    last_ = Regime{Instant{info.begin}, Instant{info.end}, info.offset};
+    has_last_ = true;
+    return last_;
 }
 
 LocalTime ZoneClock::to_local(Instant t) const {
     if (!zone_) return LocalTime{t.time_since_epoch()};
-    return LocalTime{t.time_since_epoch()} + zone_->get_info(t).offset;
+    return LocalTime{t.time_since_epoch()} + regime_at(t).offset;
 }
 
 Instant ZoneClock::first_instant_at(LocalTime local) const {
     if (!zone_) return Instant{local.time_since_epoch()};
+    if (has_last_) {
+        // Inside the last regime, more than a day from either end, a reading
+        // occurs exactly once: no change of offset can reach it.
+        Instant guess = Instant{local.time_since_epoch()} - last_.offset;
+        if (last_.begin + std::chrono::hours{24} <= guess && guess + std::chrono::hours{24} < last_.end)
+            return guess;
+    }
     // choose::earliest: the first of a repeated reading; a skipped reading
     // gives the instant of the change (the date library's documented rule).
     return zone_->to_sys(local, date::choose::earliest);

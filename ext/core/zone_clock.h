@@ -41,6 +41,11 @@ public:
 private:
     explicit ZoneClock(const date::time_zone* zone) : zone_(zone) {}
     const date::time_zone* zone_ = nullptr;
+    // Rows of one query are usually close in time, so the last regime looked
+    // up answers most questions without a search of the zone's transitions.
+    // A clock belongs to one statement, which runs on one thread at a time.
+    mutable Regime last_{};
+    mutable bool has_last_ = false;
 };
 
 }  // namespace almanac

@@ -30,18 +30,7 @@ PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
 }
 
 namespace {
-struct CachedCalendar {
-    std::string spec;
-    std::string zone;
-    PeriodCalendar calendar;
-};
-
-void delete_cached(void* pointer) { delete static_cast<CachedCalendar*>(pointer); }
-
-std::string text_of(sqlite3_value* value) {
-    const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
-    return std::string(text ? text : "", sqlite3_value_bytes(value));
-}
+void delete_calendar(void* pointer) { delete static_cast<PeriodCalendar*>(pointer); }
 }  // namespace
 
 const PeriodCalendar* cached_calendar(sqlite3_context* context, int spec_index,
@@ -51,23 +40,20 @@ const PeriodCalendar* cached_calendar(sqlite3_context* context, int spec_index,
     sqlite3_value* zone = zone_arg ? argv[zone_index] : nullptr;
     if (sqlite3_value_type(spec) == SQLITE_NULL) return nullptr;
     if (zone && sqlite3_value_type(zone) == SQLITE_NULL) return nullptr;
-    // A non-constant spec loses its auxdata after each row; the texts are
-    // compared so a cached calendar is never used for another spec.
-    bool texts = sqlite3_value_type(spec) == SQLITE_TEXT &&
-                 (!zone || sqlite3_value_type(zone) == SQLITE_TEXT);
-    if (texts) {
-        auto* cached = static_cast<CachedCalendar*>(sqlite3_get_auxdata(context, spec_index));
-        if (cached && cached->spec == text_of(spec) && cached->zone == (zone ? text_of(zone) : "")) {
-            return &cached->calendar;
-        }
+    // SQLite keeps auxdata only on constant arguments and drops it after each
+    // call otherwise, so a calendar found here was built from these very
+    // values. With a zone, the calendar hangs on the spec and is marked on
+    // the zone: both must still be there for it to be used.
+    auto* cached = static_cast<PeriodCalendar*>(sqlite3_get_auxdata(context, spec_index));
+    if (cached && (!zone || sqlite3_get_auxdata(context, zone_index) == cached)) return cached;
+    auto* fresh = new PeriodCalendar(make_calendar(spec_arg, spec, zone_arg, zone));
+    // SQLite owns the object from here on, and frees it at once if it cannot keep it.
+    sqlite3_set_auxdata(context, spec_index, fresh, delete_calendar);
+    auto* kept = static_cast<PeriodCalendar*>(sqlite3_get_auxdata(context, spec_index));
+    if (kept == fresh) {
+        if (zone) sqlite3_set_auxdata(context, zone_index, fresh, nullptr);
+        return kept;
     }
-    auto* fresh = new CachedCalendar{texts ? text_of(spec) : "", zone && texts ? text_of(zone) : "",
-                                     make_calendar(spec_arg, spec, zone_arg, zone)};
-    // SQLite owns the object from here on, and may free it at once.
-    sqlite3_set_auxdata(context, spec_index, fresh, delete_cached);
-    auto* kept = static_cast<CachedCalendar*>(sqlite3_get_auxdata(context, spec_index));
-    if (kept == fresh) return &kept->calendar;
-    // SQLite freed it immediately (no memory to keep it): build one for this row.
     thread_local std::optional<PeriodCalendar> scratch;
     scratch.emplace(make_calendar(spec_arg, spec, zone_arg, zone));
     return &*scratch;
