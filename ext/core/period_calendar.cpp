@@ -342,6 +342,35 @@ Period PeriodCalendar::period_by_serial(std::int64_t serial) const {
     return Period{clock_.first_instant_at(start), clock_.first_instant_at(end), serial};
 }
 
+LocalTime PeriodCalendar::shift_reading(LocalTime local, std::int64_t n) const {
+    std::int64_t k = grid_->index_of(local);
+    LocalTime target_start = grid_->boundary(k + n);
+    LocalTime target_end = grid_->boundary(k + n + 1);
+    require_supported(target_start);
+    LocalTime target;
+    if (spec_.is_month_based()) {
+        // Months move the date's month and keep its day, clamped to the
+        // month's last day (Jan 31 + 1 month = Feb 28 or 29), and its time.
+        auto day = date::floor<days>(local);
+        date::year_month_day ymd{day};
+        auto ym = month_at(month_index(ymd) + n * spec_.months());
+        unsigned d = std::min(unsigned(ymd.day()), last_day(ym));
+        target = LocalTime{date::local_days{ym / d}.time_since_epoch()} + (local - LocalTime{day.time_since_epoch()});
+        // With a `from` day late in the month the clamped date can fall just
+        // outside the target period; keep it inside.
+        if (target < target_start) target = target_start;
+    } else {
+        // Days, weeks and half-months keep the offset from their period's start.
+        target = target_start + (local - grid_->boundary(k));
+    }
+    if (target >= target_end) {
+        auto excess_days = (target - target_end).count() / kMillisPerDay + 1;
+        target -= Millis{excess_days * kMillisPerDay};
+    }
+    require_supported(target);
+    return target;
+}
+
 Instant PeriodCalendar::shift(Instant t, std::int64_t n) const {
     if (sub_day_) {
         // Whole periods by serial, keeping the elapsed offset into the period.
@@ -351,39 +380,14 @@ Instant PeriodCalendar::shift(Instant t, std::int64_t n) const {
         if (result >= there.end) result = there.end - Millis{1};
         return result;
     }
-    LocalTime local = clock_.to_local(t);
-    std::int64_t k = grid_->index_of(local);
-    Millis into = local - grid_->boundary(k);
-    LocalTime target_start = grid_->boundary(k + n);
-    LocalTime target_end = grid_->boundary(k + n + 1);
-    require_supported(target_start);
-    LocalTime target = target_start + into;
-    // Clamp to the target period's last day, keeping the time of day.
-    if (target >= target_end) {
-        auto excess_days = (target - target_end).count() / kMillisPerDay + 1;
-        target -= Millis{excess_days * kMillisPerDay};
-    }
-    require_supported(target);
-    return clock_.first_instant_at(target);
+    return clock_.first_instant_at(shift_reading(clock_.to_local(t), n));
 }
 
 date::local_days PeriodCalendar::shift_day(date::local_days day, std::int64_t n) const {
     if (sub_day_) {
         throw Error("a calendar day cannot be moved by sub-day periods; give a date-time");
     }
-    LocalTime local{day.time_since_epoch()};
-    std::int64_t k = grid_->index_of(local);
-    Millis into = local - grid_->boundary(k);
-    LocalTime target_start = grid_->boundary(k + n);
-    LocalTime target_end = grid_->boundary(k + n + 1);
-    require_supported(target_start);
-    LocalTime target = target_start + into;
-    if (target >= target_end) {
-        auto excess_days = (target - target_end).count() / kMillisPerDay + 1;
-        target -= Millis{excess_days * kMillisPerDay};
-    }
-    require_supported(target);
-    return date::floor<days>(target);
+    return date::floor<days>(shift_reading(LocalTime{day.time_since_epoch()}, n));
 }
 
 bool PeriodCalendar::writes_dates() const { return !sub_day_ && !grid_->has_time_of_day(); }

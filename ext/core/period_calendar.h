@@ -56,6 +56,8 @@ public:
     bool writes_dates() const;
 
 private:
+    LocalTime shift_reading(LocalTime local, std::int64_t n) const;
+
     PeriodSpec spec_;
     ZoneClock clock_;
     // Immutable after construction, so copies may share them.
