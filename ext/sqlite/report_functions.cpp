@@ -1,6 +1,227 @@
-// Placeholder until the report functions land; registers nothing.
+// Report functions: pictures of a series, from SQL.
+//
+// 1. sparkline(y, x) — aggregate. y a number (NULL allowed), x a number or a
+//    time value (TEXT that is not a number is read as a time value). Returns
+//    TEXT with one character per row whose x is not NULL, in x order: U+2581
+//    ... U+2588 at level round(7 (y - min) / (max - min)), halves rounded up;
+//    every row U+2584 when all values are equal; a space for a NULL y. Rows
+//    with equal x keep the order in which SQLite fed them. Rows with a NULL x
+//    are skipped (they have no place in the order). No rows → NULL.
+//    Raises: y not a number; x not a number or a time value; x mixing
+//    numbers and time values within one group.
+// 2. svg_line_chart(x, y, series [, layer [, options]]) — aggregate. x as for
+//    sparkline (time values get a calendar axis in UTC, numbers a numeric
+//    axis); y a number, NULL breaks the line; series TEXT or a number (its
+//    text is the name; NULL skips the row); layer 'raw' or 'smooth' (any
+//    case; NULL or omitted: 'smooth'); options NULL or a JSON object with
+//    title, width, height, y_caption (null values mean the default), the
+//    same for every row. Returns TEXT: an SVG document with one path per
+//    (series, layer), a legend entry per series. Rows with a NULL x or NULL
+//    series are skipped; no rows left → NULL.
+//    Raises: bad x/y/series/layer/options (invalid JSON, unknown key, wrong
+//    type, out of range, options differing between rows); x mixing numbers
+//    and time values; more than 64 series or 200,000 rows.
+#include <memory>
+#include <optional>
+#include <string>
+
+#include "../core/chart_options.h"
+#include "../core/error.h"
+#include "../core/line_chart.h"
+#include "../core/sparkline.h"
+#include "../core/x_value.h"
+#include "arguments.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
-int register_report_functions(sqlite3*) { return SQLITE_OK; }
+
+namespace {
+
+// Aggregate state is a C++ object owned through a pointer in SQLite's
+// aggregate context; xFinal (which SQLite also calls after an error or a
+// reset) deletes it.
+template <typename State>
+State& aggregate_state(sqlite3_context* context) {
+    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, sizeof(State*)));
+    if (!slot) throw std::bad_alloc();
+    if (!*slot) *slot = new State();
+    return **slot;
+}
+
+template <typename State>
+std::unique_ptr<State> take_aggregate_state(sqlite3_context* context) {
+    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, 0));
+    if (!slot || !*slot) return nullptr;
+    std::unique_ptr<State> state(*slot);
+    *slot = nullptr;
+    return state;
+}
+
+struct XReading {
+    XKind kind;
+    double value;
+};
+
+// A number (including numeric TEXT, as SQLite reads it) or a time value.
+std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value) {
+    switch (sqlite3_value_type(value)) {
+        case SQLITE_NULL:
+            return std::nullopt;
+        case SQLITE_INTEGER:
+        case SQLITE_FLOAT:
+            return XReading{XKind::Number, *read_number(arg, value)};
+        case SQLITE_TEXT: {
+            const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
+            if (numeric_text(text ? text : "")) return XReading{XKind::Number, *read_number(arg, value)};
+            return XReading{XKind::Time, time_axis_value(*read_time(arg, value))};
+        }
+        default:
+            raise_argument_error(arg, value, "expected a number or a time value, not a BLOB");
+    }
+}
+
+void accept_x_kind(XKindGuard& guard, const ArgumentRef& arg, sqlite3_value* value, XKind kind) {
+    try {
+        guard.accept(kind);
+    } catch (const Error& error) {
+        raise_argument_error(arg, value, error.what());
+    }
+}
+
+// ---------------------------------------------------------------------------
+// sparkline(y, x)
+
+struct SparklineState {
+    XKindGuard x_kind;
+    Sparkline line;
+};
+
+void sparkline_step(sqlite3_context* context, int, sqlite3_value** argv) {
+    guarded(context, [&] {
+        auto y = read_number({"sparkline", 1, "y"}, argv[0]);
+        ArgumentRef x_arg{"sparkline", 2, "x"};
+        auto x = read_x(x_arg, argv[1]);
+        auto& state = aggregate_state<SparklineState>(context);
+        if (!x) return;
+        accept_x_kind(state.x_kind, x_arg, argv[1], x->kind);
+        state.line.add(x->value, y);
+    });
+}
+
+void sparkline_final(sqlite3_context* context) {
+    guarded(context, [&] {
+        auto state = take_aggregate_state<SparklineState>(context);
+        if (!state || state->line.empty()) {
+            sqlite3_result_null(context);
+            return;
+        }
+        std::string text = state->line.render();
+        sqlite3_result_text(context, text.data(), int(text.size()), SQLITE_TRANSIENT);
+    });
+}
+
+// ---------------------------------------------------------------------------
+// svg_line_chart(x, y, series [, layer [, options]])
+
+constexpr const char* kChart = "svg_line_chart";
+
+struct ChartState {
+    LineChart chart;
+    bool options_read = false;
+    std::optional<std::string> options_text;  // as given on the first row
+    ChartOptions options;
+};
+
+std::optional<std::string> read_series(const ArgumentRef& arg, sqlite3_value* value) {
+    switch (sqlite3_value_type(value)) {
+        case SQLITE_NULL:
+            return std::nullopt;
+        case SQLITE_BLOB:
+            raise_argument_error(arg, value, "expected TEXT or a number as the series name, not a BLOB");
+        default: {
+            // A number names its series by SQLite's own text for it (42, 1.5).
+            const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
+            return std::string(text ? text : "", sqlite3_value_bytes(value));
+        }
+    }
+}
+
+void read_options(ChartState& state, sqlite3_value* value) {
+    ArgumentRef arg{kChart, 5, "options"};
+    auto text = read_text(arg, value);
+    if (!state.options_read) {
+        state.options_read = true;
+        state.options_text = text;
+        if (text) {
+            try {
+                state.options = parse_chart_options(*text);
+            } catch (const Error& error) {
+                raise_argument_error(arg, value, error.what());
+            }
+        }
+        return;
+    }
+    if (text != state.options_text)
+        raise_argument_error(arg, value,
+                             "expected the same options on every row of one chart (the first row had " +
+                                 (state.options_text ? "'" + *state.options_text + "'" : std::string("NULL")) +
+                                 ")");
+}
+
+void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
+    guarded(context, [&] {
+        ArgumentRef x_arg{kChart, 1, "x"};
+        auto x = read_x(x_arg, argv[0]);
+        auto y = read_number({kChart, 2, "y"}, argv[1]);
+        auto series = read_series({kChart, 3, "series"}, argv[2]);
+        ChartLayer layer = ChartLayer::Smooth;
+        if (argc >= 4) {
+            ArgumentRef layer_arg{kChart, 4, "layer"};
+            if (auto word = read_text(layer_arg, argv[3])) {
+                try {
+                    layer = parse_chart_layer(*word);
+                } catch (const Error& error) {
+                    raise_argument_error(layer_arg, argv[3], error.what());
+                }
+            }
+        }
+        auto& state = aggregate_state<ChartState>(context);
+        if (argc >= 5) read_options(state, argv[4]);
+        if (!x || !series) return;
+        try {
+            state.chart.accept_x_kind(x->kind);
+        } catch (const Error& error) {
+            raise_argument_error(x_arg, argv[0], error.what());
+        }
+        try {
+            state.chart.add(x->value, y, *series, layer);
+        } catch (const Error& error) {
+            raise_function_error(kChart, error.what());
+        }
+    });
+}
+
+void chart_final(sqlite3_context* context) {
+    guarded(context, [&] {
+        auto state = take_aggregate_state<ChartState>(context);
+        if (!state || state->chart.point_count() == 0) {
+            sqlite3_result_null(context);
+            return;
+        }
+        std::string svg = state->chart.render_svg(state->options);
+        sqlite3_result_text(context, svg.data(), int(svg.size()), SQLITE_TRANSIENT);
+    });
+}
+
+}  // namespace
+
+int register_report_functions(sqlite3* db) {
+    const int flags = SQLITE_UTF8 | SQLITE_DETERMINISTIC;
+    int rc = sqlite3_create_function(db, "sparkline", 2, flags, nullptr, nullptr, sparkline_step,
+                                     sparkline_final);
+    for (int argc = 3; argc <= 5 && rc == SQLITE_OK; ++argc)
+        rc = sqlite3_create_function(db, kChart, argc, flags, nullptr, nullptr, chart_step, chart_final);
+    return rc;
+}
+
 }  // namespace almanac::sqlite
