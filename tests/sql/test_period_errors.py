@@ -1,0 +1,221 @@
+"""Bad input to every period function: a clear error, or NULL by SQL's rules, never a crash.
+
+Every message has one shape (the common brief, ext/sqlite/arguments.h):
+    fn(): argument N (name) = <value>: <what was expected>
+so each case first states the facts its message must contain — the function,
+the argument by position and name, the value as written, and the words DESIGN.md
+asks for (a Unix time in milliseconds "says so"; an unknown unit says what was
+expected) — and then the exact text, pinned once read and judged good.
+"""
+import subprocess
+
+import pytest
+
+from conftest import MODULE, connect
+
+NULL = object()  # the case gives SQL NULL (or no rows, for periods())
+
+
+class Err:
+    def __init__(self, function, position, name, value, *words, exact=None):
+        self.function, self.position, self.name, self.value = function, position, name, value
+        self.words, self.exact = words, exact
+
+    def prefix(self):
+        return f"{self.function}(): argument {self.position} ({self.name}) = {self.value}: "
+
+
+def F(position, name, value, *words, fn="period_floor", exact=None):
+    return Err(fn, position, name, value, *words, exact=exact)
+
+
+T, S, Z = (1, "t"), (2, "spec"), (3, "zone")
+
+CASES = [
+    # ---- period_floor: time values (DESIGN "Time values")
+    ("period_floor('2026-02-30', 'day')", F(*T, "'2026-02-30'")),                   # impossible date
+    ("period_floor('2025-02-29', 'day')", F(*T, "'2025-02-29'")),                   # not a leap year
+    ("period_floor('2026-13-01', 'month')", F(*T, "'2026-13-01'")),                 # month 13
+    ("period_floor('2026-04-31 10:00', 'hour')", F(*T, "'2026-04-31 10:00'")),      # April has 30 days
+    ("period_floor('2026-01-01 25:00', 'hour')", F(*T, "'2026-01-01 25:00'")),      # hour 25
+    ("period_floor('2026-01-01 10:60', 'hour')", F(*T, "'2026-01-01 10:60'")),      # minute 60
+    ("period_floor('2026-01-01 10:00:61', 'second')", F(*T, "'2026-01-01 10:00:61'")),
+    ("period_floor('2026-01-01 10:00+24:00', 'hour')", F(*T, "'2026-01-01 10:00+24:00'")),
+    ("period_floor('2026-1-1', 'day')", F(*T, "'2026-1-1'")),                       # digits missing
+    ("period_floor('next tuesday', 'day')", F(*T, "'next tuesday'")),               # words
+    ("period_floor('', 'day')", F(*T, "''")),                                       # empty TEXT
+    ("period_floor(X'0102', 'day')", F(*T, "a BLOB of 2 bytes", "BLOB")),           # BLOB
+    ("period_floor(1700000000000, 'day')", F(*T, "1700000000000", "millisecond")),  # Unix ms: says so
+    ("period_floor(1.7e12, 'day')", F(*T, "1700000000000", "millisecond")),         # REAL ms
+    ("period_floor(-1e13, 'day')", F(*T, "-10000000000000")),                       # year out of range
+    ("period_floor(1000000, 'day')", F(*T, "1000000")),                             # Julian day in -1975
+    # ---- specs (DESIGN "Spec grammar")
+    ("period_floor('2026-01-01', 'fortnight')", F(*S, "'fortnight'", "week")),      # unknown unit
+    ("period_floor('2026-01-01', '3 fortnights')", F(*S, "'3 fortnights'", "week")),
+    ("period_floor('2026-01-01', '0 days')", F(*S, "'0 days'")),                    # zero count
+    ("period_floor('2026-01-01', '-2 weeks')", F(*S, "'-2 weeks'")),                # negative count
+    ("period_floor('2026-01-01', '1.5 days')", F(*S, "'1.5 days'")),                # fractional count
+    ("period_floor('2026-01-01', '99999999999999999999 days')", F(*S, "'99999999999999999999 days'")),
+    ("period_floor('2026-01-01', 'P1M2D')", F(*S, "'P1M2D'")),                      # mixed ISO duration
+    ("period_floor('2026-01-01', 'PT1H30M')", F(*S, "'PT1H30M'")),                  # mixed ISO duration
+    ("period_floor('2026-01-01', 'P0D')", F(*S, "'P0D'")),                          # zero ISO count
+    ("period_floor('2026-01-01', 'P1.5D')", F(*S, "'P1.5D'")),
+    ("period_floor('2026-01-01', 'PT')", F(*S, "'PT'")),
+    ("period_floor('2026-01-01', 'P1H')", F(*S, "'P1H'")),                          # hours need the T
+    ("period_floor('2026-01-01', '2 half-months')", F(*S, "'2 half-months'")),      # half-month: no count
+    ("period_floor('2026-01-01', 'week starting funday')", F(*S, "'week starting funday'")),
+    ("period_floor('2026-01-01', 'year starting smarch')", F(*S, "'year starting smarch'")),
+    ("period_floor('2026-01-01', 'month starting april')", F(*S, "'month starting april'")),  # not for months
+    ("period_floor('2026-01-01', 'day starting monday')", F(*S, "'day starting monday'")),
+    ("period_floor('2026-01-01', 'month from 2024-02-30')", F(*S, "'month from 2024-02-30'")),  # from: no date
+    ("period_floor('2026-01-01', 'month from yesterday')", F(*S, "'month from yesterday'")),
+    ("period_floor('2026-01-01', 'week from')", F(*S, "'week from'")),
+    ("period_floor('2026-01-01', 'week starting sunday from 2024-01-03')",
+     F(*S, "'week starting sunday from 2024-01-03'", "starting")),                   # Wednesday vs Sunday
+    ("period_floor('2026-01-01', 'quarter starting april from 2024-02-01')",
+     F(*S, "'quarter starting april from 2024-02-01'", "starting")),                 # Feb vs April quarters
+    ("period_floor('2026-01-01', '')", F(*S, "''")),
+    ("period_floor('2026-01-01', 7)", F(*S, "7")),                                   # spec as a number
+    ("period_floor('2026-01-01', X'00')", F(*S, "a BLOB of 1 bytes", "BLOB")),
+    # ---- zones (DESIGN "Zones"): a name not in the database, never a path opened on disk
+    ("period_floor('2026-01-01', 'day', 'Mars/Olympus_Mons')", F(*Z, "'Mars/Olympus_Mons'")),
+    ("period_floor('2026-01-01', 'day', '../../../etc/passwd')", F(*Z, "'../../../etc/passwd'")),
+    ("period_floor('2026-01-01', 'day', '/usr/share/zoneinfo/UTC')", F(*Z, "'/usr/share/zoneinfo/UTC'")),
+    ("period_floor('2026-01-01', 'day', '')", F(*Z, "''")),
+    ("period_floor('2026-01-01', 'day', 42)", F(*Z, "42")),
+    ("period_floor('2026-01-01', 'day', X'41')", F(*Z, "a BLOB of 1 bytes", "BLOB")),
+    # ---- NULL gives NULL
+    ("period_floor(NULL, 'day')", NULL),
+    ("period_floor('2026-01-01', NULL)", NULL),
+    ("period_floor('2026-01-01', 'day', NULL)", NULL),
+    ("period_floor(NULL, 'fortnight')", NULL),  # assumption: NULL t short-circuits, as in SQLite's date()
+    # ---- the other scalar functions
+    ("period_end('2026-02-30', 'month')", F(*T, "'2026-02-30'", fn="period_end")),
+    ("period_end('2026-01-01', 'weak')", F(*S, "'weak'", "week", fn="period_end")),
+    ("period_end('2026-01-01', 'day', 'Nowhere/Town')", F(*Z, "'Nowhere/Town'", fn="period_end")),
+    ("period_end(NULL, 'day')", NULL),
+    ("period_label(X'FF', 'week')", F(*T, "a BLOB of 1 bytes", "BLOB", fn="period_label")),
+    ("period_label('2026-01-01', 'P2M1D')", F(*S, "'P2M1D'", fn="period_label")),
+    ("period_label('2026-01-01', 'week', 'Nowhere/Town')", F(*Z, "'Nowhere/Town'", fn="period_label")),
+    ("period_label(NULL, 'week')", NULL),
+    ("period_serial('31/12/2026', 'day')", F(*T, "'31/12/2026'", fn="period_serial")),
+    ("period_serial('2026-01-01', '0 months')", F(*S, "'0 months'", fn="period_serial")),
+    ("period_serial(1.7e12, 'day')", F(*T, "1700000000000", "millisecond", fn="period_serial")),
+    ("period_serial(NULL, 'day')", NULL),
+    ("period_shift('2026-02-30', 1, 'month')", F(1, "t", "'2026-02-30'", fn="period_shift")),
+    ("period_shift('2026-01-31', 1.5, 'month')", F(2, "n", "1.5", fn="period_shift")),
+    ("period_shift('2026-01-31', 'one', 'month')", F(2, "n", "'one'", fn="period_shift")),
+    ("period_shift('2026-01-31', X'01', 'month')", F(2, "n", "a BLOB of 1 bytes", "BLOB", fn="period_shift")),
+    ("period_shift('2026-01-31', 1, 'P1M2D')", F(3, "spec", "'P1M2D'", fn="period_shift")),
+    ("period_shift('2026-01-31', 1, 'month', 'Nowhere/Town')", F(4, "zone", "'Nowhere/Town'", fn="period_shift")),
+    ("period_shift('2026-01-31', NULL, 'month')", NULL),
+    ("period_shift(NULL, 1, 'month')", NULL),
+    ("period_shift('2026-01-31', 1, NULL)", NULL),
+    # ---- periods(): errors name the argument too; NULL arguments give no rows
+    ("SELECT * FROM periods('2026-02-30', '2027-01-01', 'month')", F(1, "start", "'2026-02-30'", fn="periods")),
+    ("SELECT * FROM periods('2026-01-01', 'soon', 'month')", F(2, "stop", "'soon'", fn="periods")),
+    ("SELECT * FROM periods('2026-01-01', '2027-01-01', 'fortnight')", F(3, "spec", "'fortnight'", "week", fn="periods")),
+    ("SELECT * FROM periods('2026-01-01', '2027-01-01', '0 weeks')", F(3, "spec", "'0 weeks'", fn="periods")),
+    ("SELECT * FROM periods('2026-01-01', '2027-01-01', 'month', 'Bad/Zone')", F(4, "zone", "'Bad/Zone'", fn="periods")),
+    ("SELECT * FROM periods(X'00', '2027-01-01', 'month')", F(1, "start", "a BLOB of 1 bytes", "BLOB", fn="periods")),
+    ("SELECT * FROM periods(1700000000000, 1800000000000, 'month')",
+     F(1, "start", "1700000000000", "millisecond", fn="periods")),
+    ("SELECT * FROM periods(NULL, '2027-01-01', 'month')", NULL),
+    ("SELECT * FROM periods('2026-01-01', NULL, 'month')", NULL),
+    ("SELECT * FROM periods('2026-01-01', '2027-01-01', NULL)", NULL),
+]
+
+VALID_TIME = [
+    # valid_time never raises (DESIGN); NULL gives NULL
+    ("valid_time('2026-02-30')", 0), ("valid_time(X'00')", 0), ("valid_time(1700000000000)", 0),
+    ("valid_time('next tuesday')", 0), ("valid_time('')", 0), ("valid_time('2026-01-01 10:00+24:00')", 0),
+    ("valid_time('2026-01-01')", 1), ("valid_time('2026-01-01T10:00:00.123Z')", 1), ("valid_time(2451545.0)", 1),
+    ("valid_time(-1)", 1), ("valid_time(NULL)", None),
+]
+
+
+def run(db, sql):
+    statement = sql if sql.startswith("SELECT *") else f"SELECT {sql}"
+    return db.execute(statement).fetchall()
+
+
+@pytest.mark.parametrize("sql,expected", CASES, ids=[case[0] for case in CASES])
+def test_bad_input(db, sql, expected):
+    if expected is NULL:
+        rows = run(db, sql)
+        # SQL's rules: NULL in, NULL out; a table-valued function gives no rows
+        assert rows == ([] if sql.startswith("SELECT *") else [(None,)]), rows
+        return
+    with pytest.raises(Exception) as caught:
+        run(db, sql)
+    message = str(caught.value)
+    # the common brief's one shape: fn(): argument N (name) = <value>: <what was expected>
+    assert message.startswith(expected.prefix()), f"{message!r} should start {expected.prefix()!r}"
+    said = message[len(expected.prefix()):]
+    assert len(said) >= 8, f"{message!r}: too little said about what was expected"
+    for word in expected.words:
+        assert word.lower() in said.lower(), f"{message!r} should mention {word!r}"
+    if expected.exact is not None:
+        assert message == expected.exact
+
+
+def test_at_least_forty_error_cases():
+    assert sum(1 for _, e in CASES if e is not NULL) >= 40
+
+
+@pytest.mark.parametrize("sql,expected", VALID_TIME, ids=[case[0] for case in VALID_TIME])
+def test_valid_time_never_raises(db, sql, expected):
+    assert run(db, sql) == [(expected,)]
+
+
+def test_wrong_argument_counts_are_sqlite_errors(db):
+    # SQLite's own message for a function registered without that many arguments
+    for sql, name in (("period_floor('2026-01-01')", "period_floor"),
+                      ("period_shift('2026-01-01', 1)", "period_shift"),
+                      ("period_label('2026-01-01', 'day', 'UTC', 1)", "period_label")):
+        with pytest.raises(Exception) as caught:
+            run(db, sql)
+        assert str(caught.value) == f"wrong number of arguments to function {name}()"
+
+
+def test_results_beyond_9999_are_errors_not_garbage(db):
+    # DESIGN: years outside 0000-9999 are an error — a result there too (assumption: the message names
+    # the function); 9999-12-31 itself is fine
+    assert run(db, "period_floor('9999-12-31 12:00:00', 'day')") == [("9999-12-31",)]
+    for sql, fn in (("period_end('9999-12-31', 'day')", "period_end"),
+                    ("period_shift('9999-12-31', 1, 'month')", "period_shift"),
+                    ("period_shift('2026-01-31', 99999999, 'month')", "period_shift"),
+                    ("period_shift('2026-01-31', 9223372036854775807, 'second')", "period_shift")):
+        with pytest.raises(Exception) as caught:
+            run(db, sql)
+        assert str(caught.value).startswith(f"{fn}(): "), str(caught.value)
+
+
+SHELL_SAMPLE = [case for case in CASES if case[1] is not NULL][::5] + [case for case in CASES if case[1] is NULL][:3]
+
+
+@pytest.mark.parametrize("sql,expected", SHELL_SAMPLE, ids=[case[0] for case in SHELL_SAMPLE])
+def test_fresh_shell_process_does_not_crash(sql, expected):
+    # each case alone in a new sqlite3 shell: an error exits 1 with the message, never a signal
+    module = MODULE[:-3] if MODULE.endswith(".so") else MODULE
+    statement = sql if sql.startswith("SELECT *") else f"SELECT {sql}"
+    result = subprocess.run(["sqlite3", "-bail", ":memory:"], input=f".load {module}\n{statement};\nSELECT 'alive';\n",
+                            capture_output=True, text=True, timeout=60)
+    assert result.returncode >= 0, f"killed by signal {-result.returncode}"
+    if expected is NULL:
+        assert result.returncode == 0 and result.stderr == "", result.stderr
+        assert result.stdout.endswith("alive\n")
+    else:
+        assert result.returncode == 1, (result.returncode, result.stdout, result.stderr)
+        assert expected.prefix() in result.stderr, result.stderr
+        assert "alive" not in result.stdout
+
+
+def test_every_case_in_one_connection_leaves_it_usable(db):
+    # errors must not leave state behind (cached specs, cursors): the connection still answers
+    for sql, expected in CASES:
+        try:
+            run(db, sql)
+        except Exception:
+            pass
+    assert run(db, "period_label('2026-01-01', 'week')") == [("2026-W01",)]  # from memory: Thursday, week 1
