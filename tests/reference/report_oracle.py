@@ -1,0 +1,295 @@
+"""The reports of sql/ computed a second time, in plain Python.
+
+Each function takes the rows of a sales table, (ts, item, qty, amount) with
+ts UTC text, and works with local calendar dates from `zoneinfo` and
+`datetime` (ISO weeks from `date.isocalendar()`), sums with `math.fsum`, and
+the regression with `statistics.linear_regression`. Nothing is read from the
+extension: these are the expected values of tests/reference/test_sql_reports.py,
+which names the function it compares against beside each assertion.
+"""
+import calendar
+import datetime as dt
+import math
+import statistics
+from collections import defaultdict
+from zoneinfo import ZoneInfo
+
+UTC = dt.timezone.utc
+MONTH_NAMES = {name.lower(): number for number, name in enumerate(calendar.month_name) if name}
+WEEKDAYS = ["Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday"]
+BLOCKS = [chr(0x2581 + level) for level in range(8)]  # U+2581..U+2588 (DESIGN.md, sparkline)
+
+
+def local_day(ts, zone):
+    """The local calendar date of a UTC 'YYYY-MM-DD HH:MM:SS' text."""
+    instant = dt.datetime.strptime(ts, "%Y-%m-%d %H:%M:%S").replace(tzinfo=UTC)
+    return instant.astimezone(ZoneInfo(zone)).date()
+
+
+class Sale:
+    __slots__ = ("day", "item", "qty", "amount")
+
+    def __init__(self, row, zone):
+        self.day = local_day(row[0], zone)
+        self.item, self.qty, self.amount = row[1], row[2], row[3]
+
+
+def sales_of(rows, zone):
+    return [Sale(row, zone) for row in rows]
+
+
+def day_range(sales, start=None, stop=None):
+    """[first, stop) local dates: the first sale's day to the day after the last one."""
+    first = start or min(s.day for s in sales)
+    after = stop or max(s.day for s in sales) + dt.timedelta(days=1)
+    return first, after
+
+
+# --- periods as (key, label) of a local date -------------------------------------------------
+
+def week_of(day):
+    monday = day - dt.timedelta(days=day.weekday())
+    year, week, _ = monday.isocalendar()
+    return monday, f"{year:04d}-W{week:02d}"
+
+
+def half_month_of(day):
+    last = calendar.monthrange(day.year, day.month)[1]
+    if day.day <= 15:
+        return dt.date(day.year, day.month, 1), f"{day.year:04d}-{day.month:02d} (1-15)"
+    return dt.date(day.year, day.month, 16), f"{day.year:04d}-{day.month:02d} (16-{last})"
+
+
+def month_of(day):
+    return dt.date(day.year, day.month, 1), f"{day.year:04d}-{day.month:02d}"
+
+
+def fiscal_quarter_of(first_month):
+    """Quarters of a fiscal year starting in first_month, labelled FYyyyy-Qn with
+    yyyy the year in which that fiscal year ends (DESIGN.md, Labels)."""
+    def of(day):
+        offset = (day.month - first_month) % 12
+        quarter = offset // 3
+        start_month = (first_month - 1 + 3 * quarter) % 12 + 1
+        start_year = day.year if start_month <= day.month else day.year - 1
+        fiscal_start_year = start_year if start_month >= first_month else start_year - 1
+        ends = fiscal_start_year + (1 if first_month != 1 else 0)
+        return dt.date(start_year, start_month, 1), f"FY{ends:04d}-Q{quarter + 1}"
+    return of
+
+
+def enumerate_periods(period_of, first, after):
+    """Every period holding a day of [first, after), in order: (start, label)."""
+    seen = []
+    day = first
+    while day < after:
+        key = period_of(day)
+        if not seen or seen[-1] != key:
+            seen.append(key)
+        day += dt.timedelta(days=1)
+    return seen
+
+
+def item_key(sale, choice):
+    return "all items" if choice is None else sale.item
+
+
+def chosen(sales, choice):
+    return [s for s in sales if choice is None or choice == "*" or s.item == choice]
+
+
+# --- the reports ----------------------------------------------------------------------------
+
+def period_totals(rows, zone, period_of, item=None, start=None, stop=None):
+    """sql/totals_*.sql: one row per period and item, empty periods as 0 / NULL means."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales, start, stop)
+    picked = chosen(sales, item)
+    keys = sorted({item_key(s, item) for s in picked})
+    cells = defaultdict(list)
+    for s in picked:
+        if first <= s.day < after:
+            cells[(period_of(s.day)[0], item_key(s, item))].append(s)
+    result = []
+    for start_day, label in enumerate_periods(period_of, first, after):
+        for key in keys:
+            group = cells.get((start_day, key), [])
+            amount = math.fsum(s.amount for s in group)
+            days = len({s.day for s in group})
+            result.append(dict(label=label, item=key, sales=len(group), qty=sum(s.qty for s in group),
+                               amount=amount, days_with_sales=days,
+                               amount_per_day=amount / days if days else None,
+                               mean_sale=amount / len(group) if group else None))
+    return result
+
+
+def weekly_series(rows, zone, start=None, stop=None):
+    """Per item, the weekly amounts of every week of the range (0 for a week without
+    sales), with x the number of the week: days since 1969-12-29 (the Monday of the
+    week holding 1970-01-01) over 7."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales, start, stop)
+    weeks = enumerate_periods(week_of, first, after)
+    sums = defaultdict(list)
+    for s in sales:
+        if first <= s.day < after:
+            sums[(week_of(s.day)[0], s.item)].append(s.amount)
+    items = sorted({item for _, item in sums})
+    series = {}
+    for item in items:
+        xs = [(monday - dt.date(1969, 12, 29)).days // 7 for monday, _ in weeks]
+        ys = [math.fsum(sums.get((monday, item), [])) for monday, _ in weeks]
+        series[item] = (xs, ys)
+    return series
+
+
+def line_fit(xs, ys):
+    """Least-squares line and its spread, from statistics.linear_regression and the
+    textbook formulas: resid_sd = sqrt(SSE / (n - 2)), stderr = resid_sd / sqrt(Sxx)."""
+    n = len(xs)
+    slope, intercept = statistics.linear_regression(xs, ys)
+    mean_x = statistics.fmean(xs)
+    sxx = math.fsum((x - mean_x) ** 2 for x in xs)
+    sse = math.fsum((y - (intercept + slope * x)) ** 2 for x, y in zip(xs, ys))
+    resid_sd = math.sqrt(sse / (n - 2))
+    mean_y = statistics.fmean(ys)
+    syy = math.fsum((y - mean_y) ** 2 for y in ys)
+    r2 = 1.0 if syy == 0 else statistics.correlation(xs, ys) ** 2
+    return dict(slope=slope, stderr=resid_sd / math.sqrt(sxx), resid_sd=resid_sd, r2=r2, mean=mean_y,
+                sd=statistics.stdev(ys))
+
+
+def sparkline_levels(values):
+    """DESIGN.md: level = round(7 (y - min) / (max - min)); a constant series is all
+    U+2584. Returns, per value, the set of acceptable levels (both neighbours at an
+    exact half, where the rounding direction is the implementation's choice)."""
+    low, high = min(values), max(values)
+    if high == low:
+        return [{3} for _ in values]
+    levels = []
+    for y in values:
+        scaled = 7 * (y - low) / (high - low)
+        below = math.floor(scaled)
+        levels.append({below, below + 1} if scaled - below == 0.5 else {math.floor(scaled + 0.5)})
+    return levels
+
+
+def trend(rows, zone, spark_weeks=4, start=None, stop=None):
+    """sql/trend.sql."""
+    result = {}
+    for item, (xs, ys) in weekly_series(rows, zone, start, stop).items():
+        fit = line_fit(xs, ys)
+        verdict = ("rising" if fit["slope"] > 0 else "falling") if abs(fit["slope"]) > 2 * fit["stderr"] \
+            else "no clear trend"
+        blocks = defaultdict(list)
+        for x, y in zip(xs, ys):
+            blocks[(x - xs[0]) // spark_weeks].append(y)
+        block_means = [statistics.fmean(blocks[b]) for b in sorted(blocks)]
+        result[item] = dict(fit, weeks=len(xs), verdict=verdict, pct_per_year=100 * 52 * fit["slope"] / fit["mean"],
+                            shape_levels=sparkline_levels(block_means))
+    return result
+
+
+def noise_ranking(rows, zone):
+    """sql/noise_ranking.sql: items by resid_sd / mean, largest first."""
+    fits = {item: line_fit(xs, ys) for item, (xs, ys) in weekly_series(rows, zone).items()}
+    ranked = sorted((item for item in fits if fits[item]["mean"] > 0),
+                    key=lambda item: (-fits[item]["resid_sd"] / fits[item]["mean"], item))
+    return [dict(item=item, **fits[item], noise_pct=100 * fits[item]["resid_sd"] / fits[item]["mean"],
+                 sd_pct=100 * fits[item]["sd"] / fits[item]["mean"]) for item in ranked]
+
+
+def weekday_profile(rows, zone, item=None):
+    """sql/weekday_profile.sql: per weekday, over every local day of the range."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales)
+    picked = chosen(sales, item)
+    keys = sorted({item_key(s, item) for s in picked})
+    daily = defaultdict(list)
+    for s in picked:
+        daily[(s.day, item_key(s, item))].append(s)
+    result = []
+    for key in keys:
+        per_weekday = defaultdict(lambda: dict(days=0, sold=[], qty=0))
+        day = first
+        while day < after:
+            cell = per_weekday[day.weekday()]
+            cell["days"] += 1
+            group = daily.get((day, key))
+            if group:
+                cell["sold"].append(math.fsum(s.amount for s in group))
+                cell["qty"] += sum(s.qty for s in group)
+            day += dt.timedelta(days=1)
+        total = math.fsum(a for c in per_weekday.values() for a in c["sold"])
+        days_with_sales = sum(len(c["sold"]) for c in per_weekday.values())
+        mean_day = total / days_with_sales
+        for weekday in range(7):
+            cell = per_weekday[weekday]
+            amount = math.fsum(cell["sold"])
+            mean = statistics.fmean(cell["sold"]) if cell["sold"] else None
+            result.append(dict(weekday=WEEKDAYS[weekday], item=key, days=cell["days"],
+                               days_with_sales=len(cell["sold"]), qty=cell["qty"], amount=amount,
+                               share_pct=100 * amount / total, mean_per_day=mean,
+                               median_per_day=statistics.median(cell["sold"]) if cell["sold"] else None,
+                               index=100 * mean / mean_day if mean is not None else None))
+    return result
+
+
+def last_year_of_week(monday):
+    """The same ISO week number in the previous ISO year, or None when that year has
+    no such week (date.fromisocalendar raises for week 53 of a 52-week year)."""
+    year, week, _ = monday.isocalendar()
+    try:
+        return dt.date.fromisocalendar(year - 1, week, 1)
+    except ValueError:
+        return None
+
+
+def last_year_of_start(start):
+    """Any other unit: the period start twelve months earlier (period starts are on
+    the 1st or the 16th, so no clamping arises)."""
+    return start.replace(year=start.year - 1)
+
+
+def same_period_last_year(rows, zone, period_of, counterpart, item=None):
+    """sql/same_period_last_year.sql."""
+    totals = period_totals(rows, zone, period_of, item)
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales)
+    starts = {label: start for start, label in enumerate_periods(period_of, first, after)}
+    by_start = {(starts[row["label"]], row["item"]): row["amount"] for row in totals}
+    result = []
+    for row in totals:
+        previous = counterpart(starts[row["label"]])
+        last_amount = by_start.get((previous, row["item"])) if previous else None
+        result.append(dict(period=row["label"], item=row["item"], amount=row["amount"],
+                           last_year_period=period_of(previous)[1] if previous else None,
+                           last_year_amount=last_amount,
+                           change=row["amount"] - last_amount if last_amount is not None else None,
+                           change_pct=100 * (row["amount"] - last_amount) / last_amount if last_amount else None))
+    return result
+
+
+def chart_points(rows, zone, top=3, item=None):
+    """sql/daily_chart.sql: the chosen items' daily amounts (0 on a day without
+    sales) and the 7-day centred moving mean, math.fsum(frame) / 7 where the
+    frame is whole, None elsewhere."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales)
+    totals = defaultdict(float)
+    daily = defaultdict(list)
+    for s in sales:
+        if item is None or s.item == item:
+            daily[(s.day, s.item)].append(s.amount)
+    for (day, name), amounts in daily.items():
+        totals[name] += math.fsum(amounts)
+    items = sorted(totals, key=lambda name: (-totals[name], name))[:top]
+    points = {}
+    days = [first + dt.timedelta(days=k) for k in range((after - first).days)]
+    for name in items:
+        raw = [math.fsum(daily.get((day, name), [])) for day in days]
+        for k, day in enumerate(days):
+            frame = raw[k - 3:k + 4] if k >= 3 else []
+            points[(name, day.isoformat(), "raw")] = raw[k]
+            points[(name, day.isoformat(), "smooth")] = math.fsum(frame) / 7 if len(frame) == 7 else None
+    return items, points

@@ -1,0 +1,426 @@
+"""The report library sql/ run in the real sqlite3 shell, against answers computed in Python.
+
+Two databases: a small fixture built here with a known shape (a rising, a
+falling, a flat noisy and a winter-only item; a whole closed month, so weeks,
+half-months and a month with no sales at all; ISO year 2020 with its week 53),
+and a small demo database written by demo/generate.py with a fixed seed.
+Every expected value comes from tests/reference/report_oracle.py, plain
+Python arithmetic (math.fsum, statistics, datetime, zoneinfo), named beside
+each assertion.
+"""
+import datetime as dt
+import hashlib
+import json
+import math
+import pathlib
+import random
+import sqlite3
+import subprocess
+import xml.etree.ElementTree as ET
+from zoneinfo import ZoneInfo
+
+import pytest
+
+from conftest import SOURCE, run_shell
+import report_oracle as oracle
+
+SQL = SOURCE / "sql"
+GENERATOR = SOURCE / "demo" / "generate.py"
+ZONE = "America/Denver"
+compared = {}
+
+
+def count(what, n=1):
+    compared[what] = compared.get(what, 0) + n
+
+
+def teardown_module():
+    print(f"\ncompared: {compared}")
+
+
+# --- running a report ------------------------------------------------------------------------
+
+def parameter_lines(params):
+    lines = []
+    for name, value in params.items():
+        if isinstance(value, str):
+            # Quoted twice so the shell stores TEXT, never evaluates 2020-01-06 as arithmetic.
+            value = '"' + "'" + value.replace("'", "''") + "'" + '"'
+        lines.append(f".parameter set @{name} {value}\n")
+    return "".join(lines)
+
+
+def report(database, name, **params):
+    """Rows of sql/<name>.sql as dicts, through the sqlite3 shell's JSON mode."""
+    script = parameter_lines(params) + ".mode json\n" + (SQL / f"{name}.sql").read_text()
+    output = run_shell(script, database=str(database))
+    return json.loads(output) if output.strip() else []
+
+
+def close(got, expected, digits):
+    """A value the report rounds to `digits` decimals, against the unrounded oracle."""
+    if expected is None or got is None:
+        return got is None and expected is None
+    return abs(got - expected) <= 0.5 * 10 ** -digits + 1e-9 * max(1.0, abs(expected))
+
+
+# --- the databases ---------------------------------------------------------------------------
+
+FIXTURE_ITEMS = {"Rising bun": 2.5, "Falling loaf": 3.75, "Flat tea": 1.25, "Winter soup": 4.5}
+FIXTURE_FIRST = dt.date(2019, 12, 30)   # Monday of 2020-W01 (date.isocalendar)
+FIXTURE_LAST = dt.date(2021, 2, 28)     # Sunday of 2021-W08
+CLOSED_FROM, CLOSED_TO = dt.date(2020, 6, 1), dt.date(2020, 6, 30)  # a whole month without sales
+
+
+def fixture_rows():
+    """Invented, deterministic sales; prices are binary fractions so sums are exact."""
+    rng = random.Random(41)
+    zone = ZoneInfo(ZONE)
+    rows = []
+    day = FIXTURE_FIRST
+    while day <= FIXTURE_LAST:
+        k = (day - FIXTURE_FIRST).days
+        if not (CLOSED_FROM <= day <= CLOSED_TO or day == dt.date(2020, 12, 25)):
+            counts = {
+                "Rising bun": 2 + k // 14 + (2 if day.weekday() == 5 else 0),
+                "Falling loaf": max(1, 14 - k // 30),
+                "Flat tea": rng.choice([1, 2, 3, 5, 8, 9, 12]),
+                "Winter soup": 3 if day.month in (11, 12, 1, 2) else 0,
+            }
+            for item, n in counts.items():
+                for _ in range(n):
+                    qty = rng.choice([1, 1, 1, 2, 3])
+                    # Local opening hours 7:00..22:59, so evening sales fall on the next UTC date.
+                    local = dt.datetime(day.year, day.month, day.day, rng.randrange(7, 23), rng.randrange(60),
+                                        rng.randrange(60), tzinfo=zone)
+                    ts = local.astimezone(dt.timezone.utc).strftime("%Y-%m-%d %H:%M:%S")
+                    rows.append((ts, item, qty, qty * FIXTURE_ITEMS[item]))
+        day += dt.timedelta(days=1)
+    return rows
+
+
+def write_db(path, rows):
+    connection = sqlite3.connect(path)
+    connection.execute("CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL)")
+    connection.executemany("INSERT INTO sales VALUES (?, ?, ?, ?)", rows)
+    connection.commit()
+    connection.close()
+
+
+def read_rows(path):
+    connection = sqlite3.connect(path)
+    rows = connection.execute("SELECT ts, item, qty, amount FROM sales ORDER BY rowid").fetchall()
+    connection.close()
+    return rows
+
+
+def generate_demo(path, seed, scale="0.04"):
+    subprocess.run(["/usr/bin/python3", str(GENERATOR), "--out", str(path), "--seed", str(seed), "--scale", scale],
+                   check=True, capture_output=True, text=True, timeout=600)
+
+
+@pytest.fixture(scope="module")
+def fixture_db(tmp_path_factory):
+    path = tmp_path_factory.mktemp("fixture") / "fixture.db"
+    rows = fixture_rows()
+    write_db(path, rows)
+    return path, rows
+
+
+@pytest.fixture(scope="module")
+def demo_db(tmp_path_factory):
+    path = tmp_path_factory.mktemp("demo") / "shop.db"
+    generate_demo(path, seed=7)
+    return path, read_rows(path)
+
+
+@pytest.fixture(params=["fixture", "demo"])
+def database(request, fixture_db, demo_db):
+    return fixture_db if request.param == "fixture" else demo_db
+
+
+# --- the generator ---------------------------------------------------------------------------
+
+def rows_hash(path):
+    connection = sqlite3.connect(path)
+    digest = hashlib.sha256()
+    for row in connection.execute("SELECT ts, item, qty, amount, shop FROM sales ORDER BY rowid"):
+        digest.update(repr(row).encode())
+    connection.close()
+    return digest.hexdigest()
+
+
+def test_generator_is_deterministic_and_has_the_promised_shape(tmp_path):
+    generate_demo(tmp_path / "a.db", seed=11)
+    generate_demo(tmp_path / "b.db", seed=11)
+    generate_demo(tmp_path / "c.db", seed=12)
+    # oracle: hashlib.sha256 over the rows in rowid order — same seed, same rows
+    assert rows_hash(tmp_path / "a.db") == rows_hash(tmp_path / "b.db")
+    assert rows_hash(tmp_path / "a.db") != rows_hash(tmp_path / "c.db")
+    rows = read_rows(tmp_path / "a.db")
+    days = {oracle.local_day(ts, ZONE) for ts, *_ in rows}
+    # oracle: datetime arithmetic on the local days of the rows (zoneinfo)
+    assert (max(days) - min(days)).days >= 2 * 365
+    assert dt.date(2024, 12, 25) not in days and dt.date(2023, 11, 23) not in days  # closed: Christmas, Thanksgiving
+    assert len({item for _, item, *_ in rows}) == 12
+    assert all(ts[4] == "-" and len(ts) == 19 for ts, *_ in rows)  # UTC text 'YYYY-MM-DD HH:MM:SS'
+    count("generator runs", 3)
+
+
+# --- period totals ---------------------------------------------------------------------------
+
+TOTALS = {
+    "totals_week": ("week", oracle.week_of),
+    "totals_half_month": ("half_month", oracle.half_month_of),
+    "totals_month": ("month", oracle.month_of),
+    "totals_fiscal_quarter": ("fiscal_quarter", oracle.fiscal_quarter_of(10)),
+}
+
+
+def check_totals(got, expected, column):
+    assert len(got) == len(expected)  # oracle: report_oracle.enumerate_periods (datetime days)
+    for g, e in zip(got, expected):
+        assert g[column] == e["label"] and g["item"] == e["item"]   # oracle: date.isocalendar / calendar labels
+        assert (g["sales"], g["qty"], g["days_with_sales"]) == (e["sales"], e["qty"], e["days_with_sales"])  # oracle: plain Python counts
+        assert close(g["amount"], e["amount"], 2)                   # oracle: math.fsum over the period's rows
+        assert close(g["amount_per_day"], e["amount_per_day"], 2)   # oracle: fsum / distinct local days, None when 0
+        assert close(g["mean_sale"], e["mean_sale"], 2)             # oracle: fsum / row count, None when 0
+    count("period total rows", len(got))
+
+
+@pytest.mark.parametrize("name", sorted(TOTALS))
+def test_period_totals_match_plain_python_sums(database, name):
+    path, rows = database
+    column, period_of = TOTALS[name]
+    check_totals(report(path, name, zone=ZONE), oracle.period_totals(rows, ZONE, period_of), column)
+
+
+@pytest.mark.parametrize("name", sorted(TOTALS))
+def test_period_totals_per_item_and_for_one_item(fixture_db, name):
+    path, rows = fixture_db
+    column, period_of = TOTALS[name]
+    check_totals(report(path, name, zone=ZONE, item="*"), oracle.period_totals(rows, ZONE, period_of, "*"), column)
+    check_totals(report(path, name, zone=ZONE, item="Winter soup"),
+                 oracle.period_totals(rows, ZONE, period_of, "Winter soup"), column)
+
+
+def test_empty_periods_are_zero_for_sums_and_null_for_means(fixture_db):
+    path, _ = fixture_db
+    weeks = {row["week"]: row for row in report(path, "totals_week", zone=ZONE)}
+    months = {row["month"]: row for row in report(path, "totals_month", zone=ZONE)}
+    halves = {row["half_month"]: row for row in report(path, "totals_half_month", zone=ZONE)}
+    # The fixture is closed 2020-06-01..30: ISO weeks 23-26 of 2020 lie wholly inside
+    # (oracle: date(2020,6,1).isocalendar() is (2020, 23, 1), date(2020,6,28) is (2020, 26, 7)).
+    for empty in [weeks[f"2020-W{w}"] for w in (23, 24, 25, 26)] + [months["2020-06"], halves["2020-06 (1-15)"],
+                                                                     halves["2020-06 (16-30)"]]:
+        assert (empty["sales"], empty["qty"], empty["amount"], empty["days_with_sales"]) == (0, 0, 0, 0)  # common practice: an empty period sums to 0
+        assert empty["amount_per_day"] is None and empty["mean_sale"] is None  # common practice: a mean of nothing is NULL
+    # ISO year 2020 has 53 weeks (oracle: date(2020, 12, 31).isocalendar()[1] == 53).
+    assert "2020-W53" in weeks and dt.date(2020, 12, 31).isocalendar()[1] == 53
+    count("empty periods", 7)
+
+
+def test_a_range_from_parameters_and_a_view_over_another_table(fixture_db, tmp_path):
+    path, rows = fixture_db
+    got = report(path, "totals_month", zone=ZONE, start="2020-03-01", stop="2020-09-01")
+    expected = oracle.period_totals(rows, ZONE, oracle.month_of, start=dt.date(2020, 3, 1), stop=dt.date(2020, 9, 1))
+    check_totals(got, expected, "month")
+    assert [row["month"] for row in got] == ["2020-03", "2020-04", "2020-05", "2020-06", "2020-07", "2020-08"]  # oracle: calendar months Mar..Aug
+    # A table of another shape, reached through the temp view the report headers describe.
+    other = tmp_path / "other.db"
+    connection = sqlite3.connect(other)
+    connection.execute("CREATE TABLE pos_export(sold_at TEXT, product TEXT, units INTEGER, total REAL)")
+    connection.executemany("INSERT INTO pos_export VALUES (?, ?, ?, ?)", rows)
+    connection.commit()
+    connection.close()
+    script = (".parameter set @zone America/Denver\n.mode json\n"
+              "CREATE TEMP VIEW sales AS SELECT sold_at AS ts, product AS item, units AS qty, total AS amount"
+              " FROM pos_export;\n" + (SQL / "totals_month.sql").read_text())
+    check_totals(json.loads(run_shell(script, database=str(other))),
+                 oracle.period_totals(rows, ZONE, oracle.month_of), "month")
+
+
+# --- trend and noise -------------------------------------------------------------------------
+
+def check_trend(got, expected):
+    assert sorted(row["item"] for row in got) == sorted(expected)  # oracle: the items of the rows
+    for row in got:
+        e = expected[row["item"]]
+        assert row["weeks"] == e["weeks"]                            # oracle: enumerate_periods over ISO weeks
+        assert close(row["mean_per_week"], e["mean"], 2)            # oracle: statistics.fmean of weekly fsum totals
+        assert close(row["slope_per_week"], e["slope"], 2)          # oracle: statistics.linear_regression
+        assert close(row["slope_stderr"], e["stderr"], 2)           # oracle: resid_sd / sqrt(Sxx), plain arithmetic
+        assert close(row["r2"], e["r2"], 3)                         # oracle: statistics.correlation ** 2
+        assert close(row["resid_sd"], e["resid_sd"], 2)             # oracle: sqrt(fsum(residual^2) / (n - 2))
+        assert close(row["pct_per_year"], e["pct_per_year"], 1)     # oracle: 100 * 52 * slope / mean
+        assert row["verdict"] == e["verdict"]                       # oracle: |slope| > 2 stderr on the values above
+        shape = row["shape"]
+        assert len(shape) == len(e["shape_levels"])                 # oracle: one block per 4 weeks
+        for char, levels in zip(shape, e["shape_levels"]):
+            assert ord(char) - 0x2581 in levels                     # oracle: DESIGN.md sparkline rule on fmean of blocks
+    # The report lists rising items first: by slope relative to the mean, descending.
+    assert [row["item"] for row in got] == sorted(expected, key=lambda i: (-expected[i]["slope"] / expected[i]["mean"], i))
+    count("trend rows", len(got))
+
+
+def test_trend_table_matches_statistics_linear_regression(database):
+    path, rows = database
+    check_trend(report(path, "trend", zone=ZONE), oracle.trend(rows, ZONE))
+
+
+def test_trend_verdicts_on_the_fixture(fixture_db):
+    path, rows = fixture_db
+    got = {row["item"]: row for row in report(path, "trend", zone=ZONE)}
+    expected = oracle.trend(rows, ZONE)
+    # The fixture was built rising / falling / flat; the oracle's verdicts agree, with margin.
+    assert [expected[i]["verdict"] for i in ("Rising bun", "Falling loaf", "Flat tea")] == \
+        ["rising", "falling", "no clear trend"]                       # oracle: report_oracle.trend
+    assert abs(expected["Rising bun"]["slope"]) > 5 * expected["Rising bun"]["stderr"]
+    assert abs(expected["Falling loaf"]["slope"]) > 5 * expected["Falling loaf"]["stderr"]
+    assert abs(expected["Flat tea"]["slope"]) < 1.5 * expected["Flat tea"]["stderr"]
+    assert {i: got[i]["verdict"] for i in got} == {i: expected[i]["verdict"] for i in expected}
+    count("verdicts", len(got))
+
+
+def test_trend_over_a_chosen_range_of_whole_weeks(fixture_db):
+    path, rows = fixture_db
+    got = report(path, "trend", zone=ZONE, start="2020-07-06", stop="2021-01-04", spark_weeks=2)
+    check_trend_sub = oracle.trend(rows, ZONE, spark_weeks=2, start=dt.date(2020, 7, 6), stop=dt.date(2021, 1, 4))
+    assert {row["weeks"] for row in got} == {26}   # oracle: (2021-01-04 - 2020-07-06).days / 7
+    check_trend(got, check_trend_sub)
+
+
+def test_noise_ranking_order_and_values(database):
+    path, rows = database
+    got = report(path, "noise_ranking", zone=ZONE)
+    expected = oracle.noise_ranking(rows, ZONE)
+    assert [row["item"] for row in got] == [e["item"] for e in expected]  # oracle: sorted by resid_sd / fmean
+    assert [row["rank"] for row in got] == list(range(1, len(expected) + 1))
+    for g, e in zip(got, expected):
+        assert close(g["mean_per_week"], e["mean"], 2)   # oracle: statistics.fmean
+        assert close(g["resid_sd"], e["resid_sd"], 2)    # oracle: sqrt(fsum(residual^2) / (n - 2))
+        assert close(g["noise_pct"], e["noise_pct"], 1)  # oracle: 100 * resid_sd / mean
+        assert close(g["sd_pct"], e["sd_pct"], 1)        # oracle: statistics.stdev / mean
+    count("noise rows", len(got))
+
+
+def test_noise_ranking_of_the_fixture_puts_the_seasonal_and_noisy_items_first(fixture_db):
+    path, _ = fixture_db
+    got = [row["item"] for row in report(path, "noise_ranking", zone=ZONE)]
+    # Winter soup is sold four months a year and Flat tea's daily counts jump 1..12:
+    # the oracle ranks them first and second (report_oracle.noise_ranking).
+    assert got[:2] == ["Winter soup", "Flat tea"]
+
+
+# --- weekday profile -------------------------------------------------------------------------
+
+def check_weekdays(got, expected):
+    assert len(got) == len(expected)
+    for g, e in zip(got, expected):
+        assert (g["weekday"], g["item"], g["days"], g["days_with_sales"], g["qty"]) == \
+            (e["weekday"], e["item"], e["days"], e["days_with_sales"], e["qty"])  # oracle: date.weekday() counts
+        assert close(g["amount"], e["amount"], 2)                  # oracle: math.fsum
+        assert close(g["share_pct"], e["share_pct"], 1)            # oracle: 100 * weekday fsum / total fsum
+        assert close(g["mean_per_day"], e["mean_per_day"], 2)      # oracle: statistics.fmean of daily totals
+        assert close(g["median_per_day"], e["median_per_day"], 2)  # oracle: statistics.median of daily totals
+        assert close(g["index"], e["index"], 1)                    # oracle: 100 * mean / mean of all sold days
+    count("weekday rows", len(got))
+
+
+def test_weekday_profile(database):
+    path, rows = database
+    check_weekdays(report(path, "weekday_profile", zone=ZONE), oracle.weekday_profile(rows, ZONE))
+
+
+def test_weekday_profile_per_item(fixture_db):
+    path, rows = fixture_db
+    check_weekdays(report(path, "weekday_profile", zone=ZONE, item="*"), oracle.weekday_profile(rows, ZONE, "*"))
+    profile = {row["weekday"]: row for row in report(path, "weekday_profile", zone=ZONE, item="Rising bun")}
+    # The fixture sells two more buns every Saturday: Saturday is the bun's busiest day.
+    assert max(profile, key=lambda d: profile[d]["mean_per_day"]) == "Saturday"
+
+
+# --- same period last year -------------------------------------------------------------------
+
+def check_last_year(got, expected):
+    assert len(got) == len(expected)
+    for g, e in zip(got, expected):
+        assert (g["period"], g["item"], g["last_year_period"]) == (e["period"], e["item"], e["last_year_period"])  # oracle: date.fromisocalendar(year - 1, week, 1) / date.replace(year=-1)
+        assert close(g["amount"], e["amount"], 2)                      # oracle: math.fsum
+        assert close(g["last_year_amount"], e["last_year_amount"], 2)  # oracle: math.fsum, None outside the data
+        assert close(g["change"], e["change"], 2)
+        assert close(g["change_pct"], e["change_pct"], 1)
+    count("last-year rows", len(got))
+
+
+def test_same_iso_week_last_year(database):
+    path, rows = database
+    check_last_year(report(path, "same_period_last_year", zone=ZONE),
+                    oracle.same_period_last_year(rows, ZONE, oracle.week_of, oracle.last_year_of_week))
+
+
+def test_same_month_and_fiscal_quarter_last_year(fixture_db):
+    path, rows = fixture_db
+    check_last_year(report(path, "same_period_last_year", zone=ZONE, unit="month", item="*"),
+                    oracle.same_period_last_year(rows, ZONE, oracle.month_of, oracle.last_year_of_start, "*"))
+    check_last_year(report(path, "same_period_last_year", zone=ZONE, unit="quarter starting october"),
+                    oracle.same_period_last_year(rows, ZONE, oracle.fiscal_quarter_of(10), oracle.last_year_of_start))
+    check_last_year(report(path, "same_period_last_year", zone=ZONE, unit="half-month"),
+                    oracle.same_period_last_year(rows, ZONE, oracle.half_month_of, oracle.last_year_of_start))
+
+
+def test_iso_week_counterparts_across_a_53_week_year(fixture_db):
+    path, _ = fixture_db
+    got = {row["period"]: row for row in report(path, "same_period_last_year", zone=ZONE)}
+    # ISO 2020 has 53 weeks, so 2021-W01 pairs with 2020-W01, 53 weeks back, not with
+    # 2020-W02, 52 weeks back (oracle: date.fromisocalendar(2020, 1, 1) == date(2019, 12, 30)).
+    assert got["2021-W01"]["last_year_period"] == "2020-W01"
+    assert got["2021-W08"]["last_year_period"] == "2020-W08"
+    # 2019 has no week 53 (date.fromisocalendar(2019, 53, 1) raises): no counterpart at all.
+    assert got["2020-W53"]["last_year_period"] is None and got["2020-W53"]["last_year_amount"] is None
+    # A counterpart before the data began is NULL, not 0: there is nothing to compare.
+    assert got["2020-W10"]["last_year_period"] == "2019-W10" and got["2020-W10"]["last_year_amount"] is None
+    with pytest.raises(ValueError):
+        dt.date.fromisocalendar(2019, 53, 1)
+
+
+# --- the chart -------------------------------------------------------------------------------
+
+def chart(database, **params):
+    """The SVG the chart report prints, and the points it leaves in temp.chart_points."""
+    script = (parameter_lines(params) + ".mode list\n" + (SQL / "daily_chart.sql").read_text()
+              + "\n.print ---points---\n.mode json\n"
+              "SELECT item, day, layer, CASE WHEN value IS NOT NULL THEN printf('%!.17g', value) END AS value"
+              " FROM temp.chart_points;\n")
+    output = run_shell(script, database=str(database))
+    svg, points = output.split("---points---\n")
+    return svg, json.loads(points)
+
+
+def check_chart(path, rows, **params):
+    svg, points = chart(path, zone=ZONE, **params)
+    items, expected = oracle.chart_points(rows, ZONE, top=params.get("top", 3), item=params.get("item"))
+    root = ET.fromstring(svg.strip())  # oracle: xml.etree parses the document
+    assert root.tag.endswith("svg")
+    texts = {"".join(node.itertext()).strip() for node in root.iter() if node.tag.endswith("text")}
+    for item in items:
+        assert item in texts  # oracle: the legend names each chosen item (report_oracle.chart_points top items)
+    assert len(points) == len(expected)
+    for point in points:
+        value = None if point["value"] is None else float(point["value"])
+        want = expected[(point["item"], point["day"], point["layer"])]
+        if point["layer"] == "raw":
+            assert close(value, want, 2)   # oracle: math.fsum of the day's amounts
+        else:
+            assert value == want           # oracle: math.fsum(7-day frame) / 7, bit for bit (DESIGN.md moving_mean)
+    count("chart points", len(points))
+
+
+def test_overlay_chart_of_the_top_items(database):
+    path, rows = database
+    check_chart(path, rows)
+
+
+def test_overlay_chart_of_one_item(fixture_db):
+    path, rows = fixture_db
+    check_chart(path, rows, item="Flat tea", title="Flat tea <daily>")
