@@ -1,0 +1,128 @@
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <limits>
+
+#include "core/error.h"
+#include "core/exact_number.h"
+#include "core/exact_sum.h"
+
+using namespace almanac;
+
+namespace {
+double sum_of(std::initializer_list<double> values) {
+    ExactSum sum;
+    for (double v : values) sum.add(v);
+    return sum.to_double();
+}
+}  // namespace
+
+TEST_CASE("an exact sum of ten 0.1 rounds to 1.0, as math.fsum does") {
+    // Python documentation of math.fsum: sum([.1]*10) is 0.9999999999999999,
+    // fsum([.1]*10) is 1.0.
+    ExactSum sum;
+    for (int i = 0; i < 10; ++i) sum.add(0.1);
+    CHECK(sum.to_double() == 1.0);
+}
+
+TEST_CASE("huge terms that cancel leave the small ones intact") {
+    // Exact arithmetic (from memory): 1e308 + 1e308 - 1e308 - 1e308 + 1e-300 = 1e-300.
+    CHECK(sum_of({1e308, 1e308, 1e-300, -1e308, -1e308}) == 1e-300);
+    CHECK(sum_of({1e100, 1.0, -1e100}) == 1.0);
+    CHECK(sum_of({-1e100, -1.0, 1e100}) == -1.0);
+}
+
+TEST_CASE("rounding is to nearest, ties to even, in both signs") {
+    // IEEE 754 roundTiesToEven (from memory): 2^53 + 1 is a tie between 2^53
+    // and 2^53 + 2; the even one wins. Anything above the tie rounds up.
+    const double big = 9007199254740992.0;  // 2^53
+    CHECK(sum_of({big, 1.0}) == big);
+    CHECK(sum_of({big, 1.0, std::ldexp(1.0, -60)}) == big + 2.0);
+    CHECK(sum_of({big, 3.0}) == big + 4.0);
+    CHECK(sum_of({-big, -1.0}) == -big);
+    CHECK(sum_of({-big, -1.0, -std::ldexp(1.0, -60)}) == -big - 2.0);
+    CHECK(sum_of({-big, -3.0}) == -big - 4.0);
+}
+
+TEST_CASE("subnormal sums are exact and overflow gives infinity") {
+    const double tiny = std::numeric_limits<double>::denorm_min();  // 2^-1074
+    CHECK(sum_of({tiny, tiny, tiny}) == 3 * tiny);
+    CHECK(sum_of({tiny, -tiny}) == 0.0);
+    CHECK(sum_of({std::numeric_limits<double>::min(), -tiny}) ==
+          std::numeric_limits<double>::min() - tiny);
+    CHECK(std::isinf(sum_of({1.7e308, 1.7e308})));
+    CHECK(sum_of({1.7e308, 1.7e308, -1.7e308}) == 1.7e308);
+}
+
+TEST_CASE("a term that was removed leaves no trace") {
+    // Property: the same values with and without a spike that came and went.
+    ExactSum fresh, passed;
+    passed.add(1e15);
+    for (double v : {1000000000.25, 999999999.75, 1000000001.5}) {
+        fresh.add(v);
+        passed.add(v);
+    }
+    passed.subtract(1e15);
+    CHECK(passed.to_double() == fresh.to_double());
+    CHECK(passed.value().to_double() == fresh.value().to_double());
+    passed.subtract(1000000000.25);
+    passed.subtract(999999999.75);
+    passed.subtract(1000000001.5);
+    CHECK(passed.is_zero());
+    CHECK(passed.to_double() == 0.0);
+}
+
+TEST_CASE("products of doubles enter the sum exactly") {
+    // (1 + 2^-30)^2 = 1 + 2^-29 + 2^-60 (exact arithmetic, from memory).
+    double x = 1.0 + std::ldexp(1.0, -30);
+    ExactSum sum;
+    sum.add_product(x, x);
+    sum.subtract(1.0);
+    CHECK(sum.to_double() == std::ldexp(1.0, -29) + std::ldexp(1.0, -60));
+    // Products far outside the double range are still exact: 1e300^2 - 1e300^2 + 1 = 1.
+    ExactSum wide;
+    wide.add_product(1e300, 1e300);
+    wide.add(1.0);
+    wide.subtract_product(1e300, -1e300 * -1.0);
+    CHECK(wide.to_double() == 1.0);
+    ExactSum small;
+    small.add_product(1e-300, 1e-300);
+    CHECK(small.to_double() == 0.0);  // 1e-600 is below the smallest subnormal
+    CHECK(small.sign() == 1);         // but the exact sum knows it is there
+}
+
+TEST_CASE("shifted terms are exact powers of two apart") {
+    ExactSum sum;
+    sum.add_scaled(1.5, 3000);
+    sum.add_scaled(1.0, 0);
+    sum.subtract_scaled(1.5, 3000);
+    CHECK(sum.to_double() == 1.0);
+}
+
+TEST_CASE("many carries are resolved without overflow") {
+    // 3 * 2^30 additions of (2^53 - 1) * 2^-21 would overflow an unresolved limb.
+    ExactSum sum;
+    double v = std::ldexp(9007199254740991.0, -21);
+    const long count = 3L << 20;
+    for (long i = 0; i < count; ++i) sum.add(v);
+    // count * v is exactly representable: 3 * 2^20 * (2^53-1) * 2^-21 = 1.5 * (2^53 - 1)
+    CHECK(sum.to_double() == 1.5 * 9007199254740991.0);
+}
+
+TEST_CASE("non-finite terms are refused") {
+    ExactSum sum;
+    CHECK_THROWS_AS(sum.add(std::numeric_limits<double>::infinity()), Error);
+    CHECK_THROWS_AS(sum.add(std::nan("")), Error);
+}
+
+TEST_CASE("exact numbers multiply and subtract without rounding") {
+    // (2^40 + 1)(2^40 - 1) = 2^80 - 1 (difference of squares, from memory).
+    ExactNumber a(std::uint64_t(1) << 40), one(1);
+    ExactNumber product = (a + one) * (a - one);
+    ExactNumber square = a * a;
+    CHECK((product - square).to_double() == -1.0);
+    CHECK((square - product).sign() == 1);
+    CHECK((product - product).is_zero());
+    CHECK(product.to_double() == std::ldexp(1.0, 80));  // 2^80 - 1 rounds to 2^80
+    CHECK(ExactNumber(3).to_scaled().to_double() == 3.0);
+}
