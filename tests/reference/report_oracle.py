@@ -271,9 +271,9 @@ def same_period_last_year(rows, zone, period_of, counterpart, item=None):
 
 
 def chart_points(rows, zone, top=3, item=None):
-    """sql/daily_chart.sql: the chosen items' daily amounts (0 on a day without
-    sales) and the 7-day centred moving mean, math.fsum(frame) / 7 where the
-    frame is whole, None elsewhere."""
+    """sql/daily_chart.sql: the chosen items' daily amounts in cents (0 on a day
+    without sales; round(math.fsum, 2)) and the 7-day centred moving mean of
+    those, math.fsum(frame) / 7 where the frame is whole, None elsewhere."""
     sales = sales_of(rows, zone)
     first, after = day_range(sales)
     totals = defaultdict(float)
@@ -287,7 +287,7 @@ def chart_points(rows, zone, top=3, item=None):
     points = {}
     days = [first + dt.timedelta(days=k) for k in range((after - first).days)]
     for name in items:
-        raw = [math.fsum(daily.get((day, name), [])) for day in days]
+        raw = [round(math.fsum(daily.get((day, name), [])), 2) for day in days]
         for k, day in enumerate(days):
             frame = raw[k - 3:k + 4] if k >= 3 else []
             points[(name, day.isoformat(), "raw")] = raw[k]

@@ -1,0 +1,82 @@
+-- almanac report: the overlay chart. For the top items (or one chosen item),
+-- the raw daily amount as a thin light line and its 7-day moving mean as a
+-- thick line in the same colour, so the noise and the direction show at once.
+-- Prints one complete SVG document; send it to a file.
+--
+-- Reads a table or view named sales:
+--   sales(ts, item, qty, amount)
+--     ts      when the sale happened: an almanac time value, normally UTC text
+--             'YYYY-MM-DD HH:MM:SS' as point-of-sale exports write it
+--     item    TEXT, what was sold
+--     qty     number of units sold (not used here)
+--     amount  money received for the sale
+--   Other columns are ignored. A table with other names: put a view in front
+--   of it in the same session (a temp view named sales is found before a
+--   table main.sales, so it can also narrow one down):
+--     CREATE TEMP VIEW sales AS
+--       SELECT sold_at AS ts, product AS item, units AS qty, total AS amount FROM pos_export;
+--     CREATE TEMP VIEW sales AS SELECT * FROM main.sales WHERE shop = 'Millrace';
+--
+-- Parameters (sqlite3 shell: .parameter set @name value; unset ones take the default;
+-- a date needs both kinds of quotes, or the shell computes 2025-01-06 = 2018):
+--   @zone    IANA time zone of the shop's calendar        default 'UTC'
+--   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
+--   @stop    local day after the last one                default: the day after the last sale
+--   @item    one item to draw                            default: the @top items by amount
+--   @top     how many items, the largest amount first    default 3
+--   @title   the chart's title                           default 'Amount per day and 7-day moving mean'
+--   @width, @height  size in pixels                      default 960 x 400
+--
+-- What is drawn: every local day of the range for each item, a day without
+-- sales (a closed day) as 0, because that is what the till took. The smooth
+-- line is moving_mean(amount, 7) OVER a frame of the day, the 3 before and the
+-- 3 after (RANGE over the day serial, so it is 7 calendar days); it starts on
+-- the 4th day and ends on the 4th day from the end, where the frame is whole.
+--
+-- Side effect: leaves the points in the temp table chart_points(item, serial,
+-- day, layer, value), for a look with SELECT or a chart of your own.
+--
+-- Run:
+--   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
+--           shop.db < sql/daily_chart.sql > chart.svg
+DROP TABLE IF EXISTS temp.chart_points;
+CREATE TEMP TABLE chart_points AS
+WITH
+settings AS (
+  SELECT coalesce(@zone, 'UTC') AS zone
+),
+range AS (
+  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+         coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
+  FROM sales AS s, settings
+),
+daily_sales AS (
+  -- A day's takings in cents, so the smooth line is the mean of the amounts the raw line shows.
+  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, round(sum(s.amount), 2) AS amount
+  FROM sales AS s, settings, range
+  WHERE (@item IS NULL OR s.item = @item)
+    AND period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
+    AND period_serial(s.ts, 'day', settings.zone) < period_serial(range.stop, 'day', settings.zone)
+  GROUP BY 1, 2
+),
+chosen AS (
+  SELECT item FROM daily_sales GROUP BY item ORDER BY sum(amount) DESC, item LIMIT coalesce(@top, 3)
+),
+daily AS (
+  SELECT c.item, p.serial, p.period_start AS day, coalesce(t.amount, 0) AS amount
+  FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
+  CROSS JOIN chosen AS c
+  LEFT JOIN daily_sales AS t ON t.serial = p.serial AND t.item = c.item
+)
+SELECT item, serial, day, 'raw' AS layer, amount AS value FROM daily
+UNION ALL
+SELECT item, serial, day, 'smooth',
+       moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
+                                    RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING)
+FROM daily;
+
+SELECT svg_line_chart(day, value, item, layer,
+                      json_object('title', coalesce(@title, 'Amount per day and 7-day moving mean'),
+                                  'y_caption', 'amount per day',
+                                  'width', coalesce(@width, 960), 'height', coalesce(@height, 400)))
+FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial);
