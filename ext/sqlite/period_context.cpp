@@ -65,6 +65,7 @@ Instant place_on_time_line(const TimeValue& value, const PeriodCalendar& calenda
 
 void result_boundary(sqlite3_context* context, const TimeValue& like, Instant t,
                      const PeriodCalendar& calendar) {
+    if (!in_supported_range(t)) throw Error("the result falls outside years 0000 through 9999");
     switch (like.representation) {
         case Representation::Text: {
             std::string text = calendar.format_boundary(t);

@@ -57,10 +57,13 @@ void answer_period_question(sqlite3_context* context, int argc, sqlite3_value** 
         ArgumentRef t_arg{function->name, 1, "t"};
         ArgumentRef spec_arg{function->name, 2, "spec"};
         ArgumentRef zone_arg{function->name, 3, "zone"};
+        // NULL in, NULL out, before the other arguments are looked at (as
+        // SQLite's own date(NULL, 'anything') is NULL).
         auto t = read_time(t_arg, argv[0]);
+        if (!t) return sqlite3_result_null(context);
         const PeriodCalendar* calendar =
             cached_calendar(context, 1, spec_arg, argv, 2, argc == 3 ? &zone_arg : nullptr);
-        if (!t || !calendar) return sqlite3_result_null(context);
+        if (!calendar) return sqlite3_result_null(context);
         Instant instant = place_on_time_line(*t, *calendar);
         switch (function->question) {
             case Question::Floor:
@@ -101,10 +104,12 @@ void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
         ArgumentRef spec_arg{name, 3, "spec"};
         ArgumentRef zone_arg{name, 4, "zone"};
         auto t = read_time(t_arg, argv[0]);
+        if (!t) return sqlite3_result_null(context);
         auto n = read_integer(n_arg, argv[1], -100000000LL, 100000000LL);
+        if (!n) return sqlite3_result_null(context);
         const PeriodCalendar* calendar =
             cached_calendar(context, 2, spec_arg, argv, 3, argc == 4 ? &zone_arg : nullptr);
-        if (!t || !n || !calendar) return sqlite3_result_null(context);
+        if (!calendar) return sqlite3_result_null(context);
         if (t->is_calendar_day) {
             if (calendar->spec().is_sub_day()) {
                 raise_argument_error(t_arg, argv[0],
@@ -115,7 +120,7 @@ void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
             return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
         }
         Instant moved = calendar->shift(t->instant, *n);
-        if (!in_supported_range(moved)) raise_function_error(name, "the result falls outside years 0000 through 9999");
+        if (!in_supported_range(moved)) throw Error("the result falls outside years 0000 through 9999");
         switch (t->representation) {
             case Representation::Text: {
                 std::string text = write_like(*t, moved, *calendar);
