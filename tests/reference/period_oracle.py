@@ -97,10 +97,12 @@ def wall_period(spec, wall):
         serial = month_index(wall) * 2 + (1 if second_half else 0)
         return start, end, serial
     if spec.month_based:
-        length = MONTHS_PER_UNIT[spec.unit] * spec.count
+        unit_months = MONTHS_PER_UNIT[spec.unit]
+        length = unit_months * spec.count
         if spec.start_from is None:
-            # counted from the period holding 1970-01-01, aligned on the start month
-            first = -((-(spec.year_start - 1)) % length)
+            # multiples are counted from the single period (month, quarter or
+            # year, aligned on its start month) that holds 1970-01-01
+            first = -((-(spec.year_start - 1)) % unit_months)
             k = (month_index(wall) - first) // length
             return month_start(first + k * length), month_start(first + (k + 1) * length), k
         anchor = spec.start_from
