@@ -226,9 +226,8 @@ void mean_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
         MeanState& mean = state<MeanState>(context);
         if (mean.min_values_seen && min_values != mean.min_values)
             raise_argument_error({"moving_mean", 2, "min_values"}, argv[1],
-                                 "expected the same min_values in every row, not " +
-                                     std::to_string(min_values) + " after " +
-                                     std::to_string(mean.min_values));
+                                 "expected the same min_values in every row (the first was " +
+                                     std::to_string(mean.min_values) + ")");
         mean.min_values = min_values;
         mean.min_values_seen = true;
         mean.sum.add(x);
@@ -271,6 +270,7 @@ struct EwmaState {
     std::int64_t half_life_ms = 0;
     double half_life = 0.0;      // when numeric
     std::string half_life_text;  // as written, when a spec: rows usually repeat it
+    std::string first_half_life;  // as messages show it
 };
 
 constexpr ArgumentRef kEwmaX{"ewma", 1, "x"};
@@ -329,13 +329,16 @@ void configure(EwmaState& ewma, sqlite3_value* value) {
                     (half_life.time_based ? half_life.ms == ewma.half_life_ms
                                           : half_life.number == ewma.half_life);
         if (!same)
-            raise_argument_error(kEwmaHalfLife, value, "expected the same half_life in every row");
+            raise_argument_error(kEwmaHalfLife, value,
+                                 "expected the same half_life in every row (the first was " +
+                                     ewma.first_half_life + ")");
         return;
     }
     ewma.configured = true;
     ewma.time_based = half_life.time_based;
     ewma.half_life_ms = half_life.ms;
     ewma.half_life = half_life.number;
+    ewma.first_half_life = describe_value(value);
     if (text) {
         const char* written = reinterpret_cast<const char*>(sqlite3_value_text(value));
         ewma.half_life_text.assign(written ? written : "", sqlite3_value_bytes(value));
