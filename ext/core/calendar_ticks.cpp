@@ -109,16 +109,19 @@ void label_ticks(AxisScale& scale, const std::vector<Instant>& instants, LabelKi
 
 }  // namespace
 
-AxisScale calendar_scale(Instant low, Instant high, int max_ticks) {
+AxisScale calendar_scale(Instant low, Instant high, int max_ticks, bool whole_days) {
     if (high <= low) {
-        low -= std::chrono::hours(12);
-        high += std::chrono::hours(12);
+        // One moment: a day (or, for dates, two days) around it.
+        auto widen = whole_days ? std::chrono::hours(24) : std::chrono::hours(12);
+        low -= widen;
+        high += widen;
     }
     max_ticks = std::max(max_ticks, 2);
     AxisScale scale{to_axis(low), to_axis(high), {}};
     double span_days = (scale.high - scale.low) / 86400000.0;
     for (const Candidate& candidate : kCandidates) {
         if (span_days / candidate.approx_days > max_ticks + 1) continue;
+        if (whole_days && candidate.kind == LabelKind::Clock) continue;
         PeriodCalendar calendar(parse_period_spec(candidate.spec), ZoneClock::utc());
         std::vector<Instant> instants;
         bool too_many = false;

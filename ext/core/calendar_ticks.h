@@ -15,6 +15,8 @@ namespace almanac {
 // Labels read as people write dates: "14:00" / "5 Mar" / "Mar" / "Q2" /
 // "2025", with the year (or, for hours, the day) as a second line at the
 // first tick and wherever it changes.
-AxisScale calendar_scale(Instant low, Instant high, int max_ticks);
+// With whole_days (every value is a midnight, as dates are) no tick falls
+// between two days: hour ticks would suggest readings the data has not got.
+AxisScale calendar_scale(Instant low, Instant high, int max_ticks, bool whole_days = false);
 
 }  // namespace almanac

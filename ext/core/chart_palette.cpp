@@ -6,26 +6,27 @@ namespace almanac {
 
 namespace {
 
-// Designed for almanac, not taken from any library. Method: the eight CIELAB
-// lightness levels L* = 30, 36.3, ... 74 (evenly spaced, so the colours stay
-// apart when printed in grey, and the lightest is still visible on white)
-// were each given a hue and chroma by a numerical search that maximised the
-// smallest pairwise CIE76 colour difference over normal vision and the
-// simulated protanopia, deuteranopia and tritanopia of Machado, Oliveira and
-// Fernandes (2009, severity 1) — weighting the simulated views fully and
-// normal vision by half — inside the sRGB gamut. The result, rounded to
-// 8 bits, was then ordered greedily so that the first k entries are as far
-// apart as possible for every k: a two-series chart gets the most distinct
-// pair. tests/reference/test_palette.py re-checks all of it from the SVG.
+// Designed for almanac, not taken from any library. Method: a numerical
+// search over 8-bit sRGB colours maximised the smallest pairwise CIE76
+// colour difference under the simulated protanopia, deuteranopia and
+// tritanopia of Machado, Oliveira and Fernandes (2009, severity 1), plus half
+// the smallest difference for normal vision, subject to greyscale
+// constraints: neighbours at least 6 apart in CIE L* and 12/255 apart in
+// BT.601 luma (so the colours stay apart printed in grey, whichever
+// conversion the printer uses), lightness within 28..76 (the lightest still
+// visible on white). The entries are then ordered greedily so that the
+// first k are as far apart as possible for every k: a two-series chart gets
+// the most distinct pair. tests/reference/test_palette.py re-checks all of
+// it from the colours the SVG uses.
 constexpr const char* kColours[kPaletteSize] = {
-    "#572e99",  // deep violet   L* 30
-    "#cc0116",  // signal red    L* 43
-    "#07ccb8",  // turquoise     L* 74
-    "#8f3753",  // wine          L* 36
-    "#ba0af9",  // electric purple L* 49
-    "#6187b4",  // steel blue    L* 55
-    "#eb9002",  // amber         L* 68
-    "#a09463",  // khaki         L* 61
+    "#7308ea",  // violet      L* 37
+    "#ee1a08",  // vermilion   L* 51
+    "#8aacde",  // sky blue    L* 70
+    "#e2568e",  // rose        L* 57
+    "#f9ac29",  // amber       L* 76
+    "#003ba2",  // navy        L* 29
+    "#636b43",  // olive       L* 44
+    "#01b14a",  // green       L* 63
 };
 
 // Gaps are at least 2.5 widths, so the round caps (half a width each end)

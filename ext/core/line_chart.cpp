@@ -155,8 +155,11 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
 
     AxisScale x_scale;
     if (kind == XKind::Time) {
+        constexpr double kDay = 86400000.0;
+        bool whole_days = std::all_of(points_.begin(), points_.end(),
+                                      [&](const Point& p) { return std::fmod(p.x, kDay) == 0; });
         x_scale = calendar_scale(instant_from_axis_value(x_min), instant_from_axis_value(x_max),
-                                 std::max(2, int(plot_w / 64)));
+                                 std::max(2, int(plot_w / 64)), whole_days);
     } else {
         // Fewer ticks until the widest label fits its share of the axis.
         for (int target = std::max(2, int(plot_w / 80));; --target) {
