@@ -11,7 +11,7 @@ ExactNumber::ExactNumber(std::uint64_t integer) {
     if (integer >> 32) digits_.push_back(static_cast<std::uint32_t>(integer >> 32));
 }
 
-ExactNumber::ExactNumber(bool negative, std::vector<std::uint32_t> digits, std::int64_t scale)
+ExactNumber::ExactNumber(bool negative, DigitBuffer digits, std::int64_t scale)
     : negative_(negative), digits_(std::move(digits)), scale_(scale) {
     trim();
 }
@@ -21,7 +21,7 @@ void ExactNumber::trim() {
     std::size_t low = 0;
     while (low < digits_.size() && digits_[low] == 0) ++low;
     if (low > 0) {
-        digits_.erase(digits_.begin(), digits_.begin() + static_cast<std::ptrdiff_t>(low));
+        digits_.erase_front(low);
         scale_ += static_cast<std::int64_t>(low);
     }
     if (digits_.empty()) {
@@ -58,7 +58,7 @@ ExactNumber ExactNumber::add_magnitudes(const ExactNumber& a, const ExactNumber&
     std::int64_t bottom = std::min(a.scale_, b.scale_);
     std::int64_t top = std::max(a.scale_ + std::int64_t(a.digits_.size()),
                                 b.scale_ + std::int64_t(b.digits_.size()));
-    std::vector<std::uint32_t> sum(static_cast<std::size_t>(top - bottom + 1), 0);
+    DigitBuffer sum(static_cast<std::size_t>(top - bottom + 1));
     std::uint64_t carry = 0;
     for (std::size_t i = 0; i + 1 < sum.size(); ++i) {
         std::int64_t position = bottom + std::int64_t(i);
@@ -69,7 +69,7 @@ ExactNumber ExactNumber::add_magnitudes(const ExactNumber& a, const ExactNumber&
         sum[i] = static_cast<std::uint32_t>(s);
         carry = s >> 32;
     }
-    sum.back() = static_cast<std::uint32_t>(carry);
+    sum[sum.size() - 1] = static_cast<std::uint32_t>(carry);
     return ExactNumber(negative, std::move(sum), bottom);
 }
 
@@ -77,7 +77,7 @@ ExactNumber ExactNumber::subtract_magnitudes(const ExactNumber& a, const ExactNu
                                              bool negative) {
     std::int64_t bottom = std::min(a.scale_, b.scale_);
     std::int64_t top = a.scale_ + std::int64_t(a.digits_.size());  // |a| >= |b|
-    std::vector<std::uint32_t> difference(static_cast<std::size_t>(top - bottom), 0);
+    DigitBuffer difference(static_cast<std::size_t>(top - bottom));
     std::int64_t borrow = 0;
     for (std::size_t i = 0; i < difference.size(); ++i) {
         std::int64_t position = bottom + std::int64_t(i);
@@ -105,7 +105,7 @@ ExactNumber operator-(const ExactNumber& a, const ExactNumber& b) { return a + (
 
 ExactNumber operator*(const ExactNumber& a, const ExactNumber& b) {
     if (a.is_zero() || b.is_zero()) return ExactNumber();
-    std::vector<std::uint32_t> product(a.digits_.size() + b.digits_.size(), 0);
+    DigitBuffer product(a.digits_.size() + b.digits_.size());
     for (std::size_t i = 0; i < a.digits_.size(); ++i) {
         std::uint64_t carry = 0;
         std::uint64_t ai = a.digits_[i];

@@ -8,9 +8,9 @@
 #pragma once
 
 #include <cstdint>
-#include <vector>
 
 #include "correct_rounding.h"
+#include "digit_buffer.h"
 #include "scaled_double.h"
 
 namespace almanac {
@@ -20,7 +20,7 @@ public:
     ExactNumber() = default;  // zero
     explicit ExactNumber(std::uint64_t integer);
     // digits: little-endian 32-bit magnitude; value = ±Σ digits[i]·2^(32·(i + scale)).
-    ExactNumber(bool negative, std::vector<std::uint32_t> digits, std::int64_t scale);
+    ExactNumber(bool negative, DigitBuffer digits, std::int64_t scale);
 
     bool is_zero() const { return digits_.empty(); }
     int sign() const { return is_zero() ? 0 : (negative_ ? -1 : 1); }
@@ -45,7 +45,7 @@ private:
     RoundedBinary round(std::int64_t lowest_bit) const;
 
     bool negative_ = false;
-    std::vector<std::uint32_t> digits_;  // no zero digit at either end
+    DigitBuffer digits_;  // no zero digit at either end
     std::int64_t scale_ = 0;
 };
 

@@ -164,7 +164,7 @@ ExactNumber ExactSum::value() {
     const std::int64_t* p = limbs_.data() + (lo_ - base_);
     std::int64_t n = hi_ - lo_;
     bool negative = p[n - 1] < 0;
-    std::vector<std::uint32_t> digits(static_cast<std::size_t>(n));
+    DigitBuffer digits(static_cast<std::size_t>(n));
     if (!negative) {
         for (std::int64_t i = 0; i < n; ++i) digits[i] = static_cast<std::uint32_t>(p[i]);
     } else if (n == 1) {
