@@ -350,3 +350,34 @@ def test_a_spike_that_left_the_frame_leaves_no_trace():
     print("sliding avg:", db.execute("SELECT avg(y) OVER (ORDER BY i ROWS 6 PRECEDING) FROM t "
                                      "ORDER BY i LIMIT 1 OFFSET 30").fetchone()[0],
           "exact mean:", math.fsum(values[24:31]) / 7)
+
+
+def test_moving_mean_over_adversarial_doubles_is_fsum_bit_for_bit():
+    # Random signs and exponents over most of the double range, subnormals,
+    # exact ties for round-half-even, and huge terms that cancel.
+    rng = random.Random(11)
+    values = []
+    for _ in range(3000):
+        kind = rng.random()
+        if kind < 0.6:
+            v = rng.choice([-1, 1]) * rng.random() * 10.0 ** rng.randint(-300, 300)
+        elif kind < 0.7:
+            v = rng.choice([-1, 1]) * rng.randint(1, 1000) * 5e-324  # subnormal
+        elif kind < 0.85:
+            v = rng.choice([2.0 ** 53, -(2.0 ** 53), 1.0, -1.0, 3.0, 2.0 ** -53, 0.5])  # ties
+        else:
+            v = rng.choice([1e300, -1e300, 0.0, -0.0])
+        values.append(v)
+    db = connect()
+    db.execute("CREATE TABLE a(i INTEGER PRIMARY KEY, v REAL)")
+    db.executemany("INSERT INTO a VALUES (?, ?)", list(enumerate(values)))
+    compared = 0
+    for width in (1, 2, 3, 5, 17, 64):
+        got = [r[0] for r in db.execute(
+            f"SELECT moving_mean(v) OVER (ORDER BY i ROWS {width - 1} PRECEDING) FROM a")]
+        for i, ours in enumerate(got):
+            frame = values[max(0, i - width + 1):i + 1]
+            expected = math.fsum(frame) / len(frame)  # oracle: math.fsum
+            assert ours == expected, (width, i, frame, ours, expected)
+            compared += 1
+    print(f"compared {compared} moving means of adversarial doubles with math.fsum, bit for bit")
