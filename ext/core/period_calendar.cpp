@@ -394,6 +394,7 @@ bool PeriodCalendar::writes_dates() const { return !sub_day_ && !grid_->has_time
 
 std::string PeriodCalendar::format_boundary(Instant t) const {
     LocalTime local = clock_.to_local(t);
+    require_supported(local);
     if (writes_dates()) return format_date(date::floor<days>(local));
     std::string text = format_date_time(local, TextForm::Precision::Seconds, false);
     if (!clock_.is_utc()) text += format_offset(clock_.offset_at(t));
@@ -402,6 +403,7 @@ std::string PeriodCalendar::format_boundary(Instant t) const {
 
 std::string PeriodCalendar::label(const Period& period) const {
     LocalTime local = clock_.to_local(period.start);
+    require_supported(local);
     auto day = date::floor<days>(local);
     date::year_month_day ymd{day};
     char buffer[48];

@@ -87,7 +87,7 @@ std::int64_t parse_count(const std::string& digits) {
 }
 
 // P1W, PT15M ...: one component only.
-PeriodSpec parse_iso_duration(const std::string& text) {
+PeriodSpec parse_iso_duration(const std::string& text, std::string_view as_written) {
     const std::string expected =
         "expected an ISO 8601 duration of one component: PnY, PnM, PnW, PnD, PTnH, PTnM or PTnS";
     std::size_t pos = 1;
@@ -101,7 +101,7 @@ PeriodSpec parse_iso_duration(const std::string& text) {
     if (pos == digits_start) fail(expected);
     std::string digits = text.substr(digits_start, pos - digits_start);
     if (pos + 1 != text.size()) {
-        fail("'" + text + "' is a mixed or malformed duration; " + expected);
+        fail("'" + std::string(as_written) + "' is a mixed or malformed duration; " + expected);
     }
     PeriodSpec spec;
     spec.count = parse_count(digits);
@@ -131,7 +131,11 @@ LocalTime parse_from_moment(std::string_view text) {
     try {
         value = parse_time_text(text);
     } catch (const Error& error) {
-        fail(std::string(expected) + " (" + error.what() + ")");
+        // Say why a well-shaped date failed (2024-02-30); otherwise the shape.
+        std::string why = error.what();
+        if (why.rfind("no such date", 0) == 0 || why.find("does not exist") != std::string::npos)
+            fail(std::string(expected) + " (" + why.substr(0, why.find(';')) + ")");
+        fail(expected);
     }
     if (value.representation != Representation::Text) fail(expected);
     if (value.is_calendar_day) return LocalTime{value.day.time_since_epoch()};
@@ -210,7 +214,10 @@ PeriodSpec parse_period_spec(std::string_view raw) {
     if (text.empty()) fail("the spec is empty; " + std::string(kGrammar));
 
     if (text[0] == 'p' && text.size() > 1 && (is_digit(text[1]) || text[1] == 't')) {
-        return parse_iso_duration(text);
+        std::string_view as_written = raw;
+        while (!as_written.empty() && is_space(as_written.front())) as_written.remove_prefix(1);
+        while (!as_written.empty() && is_space(as_written.back())) as_written.remove_suffix(1);
+        return parse_iso_duration(text, as_written);
     }
 
     // Split off "from ...": the rest of the text is the moment.

@@ -19,7 +19,10 @@ std::string describe_value(sqlite3_value* value) {
             return buffer;
         }
         case SQLITE_BLOB:
-            return "a BLOB of " + std::to_string(sqlite3_value_bytes(value)) + " bytes";
+        {
+            int bytes = sqlite3_value_bytes(value);
+            return "a BLOB of " + std::to_string(bytes) + (bytes == 1 ? " byte" : " bytes");
+        }
         default: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
             std::string shown = text ? text : "";

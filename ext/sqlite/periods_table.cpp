@@ -159,6 +159,13 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     }
 }
 
+// Column values are computed as they are read; a failure there (a label past
+// year 9999) must carry the table's name like every other message.
+void result_column_error(sqlite3_context* context, const std::exception& error) {
+    std::string message = std::string(kName) + "(): " + error.what();
+    sqlite3_result_error(context, message.c_str(), -1);
+}
+
 int next(sqlite3_vtab_cursor* base) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
     if (cursor->current.end >= cursor->stop || cursor->current.end >= latest_supported_instant()) {
@@ -179,6 +186,7 @@ int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->don
 int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
     guarded(context, [&] {
+      try {
         switch (index) {
             case kPeriodStart:
                 return result_boundary(context, cursor->like, cursor->current.start, *cursor->calendar);
@@ -197,6 +205,9 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
                 return;
             }
         }
+      } catch (const Error& error) {
+        result_column_error(context, error);
+      }
     });
     return SQLITE_OK;
 }
