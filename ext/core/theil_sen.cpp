@@ -428,8 +428,10 @@ std::optional<double> theil_sen_slope(std::vector<Point> input) {
     const auto& points = slopes.points();
     const auto [y_min, y_max] = std::minmax_element(
         points.begin(), points.end(), [](const Point& a, const Point& b) { return a.y < b.y; });
-    if (std::isinf(points.back().x - points.front().x) || std::isinf(y_max->y - y_min->y))
-        throw Error("values so far apart that their difference overflows a double");
+    if (std::isinf(points.back().x - points.front().x))
+        throw Error("the x values differ by more than the largest double, so no slope is finite");
+    if (std::isinf(y_max->y - y_min->y))
+        throw Error("the y values differ by more than the largest double, so no slope is finite");
 
     // numpy.median's middle ranks.
     const Count k_lo = (pairs - 1) / 2;

@@ -20,8 +20,8 @@ struct Point {
 };
 
 // nullopt when fewer than two distinct x. Coordinates must be finite; throws
-// almanac::Error if two of them are so far apart that their difference
-// overflows a double (no finite slope could then be formed).
+// almanac::Error if two x or two y are so far apart that their difference
+// overflows a double (slopes would then be infinite or undefined).
 std::optional<double> theil_sen_slope(std::vector<Point> points);
 
 }  // namespace almanac

@@ -14,7 +14,7 @@
 //    their count is even; exactly the double scipy.stats.theilslopes gives.
 //    Aggregate and window function (each frame is recomputed from its rows,
 //    O(w log² w) time, O(w) memory). NULL when fewer than two distinct x.
-//    Raises: coordinates whose differences overflow a double.
+//    Raises: two x, or two y, whose difference overflows a double.
 // For all: rows where any argument is NULL are skipped, and no rows left
 // gives NULL. x, y and p are INTEGER, REAL, or TEXT that SQLite reads as a
 // number (' 12.5' yes, '1,234.50' no); other TEXT, BLOBs and infinities
