@@ -33,7 +33,7 @@ CASES = [
     ("var_samp('abc')", "var_samp", 1, "x", "'abc'", NOT_A_NUMBER),
     ("var_samp('1,234.50')", "var_samp", 1, "x", "'1,234.50'", NOT_A_NUMBER),  # DESIGN.md's own example
     ("var_samp('12 apples')", "var_samp", 1, "x", "'12 apples'", NOT_A_NUMBER),
-    ("var_pop(X'00')", "var_pop", 1, "x", "a BLOB of 1 bytes", BLOB),
+    ("var_pop(X'00')", "var_pop", 1, "x", "a BLOB of 1 byte", BLOB),
     ("stddev_samp(1e999)", "stddev_samp", 1, "x", "inf", NOT_FINITE),
     ("stddev_pop(-1e999)", "stddev_pop", 1, "x", "-inf", NOT_FINITE),
     ("covar_samp('x', 1)", "covar_samp", 1, "y", "'x'", NOT_A_NUMBER),
@@ -42,7 +42,7 @@ CASES = [
     ("regr_count('a', 1)", "regr_count", 1, "y", "'a'", NOT_A_NUMBER),
     ("regr_avgx(1, 'b')", "regr_avgx", 2, "x", "'b'", NOT_A_NUMBER),
     ("regr_avgy(1e999, 1)", "regr_avgy", 1, "y", "inf", NOT_FINITE),
-    ("regr_sxx(1, X'AB')", "regr_sxx", 2, "x", "a BLOB of 1 bytes", BLOB),
+    ("regr_sxx(1, X'AB')", "regr_sxx", 2, "x", "a BLOB of 1 byte", BLOB),
     ("regr_syy('NaN', 1)", "regr_syy", 1, "y", "'NaN'", NOT_A_NUMBER),
     ("regr_sxy('', 1)", "regr_sxy", 1, "y", "''", NOT_A_NUMBER),
     ("regr_slope('1e999', 1)", "regr_slope", 1, "y", "'1e999'", NOT_FINITE),
@@ -67,12 +67,12 @@ CASES = [
     ("ewma(1, 'yesterday', '1 day')", "ewma", 2, "t", "'yesterday'",
      "expected YYYY-MM-DD, optionally followed by HH:MM[:SS[.fff]] and Z or +HH:MM, or a number "
      "(a Julian day below 5373484.5, Unix seconds otherwise)"),
-    ("ewma(1, X'01', '1 day')", "ewma", 2, "t", "a BLOB of 1 bytes",
+    ("ewma(1, X'01', '1 day')", "ewma", 2, "t", "a BLOB of 1 byte",
      "expected a time value, not a BLOB"),
     ("ewma(1, 1, 0)", "ewma", 3, "half_life", "0", POSITIVE),
     ("ewma(1, 1, '-2')", "ewma", 3, "half_life", "'-2'", POSITIVE),
     ("ewma(1, 1, 1e999)", "ewma", 3, "half_life", "inf", NOT_FINITE),
-    ("ewma(1, 1, X'01')", "ewma", 3, "half_life", "a BLOB of 1 bytes",
+    ("ewma(1, 1, X'01')", "ewma", 3, "half_life", "a BLOB of 1 byte",
      "expected a period such as '7 days' or a positive number, not a BLOB"),
     # DESIGN.md: months and years are refused as a half-life.
     ("ewma(1, '2024-01-01', '1 month')", "ewma", 3, "half_life", "'1 month'",
@@ -115,7 +115,7 @@ GROUP_CASES = [
      prefix("var_samp", 1, "x", "'x'") + NOT_A_NUMBER),
     ("SELECT regr_slope(y, x) OVER (ORDER BY x ROWS 1 PRECEDING) FROM "
      "(SELECT 1 AS y, 1 AS x UNION ALL SELECT X'FF', 2)",
-     prefix("regr_slope", 1, "y", "a BLOB of 1 bytes") + BLOB),
+     prefix("regr_slope", 1, "y", "a BLOB of 1 byte") + BLOB),
 ]
 
 
