@@ -32,7 +32,8 @@
 --   weeks            weeks in the fit (all weeks of the range)
 --   mean_per_week    mean weekly amount
 --   slope_per_week   regr_slope(total, period_serial(week, 'week')): change of
---                    the weekly amount per week
+--                    the weekly amount per week (the serial column of periods()
+--                    is that period_serial, so consecutive weeks differ by 1)
 --   slope_stderr     standard error of that slope
 --   pct_per_year     52 * slope / mean, in percent: how much a year of that
 --                    slope is next to the typical week
