@@ -29,7 +29,8 @@ std::string tick_label(double value, double step) {
     int decimals = std::max(0, -int(std::floor(std::log10(step) + 1e-9)));
     std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
     std::string text = buffer;
-    if (text == "-0" || text.find_first_not_of("-0.") == std::string::npos) text = text.substr(text[0] == '-');
+    if (text == "-0" || text.find_first_not_of("-0.") == std::string::npos)
+        text = text.substr(text[0] == '-');
     return text;
 }
 
@@ -63,7 +64,8 @@ AxisScale numeric_scale(double min, double max, int max_intervals, bool extend) 
     }
     // Count in integers from `first`, so a k beyond 2^53 (a tiny step on a
     // huge value) cannot stall the loop; repeated values are dropped.
-    int intervals = std::isfinite(last - first) ? int(std::min(last - first, 4.0 * max_intervals + 4)) : -1;
+    int intervals =
+        std::isfinite(last - first) ? int(std::min(last - first, 4.0 * max_intervals + 4)) : -1;
     for (int i = 0; i <= intervals; ++i) {
         double value = (first + i) * step;
         if (!std::isfinite(value) || value < scale.low || value > scale.high) continue;

@@ -14,8 +14,8 @@ struct AxisTick {
 };
 
 struct AxisScale {
-    double low;   // data value at the start of the axis
-    double high;  // data value at its end (> low)
+    double low;                   // data value at the start of the axis
+    double high;                  // data value at its end (> low)
     std::vector<AxisTick> ticks;  // in increasing order, all within [low, high]
 };
 

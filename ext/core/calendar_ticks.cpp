@@ -83,7 +83,8 @@ void label_ticks(AxisScale& scale, const std::vector<Instant>& instants, LabelKi
             case LabelKind::Clock:
                 std::snprintf(buffer, sizeof buffer, "%02u:%02u", c.hour, c.minute);
                 tick.label = buffer;
-                if (first || c.day != previous.day || c.month != previous.month || c.year != previous.year)
+                if (first || c.day != previous.day || c.month != previous.month ||
+                    c.year != previous.year)
                     tick.context = day_month(c) + " " + std::to_string(c.year);
                 break;
             case LabelKind::Day:
@@ -99,7 +100,8 @@ void label_ticks(AxisScale& scale, const std::vector<Instant>& instants, LabelKi
                 tick.label = std::to_string(c.year);
                 break;
         }
-        if (kind != LabelKind::Clock && kind != LabelKind::Year && (first || c.year != previous.year))
+        if (kind != LabelKind::Clock && kind != LabelKind::Year &&
+            (first || c.year != previous.year))
             tick.context = std::to_string(c.year);
         scale.ticks.push_back(std::move(tick));
         previous = c;

@@ -42,7 +42,8 @@ ChartOptions parse_chart_options(std::string_view json) {
             if (!is_null) options.y_caption = text_option(key, value);
         } else if (key == "width") {
             if (!is_null)
-                options.width = size_option(key, value, ChartOptions::kMinWidth, ChartOptions::kMaxWidth);
+                options.width =
+                    size_option(key, value, ChartOptions::kMinWidth, ChartOptions::kMaxWidth);
         } else if (key == "height") {
             if (!is_null)
                 options.height =

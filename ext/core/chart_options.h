@@ -13,8 +13,8 @@ struct ChartOptions {
     static constexpr int kMinWidth = 200, kMaxWidth = 10000;
     static constexpr int kMinHeight = 150, kMaxHeight = 10000;
 
-    std::string title;      // empty: no title line
-    int width = 800;        // pixels
+    std::string title;  // empty: no title line
+    int width = 800;    // pixels
     int height = 400;
     std::string y_caption;  // empty: no caption beside the y axis
 };

@@ -32,14 +32,14 @@ constexpr const char* kColours[kPaletteSize] = {
 // Gaps are at least 2.5 widths, so the round caps (half a width each end)
 // still leave a visible gap of 1.5 widths.
 const std::vector<double> kDashes[kDashPatterns] = {
-    {},                                 // solid
-    {5, 3},                             // long dash
-    {0.5, 2.5},                         // dots
-    {5, 2.5, 0.5, 2.5},                 // dash dot
-    {2, 2.5},                           // short dash
-    {10, 3},                            // very long dash
-    {5, 2.5, 0.5, 2.5, 0.5, 2.5},       // dash dot dot
-    {2, 2.5, 0.5, 2.5},                 // short dash dot
+    {},                            // solid
+    {5, 3},                        // long dash
+    {0.5, 2.5},                    // dots
+    {5, 2.5, 0.5, 2.5},            // dash dot
+    {2, 2.5},                      // short dash
+    {10, 3},                       // very long dash
+    {5, 2.5, 0.5, 2.5, 0.5, 2.5},  // dash dot dot
+    {2, 2.5, 0.5, 2.5},            // short dash dot
 };
 
 }  // namespace

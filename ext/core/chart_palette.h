@@ -16,7 +16,7 @@ const char* palette_colour(std::size_t i);
 
 // How the series at `rank` (its place in sorted name order) is drawn.
 struct SeriesStyle {
-    std::string colour;           // "#rrggbb"
+    std::string colour;          // "#rrggbb"
     std::vector<double> dashes;  // in multiples of the stroke width; empty = solid
 };
 SeriesStyle series_style(std::size_t rank);

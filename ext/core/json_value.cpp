@@ -37,20 +37,28 @@ JsonValue JsonValue::from_object(std::vector<std::pair<std::string, JsonValue>> 
 
 const char* describe_json_type(JsonValue::Type type) {
     switch (type) {
-        case JsonValue::Type::Null: return "null";
-        case JsonValue::Type::Boolean: return "a boolean";
-        case JsonValue::Type::Number: return "a number";
-        case JsonValue::Type::String: return "a string";
-        case JsonValue::Type::Array: return "an array";
-        case JsonValue::Type::Object: return "an object";
+        case JsonValue::Type::Null:
+            return "null";
+        case JsonValue::Type::Boolean:
+            return "a boolean";
+        case JsonValue::Type::Number:
+            return "a number";
+        case JsonValue::Type::String:
+            return "a string";
+        case JsonValue::Type::Array:
+            return "an array";
+        case JsonValue::Type::Object:
+            return "an object";
     }
     return "a value";
 }
 
 std::string JsonValue::describe() const {
     switch (type_) {
-        case Type::Null: return "null";
-        case Type::Boolean: return boolean_ ? "true" : "false";
+        case Type::Null:
+            return "null";
+        case Type::Boolean:
+            return boolean_ ? "true" : "false";
         case Type::Number: {
             char buffer[40];
             std::snprintf(buffer, sizeof buffer, "%.17g", number_);
@@ -58,11 +66,14 @@ std::string JsonValue::describe() const {
         }
         case Type::String: {
             constexpr std::size_t kLongest = 40;
-            std::string shown = string_.size() > kLongest ? string_.substr(0, kLongest) + "..." : string_;
+            std::string shown =
+                string_.size() > kLongest ? string_.substr(0, kLongest) + "..." : string_;
             return "\"" + shown + "\"";
         }
-        case Type::Array: return "an array";
-        case Type::Object: return "an object";
+        case Type::Array:
+            return "an array";
+        case Type::Object:
+            return "an object";
     }
     return "a value";
 }
@@ -72,7 +83,7 @@ namespace {
 constexpr int kMaxDepth = 32;
 
 class Parser {
-public:
+  public:
     explicit Parser(std::string_view text) : text_(text) {}
 
     JsonValue document() {
@@ -83,7 +94,7 @@ public:
         return value;
     }
 
-private:
+  private:
     [[noreturn]] void fail(const std::string& expected) const {
         throw Error("invalid JSON at byte " + std::to_string(pos_ + 1) + ": " + expected);
     }
@@ -105,16 +116,27 @@ private:
     JsonValue parse_value(int depth) {
         if (at_end()) fail("expected a JSON value, found the end of the text");
         switch (peek()) {
-            case '{': return parse_object(depth + 1);
-            case '[': return parse_array(depth + 1);
-            case '"': return JsonValue::from_string(parse_string());
-            case 't': expect_word("true"); return JsonValue::from_boolean(true);
-            case 'f': expect_word("false"); return JsonValue::from_boolean(false);
-            case 'n': expect_word("null"); return JsonValue::null();
+            case '{':
+                return parse_object(depth + 1);
+            case '[':
+                return parse_array(depth + 1);
+            case '"':
+                return JsonValue::from_string(parse_string());
+            case 't':
+                expect_word("true");
+                return JsonValue::from_boolean(true);
+            case 'f':
+                expect_word("false");
+                return JsonValue::from_boolean(false);
+            case 'n':
+                expect_word("null");
+                return JsonValue::null();
             default:
                 if (peek() == '-' || (peek() >= '0' && peek() <= '9'))
                     return JsonValue::from_number(parse_number());
-                fail("expected a JSON value (an object, array, string, number, true, false or null)");
+                fail(
+                    "expected a JSON value (an object, array, string, number, true, false or "
+                    "null)");
         }
     }
 
@@ -187,10 +209,14 @@ private:
         for (int k = 0; k < 4; ++k, ++pos_) {
             char c = peek();
             value <<= 4;
-            if (c >= '0' && c <= '9') value |= unsigned(c - '0');
-            else if (c >= 'a' && c <= 'f') value |= unsigned(c - 'a' + 10);
-            else if (c >= 'A' && c <= 'F') value |= unsigned(c - 'A' + 10);
-            else fail("expected four hexadecimal digits after \\u");
+            if (c >= '0' && c <= '9')
+                value |= unsigned(c - '0');
+            else if (c >= 'a' && c <= 'f')
+                value |= unsigned(c - 'a' + 10);
+            else if (c >= 'A' && c <= 'F')
+                value |= unsigned(c - 'A' + 10);
+            else
+                fail("expected four hexadecimal digits after \\u");
         }
         return value;
     }
@@ -217,10 +243,16 @@ private:
     void copy_utf8(std::string& out) {
         auto byte = [&](std::size_t k) { return static_cast<unsigned char>(text_[k]); };
         unsigned char lead = byte(pos_);
-        std::size_t length = lead < 0x80 ? 1 : (lead & 0xE0) == 0xC0 ? 2 : (lead & 0xF0) == 0xE0 ? 3
-                             : (lead & 0xF8) == 0xF0 ? 4 : 0;
+        std::size_t length = lead < 0x80             ? 1
+                             : (lead & 0xE0) == 0xC0 ? 2
+                             : (lead & 0xF0) == 0xE0 ? 3
+                             : (lead & 0xF8) == 0xF0 ? 4
+                                                     : 0;
         if (length == 0 || pos_ + length > text_.size()) fail("expected UTF-8 text");
-        std::uint32_t c = length == 1 ? lead : length == 2 ? (lead & 0x1F) : length == 3 ? (lead & 0x0F) : (lead & 0x07);
+        std::uint32_t c = length == 1   ? lead
+                          : length == 2 ? (lead & 0x1F)
+                          : length == 3 ? (lead & 0x0F)
+                                        : (lead & 0x07);
         for (std::size_t k = 1; k < length; ++k) {
             if ((byte(pos_ + k) & 0xC0) != 0x80) fail("expected UTF-8 text");
             c = (c << 6) | (byte(pos_ + k) & 0x3F);
@@ -252,22 +284,41 @@ private:
             char e = peek();
             ++pos_;
             switch (e) {
-                case '"': out += '"'; break;
-                case '\\': out += '\\'; break;
-                case '/': out += '/'; break;
-                case 'b': out += '\b'; break;
-                case 'f': out += '\f'; break;
-                case 'n': out += '\n'; break;
-                case 'r': out += '\r'; break;
-                case 't': out += '\t'; break;
+                case '"':
+                    out += '"';
+                    break;
+                case '\\':
+                    out += '\\';
+                    break;
+                case '/':
+                    out += '/';
+                    break;
+                case 'b':
+                    out += '\b';
+                    break;
+                case 'f':
+                    out += '\f';
+                    break;
+                case 'n':
+                    out += '\n';
+                    break;
+                case 'r':
+                    out += '\r';
+                    break;
+                case 't':
+                    out += '\t';
+                    break;
                 case 'u': {
                     std::uint32_t unit = hex4();
-                    if (unit >= 0xDC00 && unit <= 0xDFFF) fail("expected a high surrogate before a low one");
+                    if (unit >= 0xDC00 && unit <= 0xDFFF)
+                        fail("expected a high surrogate before a low one");
                     if (unit >= 0xD800 && unit <= 0xDBFF) {
-                        if (text_.substr(pos_, 2) != "\\u") fail("expected a low surrogate (\\uDC00-\\uDFFF) after a high one");
+                        if (text_.substr(pos_, 2) != "\\u")
+                            fail("expected a low surrogate (\\uDC00-\\uDFFF) after a high one");
                         pos_ += 2;
                         std::uint32_t low = hex4();
-                        if (low < 0xDC00 || low > 0xDFFF) fail("expected a low surrogate (\\uDC00-\\uDFFF) after a high one");
+                        if (low < 0xDC00 || low > 0xDFFF)
+                            fail("expected a low surrogate (\\uDC00-\\uDFFF) after a high one");
                         unit = 0x10000 + ((unit - 0xD800) << 10) + (low - 0xDC00);
                     }
                     append_utf8(out, unit);

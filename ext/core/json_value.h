@@ -13,7 +13,7 @@
 namespace almanac {
 
 class JsonValue {
-public:
+  public:
     enum class Type { Null, Boolean, Number, String, Array, Object };
 
     Type type() const { return type_; }
@@ -34,7 +34,7 @@ public:
     static JsonValue from_array(std::vector<JsonValue> items);
     static JsonValue from_object(std::vector<std::pair<std::string, JsonValue>> members);
 
-private:
+  private:
     explicit JsonValue(Type type) : type_(type) {}
     Type type_;
     bool boolean_ = false;

@@ -25,8 +25,7 @@ const char* chart_layer_name(ChartLayer layer) {
     return layer == ChartLayer::Raw ? "raw" : "smooth";
 }
 
-void LineChart::add(double x, std::optional<double> y, std::string_view series,
-                    ChartLayer layer) {
+void LineChart::add(double x, std::optional<double> y, std::string_view series, ChartLayer layer) {
     if (points_.size() >= limits_.max_points)
         throw Error("more than " + std::to_string(limits_.max_points) +
                     " points; a chart holds at most " + std::to_string(limits_.max_points) +
@@ -165,49 +164,71 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
         for (int target = std::max(2, int(plot_w / 80));; --target) {
             x_scale = numeric_scale(x_min, x_max, target, false);
             double widest = 0;
-            for (const auto& tick : x_scale.ticks) widest = std::max(widest, text_width(tick.label));
+            for (const auto& tick : x_scale.ticks)
+                widest = std::max(widest, text_width(tick.label));
             double share = plot_w / double(std::max<std::size_t>(1, x_scale.ticks.size()));
             if (widest + 12 <= share || target <= 1) break;
         }
     }
 
-    auto px = [&](double x) { return plot_x0 + axis_fraction(x, x_scale.low, x_scale.high) * plot_w; };
-    auto py = [&](double y) { return plot_y1 - axis_fraction(y, y_scale.low, y_scale.high) * plot_h; };
+    auto px = [&](double x) {
+        return plot_x0 + axis_fraction(x, x_scale.low, x_scale.high) * plot_w;
+    };
+    auto py = [&](double y) {
+        return plot_y1 - axis_fraction(y, y_scale.low, y_scale.high) * plot_h;
+    };
 
     SvgWriter svg(width, height,
                   {{"font-family", "DejaVu Sans, Verdana, Arial, sans-serif"},
                    {"font-size", svg_number(kFont)},
                    {"role", "img"}});
     svg.text("title", {}, has_title ? options.title : "Line chart");
-    svg.empty("rect", {{"width", svg_number(width)}, {"height", svg_number(height)}, {"fill", "#ffffff"}});
+    svg.empty("rect",
+              {{"width", svg_number(width)}, {"height", svg_number(height)}, {"fill", "#ffffff"}});
     if (has_title)
         svg.text("text",
-                 {{"class", "chart-title"}, {"x", svg_number(plot_x0)}, {"y", svg_number(kMargin + kTitleFont)},
-                  {"font-size", svg_number(kTitleFont)}, {"font-weight", "bold"}, {"fill", kInk}},
+                 {{"class", "chart-title"},
+                  {"x", svg_number(plot_x0)},
+                  {"y", svg_number(kMargin + kTitleFont)},
+                  {"font-size", svg_number(kTitleFont)},
+                  {"font-weight", "bold"},
+                  {"fill", kInk}},
                  options.title);
 
     // Grid under everything.
     svg.open("g", {{"class", "grid"}, {"stroke", kGrid}, {"stroke-width", "1"}});
     for (const auto& tick : y_scale.ticks)
-        svg.empty("line", {{"x1", svg_number(plot_x0)}, {"x2", svg_number(plot_x1)},
-                           {"y1", svg_number(py(tick.value))}, {"y2", svg_number(py(tick.value))}});
+        svg.empty("line", {{"x1", svg_number(plot_x0)},
+                           {"x2", svg_number(plot_x1)},
+                           {"y1", svg_number(py(tick.value))},
+                           {"y2", svg_number(py(tick.value))}});
     for (const auto& tick : x_scale.ticks)
-        svg.empty("line", {{"x1", svg_number(px(tick.value))}, {"x2", svg_number(px(tick.value))},
-                           {"y1", svg_number(plot_y0)}, {"y2", svg_number(plot_y1)}});
+        svg.empty("line", {{"x1", svg_number(px(tick.value))},
+                           {"x2", svg_number(px(tick.value))},
+                           {"y1", svg_number(plot_y0)},
+                           {"y2", svg_number(plot_y1)}});
     svg.close();
 
     // Y axis: labels right-aligned beside the ticks, the caption turned up the side.
     svg.open("g", {{"class", "y-axis"}, {"fill", kInk}});
-    svg.empty("line", {{"x1", svg_number(plot_x0)}, {"x2", svg_number(plot_x0)}, {"y1", svg_number(plot_y0)},
-                       {"y2", svg_number(plot_y1)}, {"stroke", kAxis}});
+    svg.empty("line", {{"x1", svg_number(plot_x0)},
+                       {"x2", svg_number(plot_x0)},
+                       {"y1", svg_number(plot_y0)},
+                       {"y2", svg_number(plot_y1)},
+                       {"stroke", kAxis}});
     for (const auto& tick : y_scale.ticks)
-        svg.text("text", {{"x", svg_number(plot_x0 - 6)}, {"y", svg_number(py(tick.value) + kFont * 0.35)},
-                          {"text-anchor", "end"}},
+        svg.text("text",
+                 {{"x", svg_number(plot_x0 - 6)},
+                  {"y", svg_number(py(tick.value) + kFont * 0.35)},
+                  {"text-anchor", "end"}},
                  tick.label);
     if (has_caption) {
         double cx = kMargin + kFont * 0.8, cy = (plot_y0 + plot_y1) / 2;
         svg.text("text",
-                 {{"class", "y-caption"}, {"x", svg_number(cx)}, {"y", svg_number(cy)}, {"text-anchor", "middle"},
+                 {{"class", "y-caption"},
+                  {"x", svg_number(cx)},
+                  {"y", svg_number(cy)},
+                  {"text-anchor", "middle"},
                   {"transform", "rotate(-90 " + svg_number(cx) + " " + svg_number(cy) + ")"}},
                  options.y_caption);
     }
@@ -215,23 +236,35 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
 
     // X axis: labels centred under the ticks, context (year, day) on a second line.
     svg.open("g", {{"class", "x-axis"}, {"fill", kInk}, {"text-anchor", "middle"}});
-    svg.empty("line", {{"x1", svg_number(plot_x0)}, {"x2", svg_number(plot_x1)}, {"y1", svg_number(plot_y1)},
-                       {"y2", svg_number(plot_y1)}, {"stroke", kAxis}});
+    svg.empty("line", {{"x1", svg_number(plot_x0)},
+                       {"x2", svg_number(plot_x1)},
+                       {"y1", svg_number(plot_y1)},
+                       {"y2", svg_number(plot_y1)},
+                       {"stroke", kAxis}});
     for (const auto& tick : x_scale.ticks) {
         double x = px(tick.value);
-        svg.empty("line", {{"x1", svg_number(x)}, {"x2", svg_number(x)}, {"y1", svg_number(plot_y1)},
-                           {"y2", svg_number(plot_y1 + 4)}, {"stroke", kAxis}});
-        svg.text("text", {{"x", svg_number(x)}, {"y", svg_number(plot_y1 + 6 + kFont)}}, tick.label);
+        svg.empty("line", {{"x1", svg_number(x)},
+                           {"x2", svg_number(x)},
+                           {"y1", svg_number(plot_y1)},
+                           {"y2", svg_number(plot_y1 + 4)},
+                           {"stroke", kAxis}});
+        svg.text("text", {{"x", svg_number(x)}, {"y", svg_number(plot_y1 + 6 + kFont)}},
+                 tick.label);
         if (!tick.context.empty())
-            svg.text("text", {{"x", svg_number(x)}, {"y", svg_number(plot_y1 + 8 + 2 * kFont)}, {"fill", kAxis}},
-                     tick.context);
+            svg.text(
+                "text",
+                {{"x", svg_number(x)}, {"y", svg_number(plot_y1 + 8 + 2 * kFont)}, {"fill", kAxis}},
+                tick.context);
     }
     svg.close();
 
     // The lines. A missing y ends a subpath; the next value starts a new one
     // ("M"). A value alone between gaps is a zero-length subpath, which round
     // caps draw as a dot, so it does not vanish.
-    svg.open("g", {{"class", "lines"}, {"fill", "none"}, {"stroke-linejoin", "round"}, {"stroke-linecap", "round"}});
+    svg.open("g", {{"class", "lines"},
+                   {"fill", "none"},
+                   {"stroke-linejoin", "round"},
+                   {"stroke-linecap", "round"}});
     for (const Line& line : lines) {
         std::string d;
         bool pen_down = false;
@@ -277,14 +310,16 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
         svg.open("g", {{"class", "legend-entry"}, {"data-series", names[rank]}});
         std::string shown = shorten_utf8(names[rank], legend_chars);
         if (shown != names[rank]) svg.text("title", {}, names[rank]);
-        SvgAttributes swatch = {{"x1", svg_number(x)}, {"x2", svg_number(x + kSwatch)},
-                                {"y1", svg_number(y)}, {"y2", svg_number(y)},
-                                {"stroke", style.colour}, {"stroke-width", svg_number(kSmoothWidth)},
-                                {"stroke-linecap", "round"}};
+        SvgAttributes swatch = {
+            {"x1", svg_number(x)},      {"x2", svg_number(x + kSwatch)},
+            {"y1", svg_number(y)},      {"y2", svg_number(y)},
+            {"stroke", style.colour},   {"stroke-width", svg_number(kSmoothWidth)},
+            {"stroke-linecap", "round"}};
         std::string dashes = dash_array(style, kSmoothWidth);
         if (!dashes.empty()) swatch.push_back({"stroke-dasharray", dashes});
         svg.empty("line", swatch);
-        svg.text("text", {{"x", svg_number(x + kSwatch + 6)}, {"y", svg_number(y + kFont * 0.35)}}, shown);
+        svg.text("text", {{"x", svg_number(x + kSwatch + 6)}, {"y", svg_number(y + kFont * 0.35)}},
+                 shown);
         svg.close();
     }
     svg.close();

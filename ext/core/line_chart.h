@@ -27,12 +27,12 @@ ChartLayer parse_chart_layer(std::string_view text);
 const char* chart_layer_name(ChartLayer layer);
 
 struct ChartLimits {
-    std::size_t max_series = 64;       // 8 colours x 8 dash patterns
-    std::size_t max_points = 200000;   // rows, including those with a missing y
+    std::size_t max_series = 64;      // 8 colours x 8 dash patterns
+    std::size_t max_points = 200000;  // rows, including those with a missing y
 };
 
 class LineChart {
-public:
+  public:
     explicit LineChart(ChartLimits limits = {}) : limits_(limits) {}
 
     // The x kind of the chart: the first value decides, the other kind is
@@ -47,7 +47,7 @@ public:
 
     std::string render_svg(const ChartOptions& options) const;
 
-private:
+  private:
     struct Point {
         double x;
         double y;

@@ -12,7 +12,8 @@ int sparkline_level(double y, double min, double max) {
     // The formula as written, unless an intermediate overflows (values
     // beyond 2.5e307); then the overflow-free fraction.
     double scaled = 7.0 * (y - min) / (max - min);
-    if (!std::isfinite(scaled) || !std::isfinite(max - min)) scaled = 7.0 * axis_fraction(y, min, max);
+    if (!std::isfinite(scaled) || !std::isfinite(max - min))
+        scaled = 7.0 * axis_fraction(y, min, max);
     // std::round rounds halves away from zero, exactly (floor(v + 0.5) does
     // not: 0.49999999999999994 + 0.5 rounds up to 1 in binary arithmetic).
     return std::clamp(static_cast<int>(std::round(scaled)), 0, 7);

@@ -18,7 +18,7 @@ int sparkline_level(double y, double min, double max);
 
 // Collects the rows of one group.
 class Sparkline {
-public:
+  public:
     // Ties in x keep the order in which rows arrived (a stable sort).
     void add(double x, std::optional<double> y);
     bool empty() const { return points_.empty(); }
@@ -26,7 +26,7 @@ public:
     // a missing value (so every column stays one row).
     std::string render() const;
 
-private:
+  private:
     struct Point {
         double x;
         std::optional<double> y;

@@ -22,7 +22,7 @@ using SvgAttributes = std::vector<SvgAttribute>;
 std::string svg_number(double value);
 
 class SvgWriter {
-public:
+  public:
     // Starts the document: <svg xmlns=... width height viewBox + extra attributes>.
     SvgWriter(double width, double height, const SvgAttributes& extra = {});
 
@@ -34,7 +34,7 @@ public:
     // Closes every open element and returns the document.
     std::string finish();
 
-private:
+  private:
     void start_tag(std::string_view tag, const SvgAttributes& attributes);
     std::string out_;
     std::vector<std::string> open_;

@@ -22,12 +22,12 @@ const char* describe_x_kind(XKind kind);  // "a number", "a time value"
 // Remembers the kind of the first x value and refuses the other kind later:
 // a chart cannot put numbers and dates on one axis.
 class XKindGuard {
-public:
+  public:
     // Throws almanac::Error saying what was expected.
     void accept(XKind kind);
     std::optional<XKind> kind() const { return kind_; }
 
-private:
+  private:
     std::optional<XKind> kind_;
 };
 

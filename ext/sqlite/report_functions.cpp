@@ -72,8 +72,16 @@ std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value) {
             return XReading{XKind::Number, *read_number(arg, value)};
         case SQLITE_TEXT: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
-            if (numeric_text(text ? text : "")) return XReading{XKind::Number, *read_number(arg, value)};
-            return XReading{XKind::Time, time_axis_value(*read_time(arg, value))};
+            if (numeric_text(text ? text : ""))
+                return XReading{XKind::Number, *read_number(arg, value)};
+            try {
+                return XReading{XKind::Time, time_axis_value(*read_time(arg, value))};
+            } catch (const SqlError& error) {
+                // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.
+                throw SqlError(std::string(error.what()) +
+                               "; x orders the rows, so for periods give period_floor() or "
+                               "period_serial(), not period_label()");
+            }
         }
         default:
             raise_argument_error(arg, value, "expected a number or a time value, not a BLOB");
@@ -137,7 +145,8 @@ std::optional<std::string> read_series(const ArgumentRef& arg, sqlite3_value* va
         case SQLITE_NULL:
             return std::nullopt;
         case SQLITE_BLOB:
-            raise_argument_error(arg, value, "expected TEXT or a number as the series name, not a BLOB");
+            raise_argument_error(arg, value,
+                                 "expected TEXT or a number as the series name, not a BLOB");
         default: {
             // A number names its series by SQLite's own text for it (42, 1.5).
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
@@ -162,10 +171,10 @@ void read_options(ChartState& state, sqlite3_value* value) {
         return;
     }
     if (text != state.options_text)
-        raise_argument_error(arg, value,
-                             "expected the same options on every row of one chart (the first row had " +
-                                 (state.options_text ? "'" + *state.options_text + "'" : std::string("NULL")) +
-                                 ")");
+        raise_argument_error(
+            arg, value,
+            "expected the same options on every row of one chart (the first row had " +
+                (state.options_text ? "'" + *state.options_text + "'" : std::string("NULL")) + ")");
 }
 
 void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
@@ -220,7 +229,8 @@ int register_report_functions(sqlite3* db) {
     int rc = sqlite3_create_function(db, "sparkline", 2, flags, nullptr, nullptr, sparkline_step,
                                      sparkline_final);
     for (int argc = 3; argc <= 5 && rc == SQLITE_OK; ++argc)
-        rc = sqlite3_create_function(db, kChart, argc, flags, nullptr, nullptr, chart_step, chart_final);
+        rc = sqlite3_create_function(db, kChart, argc, flags, nullptr, nullptr, chart_step,
+                                     chart_final);
     return rc;
 }
 

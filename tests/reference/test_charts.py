@@ -313,6 +313,23 @@ def test_options_set_size_title_and_caption(db):
     assert next(t for t in root.iter(f"{SVG}text") if t.get("class") == "chart-title").text == "T"
 
 
+def test_a_period_label_as_x_is_an_error_that_says_what_to_use(db):
+    with pytest.raises(sqlite3.OperationalError) as error:
+        db.execute("SELECT sparkline(3, '2024-W05')").fetchone()
+    message = str(error.value)
+    assert message.startswith("sparkline(): argument 2 (x) = '2024-W05': expected YYYY-MM-DD")
+    assert message.endswith("; x orders the rows, so for periods give period_floor() or period_serial(), "
+                            "not period_label()")
+
+
+def test_numeric_text_x_is_a_number(db):
+    # DESIGN.md: TEXT that SQLite reads as a number is a number; numbers get a numeric axis.
+    root = ET.fromstring(chart(db, [("1", 5, "a"), ("2", 6, "a"), (3, 7, "a")]))
+    assert all(re.fullmatch(r"[\d.]+", label) for label in tick_labels(root, "x-axis"))
+    assert db.execute("SELECT sparkline(y, x) FROM (SELECT ' 2' AS x, 9 AS y UNION ALL SELECT 1.5, 0)"
+                      ).fetchone()[0] == BLOCKS[0] + BLOCKS[7]
+
+
 def test_bad_layer_and_values_are_errors(db):
     cases = [
         ("SELECT svg_line_chart(1, 2, 'a', 'thin')",
@@ -321,10 +338,10 @@ def test_bad_layer_and_values_are_errors(db):
          "svg_line_chart(): argument 2 (y) = 'many': expected a number"),
         ("SELECT svg_line_chart('2024-02-30', 1, 'a')",
          "svg_line_chart(): argument 1 (x) = '2024-02-30': "),
-        ("SELECT svg_line_chart(X'00', 1, 'a')",
-         "svg_line_chart(): argument 1 (x) = a BLOB of 1 bytes: expected a number or a time value, not a BLOB"),
-        ("SELECT svg_line_chart(1, 1, X'00')",
-         "svg_line_chart(): argument 3 (series) = a BLOB of 1 bytes: expected TEXT or a number as the series "
+        ("SELECT svg_line_chart(X'0000', 1, 'a')",
+         "svg_line_chart(): argument 1 (x) = a BLOB of 2 bytes: expected a number or a time value, not a BLOB"),
+        ("SELECT svg_line_chart(1, 1, X'0000')",
+         "svg_line_chart(): argument 3 (series) = a BLOB of 2 bytes: expected TEXT or a number as the series "
          "name, not a BLOB"),
         ("SELECT sparkline('high', 1)", "sparkline(): argument 1 (y) = 'high': expected a number"),
         ("SELECT sparkline(1, 'soon')", "sparkline(): argument 2 (x) = 'soon': "),

@@ -1,9 +1,9 @@
-#include <catch2/catch.hpp>
+#include "core/axis_ticks.h"
 
+#include <catch2/catch.hpp>
 #include <chrono>
 #include <vector>
 
-#include "core/axis_ticks.h"
 #include "core/calendar_ticks.h"
 #include "core/time_value.h"
 
@@ -21,9 +21,7 @@ std::vector<std::string> contexts(const AxisScale& scale) {
     return out;
 }
 Instant at(const char* text) { return parse_time_text(text).instant; }
-Instant day(const char* text) {
-    return Instant{parse_time_text(text).day.time_since_epoch()};
-}
+Instant day(const char* text) { return Instant{parse_time_text(text).day.time_since_epoch()}; }
 }  // namespace
 
 TEST_CASE("steps are 1, 2 or 5 times a power of ten") {
@@ -33,7 +31,7 @@ TEST_CASE("steps are 1, 2 or 5 times a power of ten") {
         {100, 10, 10},
         {100, 4, 50},
         {7, 5, 2},
-        {0.3, 3, 0.1},   // 0.3/3 is 0.09999999999999999 in binary: still 0.1
+        {0.3, 3, 0.1},  // 0.3/3 is 0.09999999999999999 in binary: still 0.1
         {1, 1, 1},
         {12345, 6, 5000},
         {0.00042, 4, 0.0002},
@@ -106,16 +104,19 @@ TEST_CASE("a calendar axis picks the finest boundary that leaves room for its la
     SECTION("five weeks: ISO weeks start on Mondays") {
         // 2024-01-01 is a Monday (from memory; date.isocalendar() gives 2024-W01-1).
         auto scale = calendar_scale(day("2024-01-01"), day("2024-02-04"), 8);
-        CHECK(labels(scale) == std::vector<std::string>{"1 Jan", "8 Jan", "15 Jan", "22 Jan", "29 Jan"});
+        CHECK(labels(scale) ==
+              std::vector<std::string>{"1 Jan", "8 Jan", "15 Jan", "22 Jan", "29 Jan"});
     }
     SECTION("a week of days") {
         auto scale = calendar_scale(day("2023-12-29"), day("2024-01-03"), 8);
-        CHECK(labels(scale) == std::vector<std::string>{"29 Dec", "30 Dec", "31 Dec", "1 Jan", "2 Jan", "3 Jan"});
+        CHECK(labels(scale) ==
+              std::vector<std::string>{"29 Dec", "30 Dec", "31 Dec", "1 Jan", "2 Jan", "3 Jan"});
         CHECK(contexts(scale) == std::vector<std::string>{"2023", "", "", "2024", "", ""});
     }
     SECTION("two years: quarters, labelled Qn with the year") {
         auto scale = calendar_scale(day("2023-01-01"), day("2024-12-31"), 8);
-        CHECK(labels(scale) == std::vector<std::string>{"Q1", "Q2", "Q3", "Q4", "Q1", "Q2", "Q3", "Q4"});
+        CHECK(labels(scale) ==
+              std::vector<std::string>{"Q1", "Q2", "Q3", "Q4", "Q1", "Q2", "Q3", "Q4"});
         CHECK(contexts(scale).front() == "2023");
         CHECK(contexts(scale)[4] == "2024");
     }
@@ -129,7 +130,8 @@ TEST_CASE("a calendar axis picks the finest boundary that leaves room for its la
     }
     SECTION("a few hours: clock times, the day on the first") {
         auto scale = calendar_scale(at("2024-03-05 08:10"), at("2024-03-05 13:00"), 6);
-        CHECK(labels(scale) == std::vector<std::string>{"09:00", "10:00", "11:00", "12:00", "13:00"});
+        CHECK(labels(scale) ==
+              std::vector<std::string>{"09:00", "10:00", "11:00", "12:00", "13:00"});
         CHECK(contexts(scale).front() == "5 Mar 2024");
     }
 }

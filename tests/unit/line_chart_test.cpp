@@ -1,11 +1,11 @@
-#include <catch2/catch.hpp>
+#include "core/line_chart.h"
 
+#include <catch2/catch.hpp>
 #include <set>
 #include <string>
 
 #include "core/chart_palette.h"
 #include "core/error.h"
-#include "core/line_chart.h"
 
 using namespace almanac;
 
@@ -20,7 +20,8 @@ std::size_t count(const std::string& text, const std::string& needle) {
 TEST_CASE("layers are raw or smooth, in any case") {
     CHECK(parse_chart_layer("raw") == ChartLayer::Raw);
     CHECK(parse_chart_layer("SMOOTH") == ChartLayer::Smooth);
-    CHECK_THROWS_WITH(parse_chart_layer("thin"), "expected 'raw' (thin, light) or 'smooth' (thick)");
+    CHECK_THROWS_WITH(parse_chart_layer("thin"),
+                      "expected 'raw' (thin, light) or 'smooth' (thick)");
 }
 
 TEST_CASE("the palette has eight distinct colours and eight dash patterns for 64 series") {
@@ -41,9 +42,10 @@ TEST_CASE("a chart refuses a 65th series and the 200,001st row") {
     LineChart chart;
     for (int i = 0; i < 64; ++i) chart.add(i, 1.0, "s" + std::to_string(i), ChartLayer::Raw);
     CHECK_NOTHROW(chart.add(1, 2.0, "s0", ChartLayer::Smooth));
-    CHECK_THROWS_WITH(chart.add(1, 2.0, "one too many", ChartLayer::Raw),
-                      "more than 64 series; a chart holds at most 64 (8 colours x 8 dash patterns): "
-                      "chart the top items only");
+    CHECK_THROWS_WITH(
+        chart.add(1, 2.0, "one too many", ChartLayer::Raw),
+        "more than 64 series; a chart holds at most 64 (8 colours x 8 dash patterns): "
+        "chart the top items only");
 
     LineChart small(ChartLimits{64, 3});
     for (int i = 0; i < 3; ++i) small.add(i, 1.0, "a", ChartLayer::Raw);

@@ -1,14 +1,14 @@
-#include <catch2/catch.hpp>
+#include "core/sparkline.h"
 
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <string>
-
-#include "core/sparkline.h"
 
 using namespace almanac;
 
 namespace {
-// U+2581 + level in UTF-8 (Unicode block "Block Elements": 2581 LOWER ONE EIGHTH BLOCK ... 2588 FULL BLOCK).
+// U+2581 + level in UTF-8 (Unicode block "Block Elements": 2581 LOWER ONE EIGHTH BLOCK ... 2588
+// FULL BLOCK).
 std::string block(int level) { return std::string("\xE2\x96") + char(0x81 + level); }
 }  // namespace
 
@@ -16,13 +16,14 @@ TEST_CASE("levels follow round(7 (y - min) / (max - min)) with halves rounded up
     // DESIGN.md "Reports" gives the formula; the rows are hand computed.
     CHECK(sparkline_level(0, 0, 7) == 0);
     CHECK(sparkline_level(7, 0, 7) == 7);
-    CHECK(sparkline_level(3.5, 0, 7) == 4);      // 3.5 rounds up
+    CHECK(sparkline_level(3.5, 0, 7) == 4);  // 3.5 rounds up
     CHECK(sparkline_level(3.49, 0, 7) == 3);
-    CHECK(sparkline_level(5, 1, 10) == 3);       // 7*4/9 = 3.11
-    CHECK(sparkline_level(3, 1, 10) == 2);       // 7*2/9 = 1.56
+    CHECK(sparkline_level(5, 1, 10) == 3);  // 7*4/9 = 3.11
+    CHECK(sparkline_level(3, 1, 10) == 2);  // 7*2/9 = 1.56
     CHECK(sparkline_level(-1, -1, 1) == 0);
-    CHECK(sparkline_level(0, -1, 1) == 4);       // 3.5
-    // 0.49999999999999994 (the largest double below one half) rounds down; floor(v + 0.5) would not.
+    CHECK(sparkline_level(0, -1, 1) == 4);  // 3.5
+    // 0.49999999999999994 (the largest double below one half) rounds down; floor(v + 0.5) would
+    // not.
     CHECK(sparkline_level(0.49999999999999994, 0, 7) == 0);
 }
 

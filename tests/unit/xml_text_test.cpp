@@ -1,7 +1,8 @@
+#include "core/xml_text.h"
+
 #include <catch2/catch.hpp>
 
 #include "core/svg_writer.h"
-#include "core/xml_text.h"
 
 using namespace almanac;
 
@@ -11,7 +12,8 @@ TEST_CASE("markup characters in data become character references") {
     CHECK(xml_escape("<script>alert(1)</script>") == "&lt;script&gt;alert(1)&lt;/script&gt;");
     CHECK(xml_escape("Fish & Chips") == "Fish &amp; Chips");
     CHECK(xml_escape("say \"hi\" o'clock") == "say &quot;hi&quot; o&#39;clock");
-    CHECK(xml_escape("&amp;") == "&amp;amp;");  // escaping is not idempotent on purpose: data is data
+    CHECK(xml_escape("&amp;") ==
+          "&amp;amp;");  // escaping is not idempotent on purpose: data is data
 }
 
 TEST_CASE("characters XML cannot hold and broken UTF-8 become U+FFFD") {
@@ -23,7 +25,8 @@ TEST_CASE("characters XML cannot hold and broken UTF-8 become U+FFFD") {
     CHECK(xml_escape("\xC0\x80") == "\xEF\xBF\xBD\xEF\xBF\xBD");
     CHECK(xml_escape("\xED\xA0\x80") == "\xEF\xBF\xBD\xEF\xBF\xBD\xEF\xBF\xBD");
     // Valid multi-byte text passes through unchanged (U+00E9, U+20AC, U+1F600).
-    CHECK(xml_escape("caf\xC3\xA9 \xE2\x82\xAC \xF0\x9F\x98\x80") == "caf\xC3\xA9 \xE2\x82\xAC \xF0\x9F\x98\x80");
+    CHECK(xml_escape("caf\xC3\xA9 \xE2\x82\xAC \xF0\x9F\x98\x80") ==
+          "caf\xC3\xA9 \xE2\x82\xAC \xF0\x9F\x98\x80");
 }
 
 TEST_CASE("newlines and tabs survive inside attribute values") {
