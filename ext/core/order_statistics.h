@@ -61,27 +61,26 @@ public:
 
 private:
     using Id = std::uint32_t;
-    struct Slot {
+    struct Entry {  // a heap element: the value, beside it for fast comparisons
         double value;
-        std::uint32_t position;  // index in its heap
+        Id id;
+    };
+    struct Slot {  // where a value is, by the id it keeps while in the window
+        std::uint32_t position;
         bool in_lower;
     };
 
-    bool above(bool lower_heap, Id a, Id b) const;  // a belongs nearer the top than b
-    void place(bool lower_heap, std::size_t position, Id id);
-    void sift_up(bool lower_heap, std::size_t position);
-    void sift_down(bool lower_heap, std::size_t position);
-    void push(bool lower_heap, Id id);
-    void erase(Id id);
-    Id top(bool lower_heap) const { return lower_heap ? lower_.front() : upper_.front(); }
+    void push(bool lower_heap, Entry entry);
+    Entry erase(Id id);
     void rebalance();
+    double value_of(Id id) const;
 
     double p_;
     std::vector<Slot> slots_;
     std::vector<Id> free_slots_;
-    std::vector<Id> lower_;  // max-heap
-    std::vector<Id> upper_;  // min-heap
-    std::deque<Id> arrivals_;  // oldest first
+    std::vector<Entry> lower_;  // max-heap
+    std::vector<Entry> upper_;  // min-heap
+    std::deque<Id> arrivals_;   // oldest first
 };
 
 }  // namespace almanac
