@@ -146,6 +146,29 @@ def test_quantiles_over_partitioned_frames(series, kind, preceding, following):
                 compared["quantile"] += 1
 
 
+def test_quantiles_with_exclude_and_groups_frames(series):
+    # EXCLUDE makes SQLite recompute each frame without the inverse; GROUPS
+    # frames slide by whole sets of peers (rows of the same day).
+    connection, fetched = series
+    got = {row[0]: row[1:] for row in connection.execute(
+        "SELECT id, median(x) OVER (PARTITION BY grp ORDER BY id"
+        "   ROWS BETWEEN 3 PRECEDING AND 3 FOLLOWING EXCLUDE CURRENT ROW),"
+        " percentile_cont(x, 0.9) OVER (PARTITION BY grp ORDER BY julianday(day)"
+        "   GROUPS BETWEEN 2 PRECEDING AND CURRENT ROW)"
+        " FROM s")}
+    for grp in ("cents9", "runs12", "ties"):
+        rows = [r for r in fetched if r[1] == grp]
+        days = sorted({r[2] for r in rows})
+        group_of = {jd: k for k, jd in enumerate(days)}
+        for i, row in enumerate(rows):
+            values = [r[3] for r in rows[max(0, i - 3): i + 4] if r is not row and r[3] is not None]
+            check(got[row[0]][0], expected_quantile(values, 0.5, 50), f"median EXCLUDE row {row[0]}")
+            g = group_of[row[2]]
+            values = [r[3] for r in rows if g - 2 <= group_of[r[2]] <= g and r[3] is not None]
+            check(got[row[0]][1], expected_quantile(values, 0.9, 90), f"p90 GROUPS row {row[0]}")
+            compared["quantile"] += 2
+
+
 def test_quantiles_over_the_whole_table(series):
     connection, fetched = series
     rows = sorted(fetched, key=lambda r: r[0])
