@@ -70,7 +70,7 @@ def test_document_parses_and_has_one_line_per_series_and_layer(db):
     rows = daily_rows(items, 30, "raw") + [(x, y, s, "smooth") for x, y, s, _ in daily_rows(items, 30, "raw", seed=8)]
     svg = chart(db, rows, "layer", columns="x, y, s")
     root = ET.fromstring(svg)  # oracle: xml.etree parses the whole document
-    assert root.tag == f"{SVG}svg"
+    assert root.tag == f"{SVG}svg"  # contract: a complete SVG document (W3C SVG namespace)
     lines = paths(root)
     assert len(lines) == len(items) * 2  # contract: one line per (series, layer)
     assert sorted((p.get("data-series"), p.get("data-layer")) for p in lines) == sorted(
@@ -94,7 +94,7 @@ def test_same_colour_in_every_layer_and_raw_is_thin_and_light(db):
         assert raw.get("stroke") == smooth.get("stroke") == legend_colour[item]  # contract
         assert float(raw.get("stroke-width")) < float(smooth.get("stroke-width"))  # contract: thin under thick
         assert float(raw.get("stroke-opacity")) < 1.0  # contract: raw is light
-        assert smooth.get("stroke-opacity") is None
+        assert smooth.get("stroke-opacity") is None  # contract: smooth is full strength
     assert len(set(legend_colour.values())) == len(items)  # contract: one colour per series
     # Raw lines are drawn first, so the smooth ones lie on top (contract: thin under thick).
     order = [p.get("data-layer") for p in paths(root)]
@@ -141,7 +141,7 @@ def test_points_are_in_x_order_and_null_breaks_the_line(db):
             expected_runs.append([])
         expected_runs[-1].append(y)
     expected_runs = [r for r in expected_runs if r]
-    assert len(runs) == len(expected_runs)
+    assert len(runs) == len(expected_runs)  # contract: a NULL y breaks the line
     for run, values in zip(runs, expected_runs):
         # A lone value is drawn as a zero-length segment (a dot): two equal points.
         assert len(run) == (2 if len(values) == 1 else len(values))
@@ -155,10 +155,11 @@ def test_points_are_in_x_order_and_null_breaks_the_line(db):
 
 
 def test_rows_with_null_x_or_series_are_skipped_and_no_rows_give_null(db):
+    # documented: rows with NULL x or NULL series are skipped; nothing left gives NULL (SQL convention)
     assert chart(db, [(None, 1, "a"), (1, 2, None)]) is None
     assert db.execute("SELECT svg_line_chart(1, 2, 'a') WHERE 0").fetchone()[0] is None  # SQL: empty aggregate
     svg = chart(db, [(None, 1, "a"), (1, 2, "a"), (2, 3, "a"), (3, 4, None)])
-    assert len(subpaths(paths(ET.fromstring(svg))[0].get("d"))[0]) == 2
+    assert len(subpaths(paths(ET.fromstring(svg))[0].get("d"))[0]) == 2  # the two placeable rows
 
 
 # ---------------------------------------------------------------------------
@@ -301,6 +302,7 @@ def test_options_must_be_the_same_on_every_row(db):
     with pytest.raises(sqlite3.OperationalError) as error:
         db.execute("SELECT svg_line_chart(x, 1, 'a', 'raw', o) FROM (SELECT 1 AS x, '{}' AS o "
                    "UNION ALL SELECT 2, '{\"width\": 900}')").fetchone()
+    # documented: options are the same on every row; common brief message shape
     assert str(error.value) == ("svg_line_chart(): argument 5 (options) = '{\"width\": 900}': expected the "
                                 "same options on every row of one chart (the first row had '{}')")
 
@@ -309,14 +311,14 @@ def test_options_set_size_title_and_caption(db):
     svg = db.execute("SELECT svg_line_chart(1, 2, 'a', 'raw', '{\"width\": 640, \"height\": 300, "
                      "\"title\": \"T\", \"y_caption\": \"EUR\"}')").fetchone()[0]
     root = ET.fromstring(svg)
-    assert (root.get("width"), root.get("height")) == ("640", "300")
+    assert (root.get("width"), root.get("height")) == ("640", "300")  # the options given
     assert next(t for t in root.iter(f"{SVG}text") if t.get("class") == "chart-title").text == "T"
 
 
 def test_a_period_label_as_x_is_an_error_that_says_what_to_use(db):
     with pytest.raises(sqlite3.OperationalError) as error:
         db.execute("SELECT sparkline(3, '2024-W05')").fetchone()
-    message = str(error.value)
+    message = str(error.value)  # common brief: fn(): argument N (name) = <value>: <what was expected>
     assert message.startswith("sparkline(): argument 2 (x) = '2024-W05': expected YYYY-MM-DD")
     assert message.endswith("; x orders the rows, so for periods give period_floor() or period_serial(), "
                             "not period_label()")
@@ -346,6 +348,7 @@ def test_bad_layer_and_values_are_errors(db):
         ("SELECT sparkline('high', 1)", "sparkline(): argument 1 (y) = 'high': expected a number"),
         ("SELECT sparkline(1, 'soon')", "sparkline(): argument 2 (x) = 'soon': "),
     ]
+    # common brief: fn(): argument N (name) = <value>: <what was expected>
     for sql, expected in cases:
         with pytest.raises(sqlite3.OperationalError) as error:
             db.execute(sql).fetchone()
@@ -359,6 +362,7 @@ def test_more_than_64_series_is_an_error(db):
     with pytest.raises(sqlite3.OperationalError) as error:
         db.execute("WITH RECURSIVE n(k) AS (SELECT 0 UNION ALL SELECT k + 1 FROM n WHERE k < 64) "
                    "SELECT svg_line_chart(k, k, 's' || k) FROM n").fetchone()
+    # contract: a clear error past 64 series (README states the text)
     assert str(error.value) == ("svg_line_chart(): more than 64 series; a chart holds at most 64 "
                                 "(8 colours x 8 dash patterns): chart the top items only")
 
@@ -370,6 +374,7 @@ def test_more_than_200000_points_is_an_error(db):
     with pytest.raises(sqlite3.OperationalError) as error:
         db.execute("WITH RECURSIVE n(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM n WHERE k < 200001) "
                    "SELECT svg_line_chart(k, k % 97, 's') FROM n").fetchone()
+    # contract: a clear error past 200,000 points (README states the text)
     assert str(error.value) == ("svg_line_chart(): more than 200000 points; a chart holds at most 200000 "
                                 "rows: aggregate first (e.g. one row per series and day)")
 
@@ -433,7 +438,7 @@ def test_sparkline_matches_the_scaling_rule_on_seeded_data(db):
         expected[item] = sparkline_rule(points)  # arrival order = insertion order (rowid)
     got = dict(db.execute(
         "SELECT item, sparkline(total, week) FROM (SELECT * FROM weekly ORDER BY rowid) GROUP BY item"))
-    assert got == expected
+    assert got == expected  # oracle: sparkline_rule() above, plain Python
     print(f"compared {len(expected)} sparklines, {sum(map(len, expected.values()))} characters")
 
 
