@@ -2,12 +2,31 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstring>
 
 namespace almanac {
 
 __extension__ typedef unsigned __int128 Uint128;
 
 double RoundedBinary::to_double() const {
+    // A normal double is assembled from its bits directly (this runs once per
+    // window row); everything else goes through ldexp.
+    if (mantissa >= (std::uint64_t(1) << 52) && mantissa <= (std::uint64_t(1) << 53)) {
+        std::uint64_t m = mantissa;
+        std::int64_t e = exponent;
+        if (m == (std::uint64_t(1) << 53)) {
+            m >>= 1;
+            ++e;
+        }
+        std::int64_t biased = e + 52 + 1023;
+        if (biased >= 1 && biased <= 2046) {
+            std::uint64_t bits = (std::uint64_t(negative) << 63) | (std::uint64_t(biased) << 52) |
+                                 (m & ((std::uint64_t(1) << 52) - 1));
+            double result;
+            std::memcpy(&result, &bits, sizeof result);
+            return result;
+        }
+    }
     // Exponents far outside the double range saturate; ldexp then gives
     // infinity or zero, as the value deserves.
     std::int64_t e = std::clamp<std::int64_t>(exponent, -4000, 4000);

@@ -10,6 +10,40 @@ __extension__ typedef unsigned __int128 Uint128;
 
 void ExactSum::throw_not_finite() { throw Error("expected a finite number"); }
 
+namespace {
+std::int64_t floor_div(std::int64_t a, std::int64_t b) {
+    std::int64_t q = a / b;
+    if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
+    return q;
+}
+}  // namespace
+
+bool ExactSum::rescale_narrow(std::int64_t exponent) {
+    std::int64_t up = narrow_exponent_ - exponent;
+    // The rescaled sum must stay below 2^125, with room for the term.
+    if (up > 72) return widen();
+    Int128 limit = Int128(1) << (125 - up);
+    if (narrow_ >= limit || narrow_ <= -limit) return widen();
+    narrow_ *= Int128(1) << up;  // exact: |narrow_| < 2^125 afterwards
+    narrow_exponent_ = exponent;
+    return true;
+}
+
+bool ExactSum::widen() {
+    wide_ = true;
+    Int128 value = narrow_;
+    narrow_ = 0;
+    if (value != 0) {
+        bool negative = value < 0;
+        Uint128 magnitude = negative ? Uint128(0) - Uint128(value) : Uint128(value);
+        auto low = static_cast<std::uint64_t>(magnitude);
+        auto high = static_cast<std::uint64_t>(magnitude >> 64);
+        if (low) add_bits(low, narrow_exponent_, negative);
+        if (high) add_bits(high, narrow_exponent_ + 64, negative);
+    }
+    return false;
+}
+
 void ExactSum::add_prod(double a, double b, std::int64_t shift, bool negate) {
     auto split = [](double x, std::uint64_t& mantissa, int& exponent, bool& negative) {
         std::uint64_t bits;
@@ -31,6 +65,7 @@ void ExactSum::add_prod(double a, double b, std::int64_t shift, bool negate) {
     split(a, ma, ea, na);
     split(b, mb, eb, nb);
     if (ma == 0 || mb == 0) return;
+    if (!wide_) widen();
     Uint128 product = Uint128(ma) * mb;  // exact: < 2^106
     bool negative = negate != (na != nb);
     std::int64_t exponent = std::int64_t(ea) + eb + shift;
@@ -110,6 +145,18 @@ void ExactSum::normalize() {
 }
 
 void ExactSum::add(ExactSum& other, std::int64_t limb_shift) {
+    if (!wide_) widen();
+    if (!other.wide_) {
+        if (other.narrow_ == 0) return;
+        bool negative = other.narrow_ < 0;
+        Uint128 magnitude = negative ? Uint128(0) - Uint128(other.narrow_) : Uint128(other.narrow_);
+        std::int64_t exponent = other.narrow_exponent_ + 32 * limb_shift;
+        auto low = static_cast<std::uint64_t>(magnitude);
+        auto high = static_cast<std::uint64_t>(magnitude >> 64);
+        if (low) add_bits(low, exponent, negative);
+        if (high) add_bits(high, exponent + 64, negative);
+        return;
+    }
     other.normalize();
     if (other.lo_ == other.hi_) return;
     std::int64_t lo = other.lo_ + limb_shift, hi = other.hi_ + limb_shift;
@@ -120,19 +167,42 @@ void ExactSum::add(ExactSum& other, std::int64_t limb_shift) {
     if (++pending_ >= kNormalizeEvery) normalize();
 }
 
-bool ExactSum::is_zero() {
+void ExactSum::settle() {
     normalize();
-    return lo_ == hi_;
+    // Exactly zero: the next terms may fit the fast form again. (Only readers
+    // do this; normalize() also runs in the middle of an addition.)
+    if (lo_ == hi_) wide_ = false;
+}
+
+bool ExactSum::is_zero() {
+    if (!wide_) return narrow_ == 0;
+    settle();
+    return !wide_;
 }
 
 int ExactSum::sign() {
-    normalize();
+    if (!wide_) return narrow_ == 0 ? 0 : (narrow_ < 0 ? -1 : 1);
+    settle();
     if (lo_ == hi_) return 0;
     return limbs_[hi_ - 1 - base_] < 0 ? -1 : 1;
 }
 
 RoundedBinary ExactSum::rounded(std::int64_t lowest_bit) {
-    normalize();
+    if (!wide_) {
+        if (narrow_ == 0) return RoundedBinary{};
+        bool negative = narrow_ < 0;
+        Uint128 magnitude = negative ? Uint128(0) - Uint128(narrow_) : Uint128(narrow_);
+        std::uint32_t digits[4];
+        for (int i = 0; i < 4; ++i) digits[i] = static_cast<std::uint32_t>(magnitude >> (32 * i));
+        int lead = 3;
+        while (digits[lead] == 0) --lead;
+        auto at = [&](int i) { return i >= 0 ? digits[i] : 0u; };
+        bool sticky = false;
+        for (int i = 0; i < lead - 2; ++i) sticky = sticky || digits[i] != 0;
+        return round_top_digits(negative, digits[lead], at(lead - 1), at(lead - 2),
+                                narrow_exponent_ + 32 * (lead - 2), sticky, lowest_bit);
+    }
+    settle();
     if (lo_ == hi_) return RoundedBinary{};
     const std::int64_t* p = limbs_.data() + (lo_ - base_);
     std::int64_t n = hi_ - lo_;
@@ -159,7 +229,21 @@ RoundedBinary ExactSum::rounded(std::int64_t lowest_bit) {
 }
 
 ExactNumber ExactSum::value() {
-    normalize();
+    if (!wide_) {
+        if (narrow_ == 0) return ExactNumber();
+        bool negative = narrow_ < 0;
+        Uint128 magnitude = negative ? Uint128(0) - Uint128(narrow_) : Uint128(narrow_);
+        // ExactNumber counts its scale in 32-bit digits: align the exponent.
+        std::int64_t digit = floor_div(narrow_exponent_, 32);
+        unsigned s = static_cast<unsigned>(narrow_exponent_ - 32 * digit);
+        Uint128 low = magnitude << s;
+        std::uint32_t top = s ? static_cast<std::uint32_t>(magnitude >> (128 - s)) : 0;
+        DigitBuffer digits(5);
+        for (int i = 0; i < 4; ++i) digits[i] = static_cast<std::uint32_t>(low >> (32 * i));
+        digits[4] = top;
+        return ExactNumber(negative, std::move(digits), digit);
+    }
+    settle();
     if (lo_ == hi_) return ExactNumber();
     const std::int64_t* p = limbs_.data() + (lo_ - base_);
     std::int64_t n = hi_ - lo_;

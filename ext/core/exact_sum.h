@@ -15,6 +15,13 @@
 // Only the limbs between the lowest and highest digit in use are stored and
 // visited, so values of similar magnitude cost a few limbs, and reading the
 // sum (carry resolution plus rounding) is a handful of operations.
+//
+// A faster form comes first: while the terms are doubles whose exponents lie
+// within about 70 bits of each other (a series of prices, with its spikes),
+// the sum is one exact 128-bit integer times 2^e, so adding is a shift and an
+// add and reading is one rounding. The first term that does not fit (an
+// overflow, a far smaller or larger exponent, or any product) moves the sum
+// into the limbs, where it stays until it is exactly zero again.
 #pragma once
 
 #include <cstdint>
@@ -58,6 +65,8 @@ private:
 
     static std::int64_t floor_div32(std::int64_t v) { return v >= 0 ? v / 32 : -((-v + 31) / 32); }
 
+    __extension__ typedef __int128 Int128;
+
     void add_double(double x, std::int64_t shift, bool negate) {
         std::uint64_t bits;
         std::memcpy(&bits, &x, sizeof bits);
@@ -72,8 +81,30 @@ private:
             mantissa |= std::uint64_t(1) << 52;
             exponent = biased - 1075;
         }
-        add_bits(mantissa, exponent + shift, negate != (bits >> 63 != 0));
+        bool negative = negate != (bits >> 63 != 0);
+        if (!wide_ && add_narrow(mantissa, exponent + shift, negative)) return;
+        add_bits(mantissa, exponent + shift, negative);
     }
+    // Adds ±mantissa * 2^exponent to the 128-bit form; false (having moved
+    // the sum into the limbs) when it does not fit.
+    bool add_narrow(std::uint64_t mantissa, std::int64_t exponent, bool negative) {
+        if (narrow_ == 0) {
+            narrow_exponent_ = exponent;
+            narrow_ = negative ? -Int128(mantissa) : Int128(mantissa);
+            return true;
+        }
+        if (exponent < narrow_exponent_ && !rescale_narrow(exponent)) return false;
+        std::int64_t d = exponent - narrow_exponent_;
+        if (d > 72) return widen();  // the term would need more than 125 bits
+        Int128 term = Int128(mantissa) << d;
+        Int128 sum;
+        if (__builtin_add_overflow(narrow_, negative ? -term : term, &sum)) return widen();
+        narrow_ = sum;
+        return true;
+    }
+    bool rescale_narrow(std::int64_t exponent);
+    // Moves the 128-bit form into the limbs; returns false for add_narrow.
+    bool widen();
     void add_prod(double a, double b, std::int64_t shift, bool negate);
     // Adds ±magnitude * 2^bit_exponent.
     void add_bits(std::uint64_t magnitude, std::int64_t bit_exponent, bool negative) {
@@ -106,11 +137,16 @@ private:
     // Resolves carries: every limb but the top becomes a digit in [0, 2^32),
     // the top a signed value in [-2^32, 2^32); zero limbs leave the range.
     void normalize();
+    // normalize(), then back to the fast form when the sum is exactly zero.
+    void settle();
 
     std::vector<std::int64_t> limbs_;  // limbs_[i] is limb number base_ + i
     std::int64_t base_ = 0;
     std::int64_t lo_ = 0, hi_ = 0;  // active limbs [lo_, hi_); all others are zero
     std::uint32_t pending_ = 0;     // additions since the last normalize()
+    bool wide_ = false;             // the sum is in the limbs, not in narrow_
+    Int128 narrow_ = 0;             // otherwise the sum is narrow_ * 2^narrow_exponent_
+    std::int64_t narrow_exponent_ = 0;
 };
 
 }  // namespace almanac

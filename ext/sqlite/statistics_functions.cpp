@@ -206,8 +206,13 @@ struct MeanState {
 
 // Reads x and min_values; false when the row is skipped.
 bool read_mean_row(int argc, sqlite3_value** argv, double& x, std::int64_t& min_values) {
-    auto value = read_number({"moving_mean", 1, "x"}, argv[0]);
     min_values = 1;
+    // The common case, a finite REAL, without the general reader's call.
+    if (argc == 1 && sqlite3_value_type(argv[0]) == SQLITE_FLOAT) {
+        x = sqlite3_value_double(argv[0]);
+        if (std::isfinite(x)) return true;
+    }
+    auto value = read_number({"moving_mean", 1, "x"}, argv[0]);
     if (argc == 2) {
         auto given = read_integer({"moving_mean", 2, "min_values"}, argv[1], 1, kMostMinValues);
         if (!given) return false;

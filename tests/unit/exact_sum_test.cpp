@@ -126,3 +126,59 @@ TEST_CASE("exact numbers multiply and subtract without rounding") {
     CHECK(product.to_double() == std::ldexp(1.0, 80));  // 2^80 - 1 rounds to 2^80
     CHECK(ExactNumber(3).to_scaled().to_double() == 3.0);
 }
+
+TEST_CASE("the 128-bit fast form hands over to the limbs without losing anything") {
+    // A single IEEE 754 addition is correctly rounded (from memory), so for two
+    // terms the exact sum rounds to a + b.
+    ExactSum rescaled;
+    rescaled.add(1e9);
+    rescaled.add(1e-5);  // a smaller exponent: the fast form rescales
+    CHECK(rescaled.to_double() == 1e9 + 1e-5);
+
+    // Terms too far apart for 128 bits move the sum into the limbs.
+    ExactSum far;
+    far.add(1.0);
+    far.add(1e30);
+    CHECK(far.to_double() == 1.0 + 1e30);
+    far.subtract(1e30);
+    CHECK(far.to_double() == 1.0);
+    CHECK(far.value().to_double() == 1.0);
+
+    // Overflow of the 128-bit integer, part way through: 40 * 2^122 > 2^127.
+    ExactSum overflowing;
+    const double big = std::ldexp(1.0, 70);
+    overflowing.add(1.0);
+    for (int i = 0; i < 40; ++i) overflowing.add(big);
+    CHECK(overflowing.to_double() == 40 * big);  // + 1 is far below half an ulp
+    for (int i = 0; i < 40; ++i) overflowing.subtract(big);
+    CHECK(overflowing.to_double() == 1.0);
+
+    // Back to zero, the sum starts over in the fast form and stays exact.
+    overflowing.subtract(1.0);
+    CHECK(overflowing.is_zero());
+    overflowing.add(0.1);
+    overflowing.add(0.2);
+    CHECK(overflowing.to_double() == 0.30000000000000004);  // 0.1 + 0.2, one IEEE addition
+    CHECK(overflowing.sign() == 1);
+
+    // A product after plain terms: the plain part moves along with it.
+    ExactSum mixed;
+    mixed.add(3.0);
+    mixed.add_product(2.0, 5.0);
+    mixed.subtract(-1.0);
+    CHECK(mixed.to_double() == 14.0);
+    CHECK(mixed.value().to_double() == 14.0);
+}
+
+TEST_CASE("a negative sum in the fast form converts exactly") {
+    ExactSum sum;
+    sum.add(-1e9);
+    sum.add(-0.25);
+    CHECK(sum.to_double() == -1000000000.25);
+    CHECK(sum.value().to_double() == -1000000000.25);
+    CHECK(sum.sign() == -1);
+    ExactSum other;
+    other.add(1e9);
+    other.add(sum, 0);  // merging a fast-form sum into another
+    CHECK(other.to_double() == -0.25);
+}
