@@ -106,3 +106,14 @@ def test_the_same_p_may_repeat_in_other_forms(db):
     assert db.execute("WITH t(x, p) AS (VALUES (1, 0.5), (2, '0.5'), (4, 5e-1))"
                       " SELECT percentile_cont(x, p) FROM t"
                       ).fetchone() == (2.0,)  # median of 1, 2, 4 (by hand)
+
+
+def test_p_may_differ_between_groups_and_partitions(db):
+    # "the same for the whole group" (DESIGN.md): each GROUP BY group and each
+    # window partition has its own p.
+    rows = "WITH t(g, x) AS (VALUES ('a', 1), ('a', 2), ('a', 3), ('b', 10), ('b', 20))"
+    assert db.execute(rows + " SELECT g, percentile_cont(x, CASE g WHEN 'a' THEN 0 ELSE 1 END)"
+                      " FROM t GROUP BY g ORDER BY g").fetchall() == [("a", 1.0), ("b", 20.0)]
+    assert db.execute(rows + " SELECT percentile_cont(x, CASE g WHEN 'a' THEN 0 ELSE 1 END)"
+                      " OVER (PARTITION BY g) FROM t ORDER BY g").fetchall() == [
+        (1.0,), (1.0,), (1.0,), (20.0,), (20.0,)]  # minimum and maximum (common practice)
