@@ -14,7 +14,7 @@
 namespace almanac {
 
 class DigitBuffer {
-public:
+  public:
     DigitBuffer() = default;
     explicit DigitBuffer(std::size_t size) { resize_zeroed(size); }
     DigitBuffer(const DigitBuffer& other) { assign(other); }
@@ -46,7 +46,7 @@ public:
         size_ -= count;
     }
 
-private:
+  private:
     static constexpr std::size_t kInline = 16;
 
     void resize_zeroed(std::size_t size) {

@@ -6,8 +6,10 @@
 namespace almanac {
 
 ExactNumber::ExactNumber(std::uint64_t integer) {
-    if (integer & 0xffffffffu) digits_.push_back(static_cast<std::uint32_t>(integer));
-    else if (integer) scale_ = 1;
+    if (integer & 0xffffffffu)
+        digits_.push_back(static_cast<std::uint32_t>(integer));
+    else if (integer)
+        scale_ = 1;
     if (integer >> 32) digits_.push_back(static_cast<std::uint32_t>(integer >> 32));
 }
 

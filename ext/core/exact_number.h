@@ -16,7 +16,7 @@
 namespace almanac {
 
 class ExactNumber {
-public:
+  public:
     ExactNumber() = default;  // zero
     explicit ExactNumber(std::uint64_t integer);
     // digits: little-endian 32-bit magnitude; value = ±Σ digits[i]·2^(32·(i + scale)).
@@ -35,7 +35,7 @@ public:
     // Rounded to 53 significant bits, with an exponent that cannot overflow.
     ScaledDouble to_scaled() const;
 
-private:
+  private:
     void trim();
     static int compare_magnitudes(const ExactNumber& a, const ExactNumber& b);
     static ExactNumber add_magnitudes(const ExactNumber& a, const ExactNumber& b, bool negative);

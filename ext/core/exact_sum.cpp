@@ -92,8 +92,8 @@ void ExactSum::extend(std::int64_t lo, std::int64_t hi) {
     std::int64_t new_base = lo_ - kSlack;
     std::int64_t new_size = (hi_ - lo_) + 2 * kSlack;
     std::vector<std::int64_t> fresh(static_cast<std::size_t>(new_size), 0);
-    for (std::int64_t k = std::max(base_, new_base); k < std::min(base_ + size, new_base + new_size);
-         ++k)
+    for (std::int64_t k = std::max(base_, new_base);
+         k < std::min(base_ + size, new_base + new_size); ++k)
         fresh[k - new_base] = limbs_[k - base_];
     limbs_.swap(fresh);
     base_ = new_base;

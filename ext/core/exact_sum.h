@@ -34,7 +34,7 @@
 namespace almanac {
 
 class ExactSum {
-public:
+  public:
     void add(double x) { add_double(x, 0, false); }
     void subtract(double x) { add_double(x, 0, true); }
     // x * 2^shift, exactly; shift moves the term by whole bits.
@@ -57,7 +57,7 @@ public:
     RoundedBinary rounded(std::int64_t lowest_bit);
     ExactNumber value();
 
-private:
+  private:
     // Bit position 0 of the long number is 2^-kBitOffset; a multiple of 32 at
     // or below the last bit of a product of two subnormals (2^-2148).
     static constexpr std::int64_t kBitOffset = 2176;

@@ -34,8 +34,9 @@ ExponentialWeights::Position ExponentialWeights::position(std::int64_t t, std::i
 ExponentialWeights::Position ExponentialWeights::position(double t, double half_life) {
     double ratio = t / half_life;
     if (!(std::fabs(ratio) < 4503599627370496.0))  // 2^52
-        throw Error("t / half_life is beyond 2^52: consecutive values of t are farther apart "
-                    "than a half-life");
+        throw Error(
+            "t / half_life is beyond 2^52: consecutive values of t are farther apart "
+            "than a half-life");
     // fmod is exact, so the fraction depends on t and half_life alone.
     double rest = std::fmod(t, half_life);
     if (rest < 0) rest += half_life;
@@ -71,8 +72,10 @@ std::optional<double> ExponentialWeights::mean() {
     auto next = std::next(latest);
     if (next == blocks_.rend() || next->first < top - kReachBlocks) {
         // One block in reach: its own sums are the whole story.
-        ScaledDouble numerator = ScaledDouble::from(latest->second.weighted.rounded(kUnboundedLowestBit));
-        ScaledDouble denominator = ScaledDouble::from(latest->second.weights.rounded(kUnboundedLowestBit));
+        ScaledDouble numerator =
+            ScaledDouble::from(latest->second.weighted.rounded(kUnboundedLowestBit));
+        ScaledDouble denominator =
+            ScaledDouble::from(latest->second.weights.rounded(kUnboundedLowestBit));
         return (numerator / denominator).to_double();
     }
     ExactSum weighted, weights;

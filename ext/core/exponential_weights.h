@@ -26,7 +26,7 @@
 namespace almanac {
 
 class ExponentialWeights {
-public:
+  public:
     // t / half_life = whole + fraction, 0 <= fraction < 1 (or = 1 by rounding).
     struct Position {
         std::int64_t whole = 0;
@@ -46,7 +46,7 @@ public:
     // nullopt when no rows are present.
     std::optional<double> mean();
 
-private:
+  private:
     struct Block {
         ExactSum weighted;  // Σ 2^f·x·2^(q mod 64)
         ExactSum weights;   // Σ 2^f·2^(q mod 64)

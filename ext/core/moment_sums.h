@@ -25,7 +25,7 @@
 namespace almanac {
 
 class UnivariateMoments {
-public:
+  public:
     void add(double x);
     void remove(double x);
     std::int64_t count() const { return n_; }
@@ -34,13 +34,13 @@ public:
     std::optional<double> variance(bool sample);
     std::optional<double> standard_deviation(bool sample);
 
-private:
+  private:
     std::int64_t n_ = 0;
     ExactSum sum_, sum_of_squares_;
 };
 
 class BivariateMoments {
-public:
+  public:
     // Argument order y, x, as in the SQL standard's regr_* functions.
     void add(double y, double x);
     void remove(double y, double x);
@@ -61,7 +61,7 @@ public:
     // residual_sd / √Sxx: nullopt for n < 3 or Sxx = 0.
     std::optional<double> slope_stderr();
 
-private:
+  private:
     ExactNumber n_times_sxx();
     ExactNumber n_times_syy();
     ExactNumber n_times_sxy();

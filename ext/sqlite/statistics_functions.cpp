@@ -74,8 +74,10 @@ void release_state(sqlite3_context* context) {
 }
 
 void set_result(sqlite3_context* context, std::optional<double> value) {
-    if (value) sqlite3_result_double(context, *value);
-    else sqlite3_result_null(context);
+    if (value)
+        sqlite3_result_double(context, *value);
+    else
+        sqlite3_result_null(context);
 }
 
 // ---- 1. one-variable moments ----------------------------------------------
@@ -271,10 +273,10 @@ void mean_final(sqlite3_context* context) {
 struct EwmaState {
     ExponentialWeights weights;
     bool configured = false;
-    bool time_based = false;     // half_life is a period spec, t a time value
+    bool time_based = false;  // half_life is a period spec, t a time value
     std::int64_t half_life_ms = 0;
-    double half_life = 0.0;      // when numeric
-    std::string half_life_text;  // as written, when a spec: rows usually repeat it
+    double half_life = 0.0;       // when numeric
+    std::string half_life_text;   // as written, when a spec: rows usually repeat it
     std::string first_half_life;  // as messages show it
 };
 
@@ -357,10 +359,11 @@ ExponentialWeights::Position read_position(const EwmaState& ewma, sqlite3_value*
         auto t = read_time(kEwmaT, value);
         if (!t) return {};
         present = true;
-        std::int64_t ms = t->is_calendar_day
-                              ? date::sys_days(t->day.time_since_epoch()).time_since_epoch().count() *
-                                    std::int64_t(86400000)
-                              : t->instant.time_since_epoch().count();
+        std::int64_t ms =
+            t->is_calendar_day
+                ? date::sys_days(t->day.time_since_epoch()).time_since_epoch().count() *
+                      std::int64_t(86400000)
+                : t->instant.time_since_epoch().count();
         return ExponentialWeights::position(ms, ewma.half_life_ms);
     }
     if (sqlite3_value_type(value) == SQLITE_TEXT) {
@@ -388,8 +391,10 @@ void ewma_row(sqlite3_context* context, sqlite3_value** argv, bool adding) {
     bool present;
     auto position = read_position(ewma, argv[1], present);
     if (!x || !present) return;
-    if (adding) ewma.weights.add(*x, position);
-    else ewma.weights.remove(*x, position);
+    if (adding)
+        ewma.weights.add(*x, position);
+    else
+        ewma.weights.remove(*x, position);
 }
 
 void ewma_step(sqlite3_context* context, int, sqlite3_value** argv) {

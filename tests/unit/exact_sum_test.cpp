@@ -1,11 +1,11 @@
-#include <catch2/catch.hpp>
+#include "core/exact_sum.h"
 
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <limits>
 
 #include "core/error.h"
 #include "core/exact_number.h"
-#include "core/exact_sum.h"
 
 using namespace almanac;
 

@@ -1,9 +1,9 @@
-#include <catch2/catch.hpp>
+#include "core/exponential_weights.h"
 
+#include <catch2/catch.hpp>
 #include <cmath>
 
 #include "core/error.h"
-#include "core/exponential_weights.h"
 
 using namespace almanac;
 

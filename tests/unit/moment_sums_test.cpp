@@ -1,8 +1,7 @@
-#include <catch2/catch.hpp>
-
-#include <cmath>
-
 #include "core/moment_sums.h"
+
+#include <catch2/catch.hpp>
+#include <cmath>
 
 using namespace almanac;
 
