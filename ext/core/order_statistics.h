@@ -46,7 +46,7 @@ std::optional<double> quantile_of(std::vector<double> values, double p);
 // at O(w) however long the series. After each change at most one value
 // crosses between the heaps, because the rank moves by at most one.
 class SlidingQuantile {
-public:
+  public:
     explicit SlidingQuantile(double p);  // p already checked
 
     void insert(double value);
@@ -59,7 +59,7 @@ public:
     std::optional<double> value() const;  // nullopt when empty
     double p() const { return p_; }
 
-private:
+  private:
     using Id = std::uint32_t;
     struct Entry {  // a heap element: the value, beside it for fast comparisons
         double value;

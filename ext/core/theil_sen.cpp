@@ -13,8 +13,9 @@
 //    themselves (by their bit patterns, so at most 64 halvings reach
 //    neighbouring doubles), until the bracket holds O(n) pairs. This is the
 //    selection by counting inversions; bisection replaces the random choice
-//    of splitting slopes, which needs no sampling of pairs and has the same
-//    O(log) number of passes in practice (about 25 for 10,000 points).
+//    of splitting slopes, which needs no sampling of pairs and is bounded by
+//    64 halvings (in practice 15 to 35 counting passes for 10,000 points,
+//    all 64 when most slopes are equal).
 // 3. The slopes as doubles. Counting uses each pair's exact slope r, but the
 //    answer must be the median of the *computed* slopes f = fl(fl(dy)/fl(dx)),
 //    which differ from r by at most 3 units in the last place (plus an
@@ -209,7 +210,7 @@ void center(std::vector<Point>& points, double Point::*coordinate) {
 }
 
 class SlopeSelection {
-public:
+  public:
     explicit SlopeSelection(std::vector<Point> points) : points_(std::move(points)) {
         center(points_, &Point::x);
         center(points_, &Point::y);
@@ -277,7 +278,7 @@ public:
                           });
     }
 
-private:
+  private:
     void load(double t) {
         items_.resize(points_.size());
         for (std::size_t i = 0; i < points_.size(); ++i)
@@ -305,7 +306,7 @@ private:
 // The computed slopes of 0-based ranks k_lo and k_hi (k_hi is k_lo or
 // k_lo + 1) in sorted order.
 class MedianSearch {
-public:
+  public:
     explicit MedianSearch(SlopeSelection& slopes) : slopes_(slopes) {
         const Count n = slopes.points().size();
         small_bracket_ = std::max<Count>(2 * n, 4096);
@@ -340,7 +341,7 @@ public:
         }
     }
 
-private:
+  private:
     bool from_band(Count k_lo, Count k_hi, double lo, double hi, bool narrowest,
                    std::pair<double, double>& found) {
         // Exact slopes below band_lo give computed slopes below every
@@ -358,7 +359,8 @@ private:
             auto at = band.begin() + static_cast<std::ptrdiff_t>(rank_lo);
             std::nth_element(band.begin(), at, band.end());
             const double first = *at;
-            const double second = rank_hi == rank_lo ? first : *std::min_element(at + 1, band.end());
+            const double second =
+                rank_hi == rank_lo ? first : *std::min_element(at + 1, band.end());
             found = {first, second};
             return true;
         }
@@ -419,8 +421,7 @@ constexpr Count kListingLimit = 2048;  // pairs; a constant, so memory stays O(1
 
 std::optional<double> theil_sen_slope(std::vector<Point> input) {
     for (const Point& p : input)
-        if (!std::isfinite(p.x) || !std::isfinite(p.y))
-            throw Error("expected finite coordinates");
+        if (!std::isfinite(p.x) || !std::isfinite(p.y)) throw Error("expected finite coordinates");
     SlopeSelection slopes(std::move(input));
     const Count pairs = slopes.pairs();
     if (pairs == 0) return std::nullopt;

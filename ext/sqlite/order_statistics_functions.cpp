@@ -201,8 +201,8 @@ void theil_sen_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
 void theil_sen_result(sqlite3_context* context, const TheilSenState* state) {
     if (!state) return sqlite3_result_null(context);
     try {
-        result_optional(context,
-                        theil_sen_slope(std::vector<Point>(state->rows.begin(), state->rows.end())));
+        result_optional(
+            context, theil_sen_slope(std::vector<Point>(state->rows.begin(), state->rows.end())));
     } catch (const Error& error) {
         raise_function_error("theil_sen_slope", error.what());
     }
@@ -223,9 +223,9 @@ void theil_sen_final(sqlite3_context* context) {
 
 int register_order_statistics_functions(sqlite3* db) {
     constexpr int kPure = SQLITE_UTF8 | SQLITE_DETERMINISTIC | SQLITE_INNOCUOUS;
-    int rc = sqlite3_create_window_function(db, "median", 1, kPure, nullptr, median_step,
-                                            quantile_final, quantile_value, median_inverse,
-                                            nullptr);
+    int rc =
+        sqlite3_create_window_function(db, "median", 1, kPure, nullptr, median_step, quantile_final,
+                                       quantile_value, median_inverse, nullptr);
     if (rc == SQLITE_OK)
         rc = sqlite3_create_window_function(db, "percentile_cont", 2, kPure, nullptr,
                                             percentile_step, quantile_final, quantile_value,

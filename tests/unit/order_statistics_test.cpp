@@ -1,11 +1,11 @@
-#include <catch2/catch.hpp>
+#include "core/order_statistics.h"
 
 #include <algorithm>
+#include <catch2/catch.hpp>
 #include <random>
 #include <vector>
 
 #include "core/error.h"
-#include "core/order_statistics.h"
 
 using namespace almanac;
 

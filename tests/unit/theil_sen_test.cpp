@@ -1,13 +1,13 @@
-#include <catch2/catch.hpp>
+#include "core/theil_sen.h"
 
 #include <algorithm>
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <random>
 #include <vector>
 
 #include "core/error.h"
 #include "core/exact_sign.h"
-#include "core/theil_sen.h"
 
 using namespace almanac;
 
