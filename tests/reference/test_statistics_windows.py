@@ -380,4 +380,12 @@ def test_moving_mean_over_adversarial_doubles_is_fsum_bit_for_bit():
             expected = math.fsum(frame) / len(frame)  # oracle: math.fsum
             assert ours == expected, (width, i, frame, ours, expected)
             compared += 1
+    # A frame with EXCLUDE, which SQLite recomputes without the inverse.
+    got = [r[0] for r in db.execute(
+        "SELECT moving_mean(v) OVER (ORDER BY i ROWS BETWEEN 3 PRECEDING AND 3 FOLLOWING "
+        "EXCLUDE CURRENT ROW) FROM a")]
+    for i, ours in enumerate(got):
+        frame = [values[j] for j in range(max(0, i - 3), min(len(values), i + 4)) if j != i]
+        assert ours == math.fsum(frame) / len(frame), (i, frame)  # oracle: math.fsum
+        compared += 1
     print(f"compared {compared} moving means of adversarial doubles with math.fsum, bit for bit")
