@@ -99,14 +99,17 @@ TEST_CASE("shifted terms are exact powers of two apart") {
     CHECK(sum.to_double() == 1.0);
 }
 
-TEST_CASE("many carries are resolved without overflow") {
-    // 3 * 2^30 additions of (2^53 - 1) * 2^-21 would overflow an unresolved limb.
+TEST_CASE("the limbs absorb millions of carries between reads") {
+    // Products always go to the limbs. 3 * 2^20 terms of (2^53 - 1) * 2^-21
+    // leave every digit far beyond 32 bits until the sum is read.
     ExactSum sum;
     double v = std::ldexp(9007199254740991.0, -21);
     const long count = 3L << 20;
-    for (long i = 0; i < count; ++i) sum.add(v);
+    for (long i = 0; i < count; ++i) sum.add_product(v, 1.0);
     // count * v is exactly representable: 3 * 2^20 * (2^53-1) * 2^-21 = 1.5 * (2^53 - 1)
     CHECK(sum.to_double() == 1.5 * 9007199254740991.0);
+    for (long i = 0; i < count; ++i) sum.subtract_product(v, -1.0);
+    CHECK(sum.to_double() == 3.0 * 9007199254740991.0);
 }
 
 TEST_CASE("non-finite terms are refused") {
