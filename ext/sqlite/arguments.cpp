@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 
 #include "../core/error.h"
 
@@ -14,8 +15,14 @@ std::string describe_value(sqlite3_value* value) {
         case SQLITE_INTEGER:
             return std::to_string(sqlite3_value_int64(value));
         case SQLITE_FLOAT: {
+            // The shortest form that reads back as the same double, as a
+            // user would have typed it: 0.9, not 0.90000000000000002.
+            double number = sqlite3_value_double(value);
             char buffer[40];
-            std::snprintf(buffer, sizeof buffer, "%.17g", sqlite3_value_double(value));
+            for (int digits = 15; digits <= 17; ++digits) {
+                std::snprintf(buffer, sizeof buffer, "%.*g", digits, number);
+                if (std::strtod(buffer, nullptr) == number) break;
+            }
             return buffer;
         }
         case SQLITE_BLOB:
