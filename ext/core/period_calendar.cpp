@@ -13,6 +13,7 @@
 #include <cstdio>
 #include <vector>
 
+#include "civil_days.h"
 #include "error.h"
 
 namespace almanac {
@@ -27,6 +28,12 @@ std::int64_t floor_div(std::int64_t a, std::int64_t b) {
     std::int64_t q = a / b;
     if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
     return q;
+}
+
+template <std::int64_t divisor>
+std::int64_t floor_div_by(std::int64_t a) {
+    std::int64_t q = a / divisor;
+    return (a % divisor != 0 && a < 0) ? q - 1 : q;
 }
 
 std::int64_t month_index(date::year_month_day ymd) {
@@ -99,22 +106,30 @@ public:
         if (spec_.unit == PeriodUnit::HalfMonth) {
             auto ym = month_at(anchor_month_ + floor_div(k, 2));
             unsigned day = (k - 2 * floor_div(k, 2)) == 0 ? 1 : 16;
-            return LocalTime{date::local_days{ym / day}.time_since_epoch()};
+            return start_of(ym, day);
         }
         auto ym = month_at(anchor_month_ + k * length_months_);
-        unsigned day = std::min(anchor_day_, last_day(ym));
-        return LocalTime{date::local_days{ym / day}.time_since_epoch()} + anchor_time_;
+        unsigned day = anchor_day_ <= 28 ? anchor_day_ : std::min(anchor_day_, last_day(ym));
+        return start_of(ym, day) + anchor_time_;
     }
 
     std::int64_t index_of(LocalTime t) const {
         if (length_days_ > 0) {
-            return floor_div((t - anchor_).count(), length_days_ * kMillisPerDay);
+            // Dividing by a constant compiles to a multiplication; a 64-bit
+            // division by a run-time divisor costs tens of cycles per row, so
+            // the common lengths get their own constants.
+            std::int64_t since = (t - anchor_).count();
+            if (length_days_ == 7) return floor_div_by<7 * kMillisPerDay>(since);
+            if (length_days_ == 1) return floor_div_by<kMillisPerDay>(since);
+            return floor_div(since, length_days_ * kMillisPerDay);
         }
-        date::year_month_day ymd{date::floor<days>(t)};
+        CivilDate civil = civil_from_day_number(
+            static_cast<std::int32_t>(date::floor<days>(t).time_since_epoch().count()));
+        std::int64_t month = std::int64_t{civil.year} * 12 + (civil.month - 1);
         if (spec_.unit == PeriodUnit::HalfMonth) {
-            return 2 * (month_index(ymd) - anchor_month_) + (unsigned(ymd.day()) >= 16 ? 1 : 0);
+            return 2 * (month - anchor_month_) + (civil.day >= 16 ? 1 : 0);
         }
-        std::int64_t k = floor_div(month_index(ymd) - anchor_month_, length_months_);
+        std::int64_t k = floor_div(month - anchor_month_, length_months_);
         if (t < boundary(k)) --k;
         return k;
     }
@@ -126,6 +141,11 @@ public:
     }
 
 private:
+    static LocalTime start_of(date::year_month ym, unsigned day) {
+        std::int32_t number = day_number_from_civil(int(ym.year()), unsigned(ym.month()), day);
+        return LocalTime{Millis{std::int64_t{number} * kMillisPerDay}};
+    }
+
     PeriodSpec spec_;
     std::int64_t length_days_ = 0;
     std::int64_t length_months_ = 0;
@@ -321,13 +341,11 @@ Period PeriodCalendar::period_of(Instant t) const {
 Instant PeriodCalendar::floor(Instant t) const {
     if (sub_day_) return period_of(t).start;
     LocalTime local = clock_.to_local(t);
-    std::int64_t k = grid_->index_of(local);
-    // Only a reading within a day of the next boundary can be in a repeated
-    // hour that already passed it (see period_of).
-    if (!clock_.is_utc() && grid_->boundary(k + 1) - local < std::chrono::hours{24}) {
-        return period_of(t).start;
-    }
-    return clock_.first_instant_at(grid_->boundary(k));
+    Instant start = clock_.first_instant_at(grid_->boundary(grid_->index_of(local)));
+    // period_of's correction for a repeated hour is needed only when the
+    // offset changed between the start and t.
+    if (!clock_.is_utc() && clock_.regime_at(t).begin > start) return period_of(t).start;
+    return start;
 }
 
 Instant PeriodCalendar::start_of_day(date::local_days day) const {

@@ -6,6 +6,7 @@
 #include <cstdlib>
 #include <initializer_list>
 
+#include "civil_days.h"
 #include "error.h"
 
 namespace almanac {
@@ -143,7 +144,7 @@ TimeValue parse_time_text(std::string_view raw) {
         fail("no such date: " + std::to_string(y) + "-" + two_digits(mo) + " has " +
              std::to_string(unsigned(last.day())) + " days");
     }
-    date::local_days day{ymd};
+    date::local_days day{date::days{day_number_from_civil(y, unsigned(mo), unsigned(d))}};
     if (pos == text.size()) {
         value.is_calendar_day = true;
         value.day = day;
@@ -304,13 +305,13 @@ char* put_digits(char* out, unsigned v, int n) {
 }  // namespace
 
 std::string format_date(date::local_days day) {
-    date::year_month_day ymd{day};
+    CivilDate civil = civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
     char buffer[10];
-    char* out = put_digits(buffer, unsigned(int(ymd.year())), 4);
+    char* out = put_digits(buffer, static_cast<unsigned>(civil.year), 4);
     *out++ = '-';
-    out = put_digits(out, unsigned(ymd.month()), 2);
+    out = put_digits(out, civil.month, 2);
     *out++ = '-';
-    put_digits(out, unsigned(ymd.day()), 2);
+    put_digits(out, civil.day, 2);
     return std::string(buffer, sizeof buffer);
 }
 

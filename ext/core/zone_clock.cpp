@@ -2,6 +2,7 @@
 
 #include <date/tz.h>
 
+#include <algorithm>
 #include <limits>
 
 #include "error.h"
@@ -44,8 +45,15 @@ ZoneClock::Regime ZoneClock::regime_at(Instant t) const {
                       std::chrono::seconds{0}};
     }
     if (has_last_ && last_.begin <= t && t < last_.end) return last_;
-    auto info = zone_->get_info(t);
-    last_ = Regime{Instant{info.begin}, Instant{info.end}, info.offset};
+    auto later = std::upper_bound(known_.begin(), known_.end(), t,
+                                  [](Instant value, const Regime& r) { return value < r.end; });
+    if (later != known_.end() && later->begin <= t) {
+        last_ = *later;
+    } else {
+        auto info = zone_->get_info(t);
+        last_ = Regime{Instant{info.begin}, Instant{info.end}, info.offset};
+        known_.insert(later, last_);
+    }
     has_last_ = true;
     return last_;
 }

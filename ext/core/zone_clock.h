@@ -6,6 +6,7 @@
 #include <chrono>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "time_value.h"
 
@@ -46,6 +47,10 @@ private:
     // A clock belongs to one statement, which runs on one thread at a time.
     mutable Regime last_{};
     mutable bool has_last_ = false;
+    // Every regime looked up so far, in time order, so rows spread over many
+    // years are answered by a short binary search instead of the tz
+    // database's own look-up (which also builds the abbreviation string).
+    mutable std::vector<Regime> known_;
 };
 
 }  // namespace almanac

@@ -8,8 +8,14 @@
 extern "C" {
 #endif
 
+#if defined(__GNUC__)
+#define ALMANAC_EXPORT __attribute__((visibility("default")))
+#else
+#define ALMANAC_EXPORT
+#endif
+
 // Returns SQLITE_OK, or the SQLite error code of the first registration that failed.
-int almanac_register(sqlite3* db);
+ALMANAC_EXPORT int almanac_register(sqlite3* db);
 
 #ifdef __cplusplus
 }

@@ -6,11 +6,7 @@ SQLITE_EXTENSION_INIT1
 
 #include "almanac.h"
 
-extern "C"
-#ifdef _WIN32
-__declspec(dllexport)
-#endif
-int sqlite3_almanac_init(sqlite3* db, char** error_message, const sqlite3_api_routines* api) {
+extern "C" ALMANAC_EXPORT int sqlite3_almanac_init(sqlite3* db, char** error_message, const sqlite3_api_routines* api) {
     SQLITE_EXTENSION_INIT2(api);
     int rc = almanac_register(db);
     if (rc != SQLITE_OK && error_message) {
