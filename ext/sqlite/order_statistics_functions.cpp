@@ -31,37 +31,12 @@
 #include "../core/error.h"
 #include "../core/order_statistics.h"
 #include "../core/theil_sen.h"
+#include "aggregate_state.h"
 #include "arguments.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
 namespace {
-
-// Aggregate state is a C++ object owned through a pointer in SQLite's
-// aggregate context; xFinal, which SQLite also calls when a statement stops
-// early, deletes it.
-template <typename State>
-State& aggregate_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, sizeof(State*)));
-    if (!slot) throw std::bad_alloc();
-    if (!*slot) *slot = new State();
-    return **slot;
-}
-
-template <typename State>
-State* existing_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, 0));
-    return slot ? *slot : nullptr;
-}
-
-template <typename State>
-std::unique_ptr<State> take_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, 0));
-    if (!slot || !*slot) return nullptr;
-    std::unique_ptr<State> state(*slot);
-    *slot = nullptr;
-    return state;
-}
 
 void result_optional(sqlite3_context* context, const std::optional<double>& value) {
     if (value) {

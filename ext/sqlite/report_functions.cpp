@@ -30,6 +30,7 @@
 #include "../core/line_chart.h"
 #include "../core/sparkline.h"
 #include "../core/x_value.h"
+#include "aggregate_state.h"
 #include "arguments.h"
 #include "registration.h"
 
@@ -37,25 +38,6 @@ namespace almanac::sqlite {
 
 namespace {
 
-// Aggregate state is a C++ object owned through a pointer in SQLite's
-// aggregate context; xFinal (which SQLite also calls after an error or a
-// reset) deletes it.
-template <typename State>
-State& aggregate_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, sizeof(State*)));
-    if (!slot) throw std::bad_alloc();
-    if (!*slot) *slot = new State();
-    return **slot;
-}
-
-template <typename State>
-std::unique_ptr<State> take_aggregate_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, 0));
-    if (!slot || !*slot) return nullptr;
-    std::unique_ptr<State> state(*slot);
-    *slot = nullptr;
-    return state;
-}
 
 struct XReading {
     XKind kind;
@@ -118,7 +100,7 @@ void sparkline_step(sqlite3_context* context, int, sqlite3_value** argv) {
 
 void sparkline_final(sqlite3_context* context) {
     guarded(context, [&] {
-        auto state = take_aggregate_state<SparklineState>(context);
+        auto state = take_state<SparklineState>(context);
         if (!state || state->line.empty()) {
             sqlite3_result_null(context);
             return;
@@ -212,7 +194,7 @@ void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
 
 void chart_final(sqlite3_context* context) {
     guarded(context, [&] {
-        auto state = take_aggregate_state<ChartState>(context);
+        auto state = take_state<ChartState>(context);
         if (!state || state->chart.point_count() == 0) {
             sqlite3_result_null(context);
             return;

@@ -41,37 +41,13 @@
 #include "../core/exponential_weights.h"
 #include "../core/moment_sums.h"
 #include "../core/period_spec.h"
+#include "aggregate_state.h"
 #include "arguments.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
 namespace {
 
-// Aggregate state lives on the heap; SQLite's aggregate context holds the
-// pointer, and xFinal (which SQLite also calls when a statement is abandoned)
-// deletes it.
-template <typename State>
-State* existing_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, 0));
-    return slot ? *slot : nullptr;
-}
-
-template <typename State>
-State& state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, sizeof(State*)));
-    if (!slot) throw std::bad_alloc();
-    if (!*slot) *slot = new State();
-    return **slot;
-}
-
-template <typename State>
-void release_state(sqlite3_context* context) {
-    auto** slot = static_cast<State**>(sqlite3_aggregate_context(context, 0));
-    if (slot) {
-        delete *slot;
-        *slot = nullptr;
-    }
-}
 
 void set_result(sqlite3_context* context, std::optional<double> value) {
     if (value)
@@ -101,14 +77,14 @@ const UnivariateFunction& univariate(sqlite3_context* context) {
 void univariate_step(sqlite3_context* context, int, sqlite3_value** argv) {
     guarded(context, [&] {
         auto x = read_number({univariate(context).name, 1, "x"}, argv[0]);
-        if (x) state<UnivariateMoments>(context).add(*x);
+        if (x) aggregate_state<UnivariateMoments>(context).add(*x);
     });
 }
 
 void univariate_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
     guarded(context, [&] {
         auto x = read_number({univariate(context).name, 1, "x"}, argv[0]);
-        if (x) state<UnivariateMoments>(context).remove(*x);
+        if (x) aggregate_state<UnivariateMoments>(context).remove(*x);
     });
 }
 
@@ -121,7 +97,7 @@ void univariate_value(sqlite3_context* context) {
 
 void univariate_final(sqlite3_context* context) {
     univariate_value(context);
-    release_state<UnivariateMoments>(context);
+    take_state<UnivariateMoments>(context);
 }
 
 // ---- 2, 3. two-variable moments -------------------------------------------
@@ -167,14 +143,14 @@ bool read_pair(sqlite3_context* context, sqlite3_value** argv, double& y, double
 void bivariate_step(sqlite3_context* context, int, sqlite3_value** argv) {
     guarded(context, [&] {
         double y, x;
-        if (read_pair(context, argv, y, x)) state<BivariateMoments>(context).add(y, x);
+        if (read_pair(context, argv, y, x)) aggregate_state<BivariateMoments>(context).add(y, x);
     });
 }
 
 void bivariate_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
     guarded(context, [&] {
         double y, x;
-        if (read_pair(context, argv, y, x)) state<BivariateMoments>(context).remove(y, x);
+        if (read_pair(context, argv, y, x)) aggregate_state<BivariateMoments>(context).remove(y, x);
     });
 }
 
@@ -192,7 +168,7 @@ void bivariate_value(sqlite3_context* context) {
 
 void bivariate_final(sqlite3_context* context) {
     bivariate_value(context);
-    release_state<BivariateMoments>(context);
+    take_state<BivariateMoments>(context);
 }
 
 // ---- 4. moving_mean ---------------------------------------------------------
@@ -230,7 +206,7 @@ void mean_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
         double x;
         std::int64_t min_values;
         if (!read_mean_row(argc, argv, x, min_values)) return;
-        MeanState& mean = state<MeanState>(context);
+        MeanState& mean = aggregate_state<MeanState>(context);
         if (mean.min_values_seen && min_values != mean.min_values)
             raise_argument_error({"moving_mean", 2, "min_values"}, argv[1],
                                  "expected the same min_values in every row (the first was " +
@@ -247,7 +223,7 @@ void mean_inverse(sqlite3_context* context, int argc, sqlite3_value** argv) {
         double x;
         std::int64_t min_values;
         if (!read_mean_row(argc, argv, x, min_values)) return;
-        MeanState& mean = state<MeanState>(context);
+        MeanState& mean = aggregate_state<MeanState>(context);
         mean.sum.subtract(x);
         --mean.count;
     });
@@ -265,7 +241,7 @@ void mean_value(sqlite3_context* context) {
 
 void mean_final(sqlite3_context* context) {
     mean_value(context);
-    release_state<MeanState>(context);
+    take_state<MeanState>(context);
 }
 
 // ---- 5. ewma -------------------------------------------------------------
@@ -386,7 +362,7 @@ ExponentialWeights::Position read_position(const EwmaState& ewma, sqlite3_value*
 void ewma_row(sqlite3_context* context, sqlite3_value** argv, bool adding) {
     auto x = read_number(kEwmaX, argv[0]);
     if (sqlite3_value_type(argv[2]) == SQLITE_NULL) return;
-    EwmaState& ewma = state<EwmaState>(context);
+    EwmaState& ewma = aggregate_state<EwmaState>(context);
     if (adding) configure(ewma, argv[2]);
     bool present;
     auto position = read_position(ewma, argv[1], present);
@@ -414,7 +390,7 @@ void ewma_value(sqlite3_context* context) {
 
 void ewma_final(sqlite3_context* context) {
     ewma_value(context);
-    release_state<EwmaState>(context);
+    take_state<EwmaState>(context);
 }
 
 }  // namespace
