@@ -410,13 +410,18 @@ date::local_days PeriodCalendar::shift_day(date::local_days day, std::int64_t n)
 
 bool PeriodCalendar::writes_dates() const { return !sub_day_ && !grid_->has_time_of_day(); }
 
-std::string PeriodCalendar::format_boundary(Instant t) const {
+char* PeriodCalendar::write_boundary(Instant t, char* out) const {
     LocalTime local = clock_.to_local(t);
     require_supported(local);
-    if (writes_dates()) return format_date(date::floor<days>(local));
+    if (writes_dates()) return write_date(out, date::floor<days>(local));
     std::string text = format_date_time(local, TextForm::Precision::Seconds, false);
     if (!clock_.is_utc()) text += format_offset(clock_.offset_at(t));
-    return text;
+    return std::copy(text.begin(), text.end(), out);
+}
+
+std::string PeriodCalendar::format_boundary(Instant t) const {
+    char buffer[kBoundaryTextSize];
+    return std::string(buffer, write_boundary(t, buffer));
 }
 
 std::string PeriodCalendar::label(const Period& period) const {

@@ -51,6 +51,9 @@ public:
     // Results as text: a bare local date for day and longer units, otherwise a
     // wall-clock date-time (with ±HH:MM when the clock is a zone).
     std::string format_boundary(Instant t) const;
+    // The same text written at out (room for kBoundaryTextSize bytes); returns its end.
+    static constexpr std::size_t kBoundaryTextSize = 40;
+    char* write_boundary(Instant t, char* out) const;
     // Whether format_boundary writes bare dates (calendar units whose
     // boundaries fall at midnight) or date-times.
     bool writes_dates() const;

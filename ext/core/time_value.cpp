@@ -39,8 +39,10 @@ bool read_digits(std::string_view text, std::size_t& pos, int n, int& out) {
     return true;
 }
 
-std::string_view trim(std::string_view text) {
-    if (text.empty() || (!is_space(text.front()) && !is_space(text.back()))) return text;
+inline std::string_view trim(std::string_view text) {
+    // Spaces are all at or below ' '; most texts start and end with neither.
+    auto above_space = [](char c) { return static_cast<unsigned char>(c) > ' '; };
+    if (text.empty() || (above_space(text.front()) && above_space(text.back()))) return text;
     while (!text.empty() && is_space(text.front())) text.remove_prefix(1);
     while (!text.empty() && is_space(text.back())) text.remove_suffix(1);
     return text;
@@ -304,15 +306,18 @@ char* put_digits(char* out, unsigned v, int n) {
 }
 }  // namespace
 
-std::string format_date(date::local_days day) {
+char* write_date(char* out, date::local_days day) {
     CivilDate civil = civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
-    char buffer[10];
-    char* out = put_digits(buffer, static_cast<unsigned>(civil.year), 4);
+    out = put_digits(out, static_cast<unsigned>(civil.year), 4);
     *out++ = '-';
     out = put_digits(out, civil.month, 2);
     *out++ = '-';
-    put_digits(out, civil.day, 2);
-    return std::string(buffer, sizeof buffer);
+    return put_digits(out, civil.day, 2);
+}
+
+std::string format_date(date::local_days day) {
+    char buffer[10];
+    return std::string(buffer, write_date(buffer, day));
 }
 
 std::string format_date_time(LocalTime t, TextForm::Precision precision, bool t_separator) {

@@ -74,6 +74,8 @@ std::int64_t to_unix_seconds_integer(Instant t);  // floor to the second
 
 // Text writers. A local reading with an offset gets it appended as ±HH:MM.
 std::string format_date(date::local_days day);
+// Writes YYYY-MM-DD (10 bytes) at out and returns the end; no allocation.
+char* write_date(char* out, date::local_days day);
 std::string format_date_time(LocalTime t, TextForm::Precision precision, bool t_separator);
 std::string format_offset(std::chrono::seconds offset);
 

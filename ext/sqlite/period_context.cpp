@@ -68,8 +68,9 @@ void result_boundary(sqlite3_context* context, const TimeValue& like, Instant t,
     if (!in_supported_range(t)) throw Error("the result falls outside years 0000 through 9999");
     switch (like.representation) {
         case Representation::Text: {
-            std::string text = calendar.format_boundary(t);
-            sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+            char text[PeriodCalendar::kBoundaryTextSize];
+            char* end = calendar.write_boundary(t, text);
+            sqlite3_result_text(context, text, static_cast<int>(end - text), SQLITE_TRANSIENT);
             return;
         }
         case Representation::UnixSeconds:
