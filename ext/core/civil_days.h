@@ -45,7 +45,8 @@ constexpr CivilDate civil_from_day_number(std::int32_t days) {
                      january_or_february ? month - 12 : month, day + 1};
 }
 
-constexpr std::int32_t day_number_from_civil(std::int32_t year, std::uint32_t month, std::uint32_t day) {
+constexpr std::int32_t day_number_from_civil(std::int32_t year, std::uint32_t month,
+                                             std::uint32_t day) {
     using namespace civil_detail;
     const std::uint32_t january_or_february = month <= 2;
     const std::uint32_t y = (static_cast<std::uint32_t>(year) + kYearShift) - january_or_february;

@@ -9,7 +9,7 @@
 namespace almanac {
 
 class Error : public std::runtime_error {
-public:
+  public:
     explicit Error(const std::string& what_was_expected) : std::runtime_error(what_was_expected) {}
 };
 

@@ -41,7 +41,8 @@ std::int64_t month_index(date::year_month_day ymd) {
 }
 
 date::year_month month_at(std::int64_t index) {
-    return date::year{int(floor_div(index, 12))} / date::month{unsigned(index - 12 * floor_div(index, 12)) + 1};
+    return date::year{int(floor_div(index, 12))} /
+           date::month{unsigned(index - 12 * floor_div(index, 12)) + 1};
 }
 
 unsigned last_day(date::year_month ym) { return unsigned((ym / date::last).day()); }
@@ -57,7 +58,7 @@ void require_supported(LocalTime t) {
 // ---------------------------------------------------------------------------
 // Calendar periods on the wall clock, numbered by k relative to an anchor.
 class CalendarGrid {
-public:
+  public:
     explicit CalendarGrid(const PeriodSpec& spec) : spec_(spec) {
         switch (spec.unit) {
             case PeriodUnit::Day:
@@ -140,7 +141,7 @@ public:
         return *spec_.from != LocalTime{date::floor<days>(*spec_.from).time_since_epoch()};
     }
 
-private:
+  private:
     static LocalTime start_of(date::year_month ym, unsigned day) {
         std::int32_t number = day_number_from_civil(int(ym.year()), unsigned(ym.month()), day);
         return LocalTime{Millis{std::int64_t{number} * kMillisPerDay}};
@@ -163,12 +164,12 @@ private:
 // serial of the period starting at grid point q is q + K; the K are chained
 // across regimes so that consecutive boundaries differ by exactly one.
 class SubDayGrid {
-public:
+  public:
     struct RegimeSerials {
         ZoneClock::Regime regime;
-        bool has_boundary;   // a grid point falls inside the regime
+        bool has_boundary;             // a grid point falls inside the regime
         std::int64_t first_q, last_q;  // grid points inside, when has_boundary
-        std::int64_t k;      // serial = q + k
+        std::int64_t k;                // serial = q + k
     };
 
     SubDayGrid(const PeriodSpec& spec, const ZoneClock& clock)
@@ -237,7 +238,8 @@ public:
         std::int64_t q;
         while (true) {
             const auto& r = regimes_[s];
-            q = floor_q(s == i ? t_ms : r.regime.end.time_since_epoch().count() - 1, offset_millis(r));
+            q = floor_q(s == i ? t_ms : r.regime.end.time_since_epoch().count() - 1,
+                        offset_millis(r));
             if (r.has_boundary && q >= r.first_q) break;
             if (s == 0) throw Error("the time is before the first period boundary of the zone");
             --s;
@@ -271,7 +273,8 @@ public:
                 hi = mid;
             }
         }
-        if (found == regimes_.size()) throw Error("the result falls outside years 0000 through 9999");
+        if (found == regimes_.size())
+            throw Error("the result falls outside years 0000 through 9999");
         const auto& r = regimes_[found];
         std::int64_t q = serial - r.k;
         if (q > r.last_q) throw Error("the result falls outside years 0000 through 9999");
@@ -280,7 +283,7 @@ public:
         return period;
     }
 
-private:
+  private:
     static std::int64_t offset_millis(const RegimeSerials& r) {
         return duration_cast<Millis>(r.regime.offset).count();
     }
@@ -301,8 +304,9 @@ private:
         return latest_supported_instant();
     }
     std::size_t regime_index(Instant t) const {
-        auto it = std::upper_bound(regimes_.begin(), regimes_.end(), t,
-                                   [](Instant value, const RegimeSerials& r) { return value < r.regime.end; });
+        auto it = std::upper_bound(
+            regimes_.begin(), regimes_.end(), t,
+            [](Instant value, const RegimeSerials& r) { return value < r.regime.end; });
         if (it == regimes_.end()) return regimes_.size() - 1;
         return static_cast<std::size_t>(it - regimes_.begin());
     }
@@ -373,7 +377,8 @@ LocalTime PeriodCalendar::shift_reading(LocalTime local, std::int64_t n) const {
         date::year_month_day ymd{day};
         auto ym = month_at(month_index(ymd) + n * spec_.months());
         unsigned d = std::min(unsigned(ymd.day()), last_day(ym));
-        target = LocalTime{date::local_days{ym / d}.time_since_epoch()} + (local - LocalTime{day.time_since_epoch()});
+        target = LocalTime{date::local_days{ym / d}.time_since_epoch()} +
+                 (local - LocalTime{day.time_since_epoch()});
         // With a `from` day late in the month the clamped date can fall just
         // outside the target period; keep it inside.
         if (target < target_start) target = target_start;
@@ -445,7 +450,8 @@ std::string PeriodCalendar::label(const Period& period) const {
                 // ISO 8601 week date: the week belongs to the year of its Thursday.
                 auto thursday = day + days{3};
                 date::year iso_year = date::year_month_day{thursday}.year();
-                date::local_days first_thursday{date::year_month_weekday{iso_year / date::January / date::Thursday[1]}};
+                date::local_days first_thursday{
+                    date::year_month_weekday{iso_year / date::January / date::Thursday[1]}};
                 int week = int((thursday - first_thursday).count() / 7) + 1;
                 std::snprintf(buffer, sizeof buffer, "%04d-W%02d", int(iso_year), week);
                 return buffer;
@@ -456,7 +462,8 @@ std::string PeriodCalendar::label(const Period& period) const {
         case PeriodUnit::HalfMonth: {
             auto ym = ymd.year() / ymd.month();
             if (unsigned(ymd.day()) < 16) {
-                std::snprintf(buffer, sizeof buffer, "%04d-%02u (1-15)", int(ymd.year()), unsigned(ymd.month()));
+                std::snprintf(buffer, sizeof buffer, "%04d-%02u (1-15)", int(ymd.year()),
+                              unsigned(ymd.month()));
             } else {
                 std::snprintf(buffer, sizeof buffer, "%04d-%02u (16-%02u)", int(ymd.year()),
                               unsigned(ymd.month()), last_day(ym));
@@ -464,7 +471,8 @@ std::string PeriodCalendar::label(const Period& period) const {
             return buffer;
         }
         case PeriodUnit::Month:
-            std::snprintf(buffer, sizeof buffer, "%04d-%02u", int(ymd.year()), unsigned(ymd.month()));
+            std::snprintf(buffer, sizeof buffer, "%04d-%02u", int(ymd.year()),
+                          unsigned(ymd.month()));
             return buffer;
         case PeriodUnit::Quarter:
         case PeriodUnit::Year: {
@@ -473,7 +481,8 @@ std::string PeriodCalendar::label(const Period& period) const {
                 if (spec_.unit == PeriodUnit::Year) {
                     std::snprintf(buffer, sizeof buffer, "%04d", int(ymd.year()));
                 } else {
-                    std::snprintf(buffer, sizeof buffer, "%04d-Q%u", int(ymd.year()), (month - 1) / 3 + 1);
+                    std::snprintf(buffer, sizeof buffer, "%04d-Q%u", int(ymd.year()),
+                                  (month - 1) / 3 + 1);
                 }
                 return buffer;
             }
@@ -483,7 +492,8 @@ std::string PeriodCalendar::label(const Period& period) const {
             if (spec_.unit == PeriodUnit::Year) {
                 std::snprintf(buffer, sizeof buffer, "FY%04d", fiscal_year);
             } else {
-                std::snprintf(buffer, sizeof buffer, "FY%04d-Q%u", fiscal_year, ((month + 12 - start) % 12) / 3 + 1);
+                std::snprintf(buffer, sizeof buffer, "FY%04d-Q%u", fiscal_year,
+                              ((month + 12 - start) % 12) / 3 + 1);
             }
             return buffer;
         }

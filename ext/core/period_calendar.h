@@ -17,13 +17,13 @@ class CalendarGrid;
 class SubDayGrid;
 
 struct Period {
-    Instant start;          // inclusive
-    Instant end;            // exclusive: the start of the next period
-    std::int64_t serial;    // 0 holds 1970-01-01 00:00 on the clock; neighbours differ by 1
+    Instant start;        // inclusive
+    Instant end;          // exclusive: the start of the next period
+    std::int64_t serial;  // 0 holds 1970-01-01 00:00 on the clock; neighbours differ by 1
 };
 
 class PeriodCalendar {
-public:
+  public:
     // Throws Error when the spec's `from` contradicts its `starting`.
     PeriodCalendar(PeriodSpec spec, ZoneClock clock);
 
@@ -58,7 +58,7 @@ public:
     // boundaries fall at midnight) or date-times.
     bool writes_dates() const;
 
-private:
+  private:
     LocalTime shift_reading(LocalTime local, std::int64_t n) const;
 
     PeriodSpec spec_;

@@ -10,16 +10,17 @@ namespace almanac {
 namespace {
 
 constexpr const char* kGrammar =
-    "expected [count] unit [starting weekday|month] [from YYYY-MM-DD[ HH:MM[:SS]]] with unit one of "
+    "expected [count] unit [starting weekday|month] [from YYYY-MM-DD[ HH:MM[:SS]]] with unit one "
+    "of "
     "second, minute, hour, day, week, half-month, month, quarter, year, or an ISO 8601 duration "
     "such as P1W or PT15M";
 constexpr std::int64_t kLargestCount = 1000000;
 
 constexpr std::array<const char*, 7> kWeekdays = {"sunday",   "monday", "tuesday", "wednesday",
                                                   "thursday", "friday", "saturday"};
-constexpr std::array<const char*, 12> kMonths = {"january", "february", "march",     "april",
-                                                 "may",     "june",     "july",      "august",
-                                                 "september", "october", "november", "december"};
+constexpr std::array<const char*, 12> kMonths = {"january",   "february", "march",    "april",
+                                                 "may",       "june",     "july",     "august",
+                                                 "september", "october",  "november", "december"};
 
 [[noreturn]] void fail(const std::string& reason) { throw Error(reason); }
 
@@ -55,7 +56,8 @@ std::optional<PeriodUnit> unit_named(const std::string& word) {
 
 // Full names, or their first three letters.
 template <std::size_t N>
-std::optional<unsigned> index_of_name(const std::array<const char*, N>& names, const std::string& word) {
+std::optional<unsigned> index_of_name(const std::array<const char*, N>& names,
+                                      const std::string& word) {
     for (unsigned i = 0; i < N; ++i) {
         std::string name = names[i];
         if (word == name || (word.size() == 3 && name.compare(0, 3, word) == 0)) return i;
@@ -65,15 +67,24 @@ std::optional<unsigned> index_of_name(const std::array<const char*, N>& names, c
 
 const char* unit_word(PeriodUnit unit) {
     switch (unit) {
-        case PeriodUnit::Second: return "second";
-        case PeriodUnit::Minute: return "minute";
-        case PeriodUnit::Hour: return "hour";
-        case PeriodUnit::Day: return "day";
-        case PeriodUnit::Week: return "week";
-        case PeriodUnit::HalfMonth: return "half-month";
-        case PeriodUnit::Month: return "month";
-        case PeriodUnit::Quarter: return "quarter";
-        case PeriodUnit::Year: return "year";
+        case PeriodUnit::Second:
+            return "second";
+        case PeriodUnit::Minute:
+            return "minute";
+        case PeriodUnit::Hour:
+            return "hour";
+        case PeriodUnit::Day:
+            return "day";
+        case PeriodUnit::Week:
+            return "week";
+        case PeriodUnit::HalfMonth:
+            return "half-month";
+        case PeriodUnit::Month:
+            return "month";
+        case PeriodUnit::Quarter:
+            return "quarter";
+        case PeriodUnit::Year:
+            return "year";
     }
     return "?";
 }
@@ -108,18 +119,34 @@ PeriodSpec parse_iso_duration(const std::string& text, std::string_view as_writt
     char designator = text[pos];
     if (time_part) {
         switch (designator) {
-            case 'h': spec.unit = PeriodUnit::Hour; break;
-            case 'm': spec.unit = PeriodUnit::Minute; break;
-            case 's': spec.unit = PeriodUnit::Second; break;
-            default: fail(expected);
+            case 'h':
+                spec.unit = PeriodUnit::Hour;
+                break;
+            case 'm':
+                spec.unit = PeriodUnit::Minute;
+                break;
+            case 's':
+                spec.unit = PeriodUnit::Second;
+                break;
+            default:
+                fail(expected);
         }
     } else {
         switch (designator) {
-            case 'y': spec.unit = PeriodUnit::Year; break;
-            case 'm': spec.unit = PeriodUnit::Month; break;
-            case 'w': spec.unit = PeriodUnit::Week; break;
-            case 'd': spec.unit = PeriodUnit::Day; break;
-            default: fail(expected);
+            case 'y':
+                spec.unit = PeriodUnit::Year;
+                break;
+            case 'm':
+                spec.unit = PeriodUnit::Month;
+                break;
+            case 'w':
+                spec.unit = PeriodUnit::Week;
+                break;
+            case 'd':
+                spec.unit = PeriodUnit::Day;
+                break;
+            default:
+                fail(expected);
         }
     }
     return spec;
@@ -157,10 +184,14 @@ bool PeriodSpec::is_fiscal() const {
 }
 std::int64_t PeriodSpec::months() const {
     switch (unit) {
-        case PeriodUnit::Month: return count;
-        case PeriodUnit::Quarter: return 3 * count;
-        case PeriodUnit::Year: return 12 * count;
-        default: return 0;
+        case PeriodUnit::Month:
+            return count;
+        case PeriodUnit::Quarter:
+            return 3 * count;
+        case PeriodUnit::Year:
+            return 12 * count;
+        default:
+            return 0;
     }
 }
 std::int64_t PeriodSpec::days() const {
@@ -170,10 +201,14 @@ std::int64_t PeriodSpec::days() const {
 }
 Millis PeriodSpec::sub_day_length() const {
     switch (unit) {
-        case PeriodUnit::Second: return Millis{1000 * count};
-        case PeriodUnit::Minute: return Millis{60000 * count};
-        case PeriodUnit::Hour: return Millis{3600000 * count};
-        default: return Millis{0};
+        case PeriodUnit::Second:
+            return Millis{1000 * count};
+        case PeriodUnit::Minute:
+            return Millis{60000 * count};
+        case PeriodUnit::Hour:
+            return Millis{3600000 * count};
+        default:
+            return Millis{0};
     }
 }
 Millis PeriodSpec::fixed_length() const {
@@ -184,8 +219,8 @@ Millis PeriodSpec::fixed_length() const {
 }
 
 std::string PeriodSpec::describe() const {
-    std::string text = (count == 1 ? "" : std::to_string(count) + " ") + unit_word(unit) +
-                       (count == 1 ? "" : "s");
+    std::string text =
+        (count == 1 ? "" : std::to_string(count) + " ") + unit_word(unit) + (count == 1 ? "" : "s");
     if (explicit_start) {
         if (unit == PeriodUnit::Week) {
             text += std::string(" starting ") + kWeekdays[week_start.c_encoding()];
@@ -196,10 +231,10 @@ std::string PeriodSpec::describe() const {
     if (from) {
         auto day = date::floor<date::days>(*from);
         bool midnight = *from == LocalTime{day.time_since_epoch()};
-        text += " from " + format_date_time(*from,
-                                            midnight ? TextForm::Precision::Date
-                                                     : TextForm::Precision::Seconds,
-                                            false);
+        text +=
+            " from " +
+            format_date_time(
+                *from, midnight ? TextForm::Precision::Date : TextForm::Precision::Seconds, false);
     }
     return text;
 }
@@ -283,18 +318,23 @@ PeriodSpec parse_period_spec(std::string_view raw) {
 
     if (pos < tokens.size() && tokens[pos] == "starting") {
         ++pos;
-        if (pos >= tokens.size()) fail("'starting' needs a weekday (for weeks) or a month (for quarters and years)");
+        if (pos >= tokens.size())
+            fail("'starting' needs a weekday (for weeks) or a month (for quarters and years)");
         const std::string& word = tokens[pos];
         if (spec.unit == PeriodUnit::Week) {
             auto weekday = index_of_name(kWeekdays, word);
-            if (!weekday) fail("'starting " + word + "': weeks start on a weekday, monday to sunday");
+            if (!weekday)
+                fail("'starting " + word + "': weeks start on a weekday, monday to sunday");
             spec.week_start = date::weekday{*weekday};
         } else if (spec.unit == PeriodUnit::Quarter || spec.unit == PeriodUnit::Year) {
             auto month = index_of_name(kMonths, word);
-            if (!month) fail("'starting " + word + "': quarters and years start in a month, january to december");
+            if (!month)
+                fail("'starting " + word +
+                     "': quarters and years start in a month, january to december");
             spec.year_start = date::month{*month + 1};
         } else {
-            fail(std::string("'starting' applies to week, quarter and year, not ") + unit_word(spec.unit));
+            fail(std::string("'starting' applies to week, quarter and year, not ") +
+                 unit_word(spec.unit));
         }
         spec.explicit_start = true;
         ++pos;
@@ -309,7 +349,8 @@ PeriodSpec parse_period_spec(std::string_view raw) {
             date::weekday weekday{day};
             if (spec.explicit_start && weekday != spec.week_start) {
                 fail("'from " + format_date(day) + "' is a " + kWeekdays[weekday.c_encoding()] +
-                     ", which contradicts 'starting " + kWeekdays[spec.week_start.c_encoding()] + "'");
+                     ", which contradicts 'starting " + kWeekdays[spec.week_start.c_encoding()] +
+                     "'");
             }
             spec.week_start = weekday;
         }
@@ -319,8 +360,9 @@ PeriodSpec parse_period_spec(std::string_view raw) {
             unsigned start_month = unsigned(spec.year_start);
             unsigned step = spec.unit == PeriodUnit::Quarter ? 3 : 12;
             if (spec.explicit_start && (from_month + 12 - start_month) % step != 0) {
-                fail("'from " + format_date(day) + "' contradicts 'starting " + kMonths[start_month - 1] +
-                     "': a period must start in " + kMonths[start_month - 1] +
+                fail("'from " + format_date(day) + "' contradicts 'starting " +
+                     kMonths[start_month - 1] + "': a period must start in " +
+                     kMonths[start_month - 1] +
                      (step == 3 ? " or a month a whole number of quarters away" : ""));
             }
         }

@@ -25,17 +25,17 @@ struct PeriodSpec {
     bool explicit_start = false;              // "starting ..." was written
     std::optional<LocalTime> from;            // a wall-clock moment at which one period starts
 
-    bool is_sub_day() const;         // second, minute, hour
-    bool is_month_based() const;     // month, quarter, year (not half-month)
-    bool is_fiscal() const;          // quarter or year starting other than January
-    std::int64_t months() const;     // length in months, for month-based units
-    std::int64_t days() const;       // length in days, for day and week
-    Millis sub_day_length() const;   // for sub-day units
+    bool is_sub_day() const;        // second, minute, hour
+    bool is_month_based() const;    // month, quarter, year (not half-month)
+    bool is_fiscal() const;         // quarter or year starting other than January
+    std::int64_t months() const;    // length in months, for month-based units
+    std::int64_t days() const;      // length in days, for day and week
+    Millis sub_day_length() const;  // for sub-day units
     // Elapsed length for units of fixed length (second through week, where a
     // day counts 24 hours); throws Error naming the spec for half-month, month,
     // quarter and year, whose length varies. ewma's half_life uses it.
     Millis fixed_length() const;
-    std::string describe() const;    // canonical words, e.g. "2 weeks starting sunday"
+    std::string describe() const;  // canonical words, e.g. "2 weeks starting sunday"
 };
 
 // Throws almanac::Error saying what was expected.

@@ -23,7 +23,9 @@ constexpr std::int64_t kUnixEpochJulianMillis = 210866760000000LL;
 constexpr double kLargestJulianDay = 5373484.5;
 
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
-bool is_space(char c) { return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\f' || c == '\v'; }
+bool is_space(char c) {
+    return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\f' || c == '\v';
+}
 
 // Reads exactly n digits at text[pos], advancing pos.
 bool read_digits(std::string_view text, std::size_t& pos, int n, int& out) {
@@ -80,9 +82,7 @@ Instant latest_supported_instant() { return Instant{Millis{kLatestMillis}}; }
 bool in_supported_range(Instant t) {
     return t >= earliest_supported_instant() && t < latest_supported_instant();
 }
-bool in_supported_range(LocalTime t) {
-    return in_supported_range(Instant{t.time_since_epoch()});
-}
+bool in_supported_range(LocalTime t) { return in_supported_range(Instant{t.time_since_epoch()}); }
 
 std::optional<double> numeric_text(std::string_view text) {
     text = trim(text);
@@ -132,7 +132,8 @@ TimeValue parse_time_text(std::string_view raw) {
             if (!is_digit(text[i])) return false;
         return true;
     };
-    if (text.size() < 10 || text[4] != '-' || text[7] != '-' || !digits_at({0, 1, 2, 3, 5, 6, 8, 9})) {
+    if (text.size() < 10 || text[4] != '-' || text[7] != '-' ||
+        !digits_at({0, 1, 2, 3, 5, 6, 8, 9})) {
         fail(kExpectedForms);
     }
     int y = int(digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3));
@@ -142,7 +143,8 @@ TimeValue parse_time_text(std::string_view raw) {
     if (mo < 1 || mo > 12) fail("month " + two_digits(mo) + " does not exist; " + kExpectedForms);
     date::year_month_day ymd{date::year{y}, date::month{unsigned(mo)}, date::day{unsigned(d)}};
     if (!ymd.ok()) {
-        auto last = date::year_month_day_last{date::year{y}, date::month_day_last{date::month{unsigned(mo)}}};
+        auto last = date::year_month_day_last{date::year{y},
+                                              date::month_day_last{date::month{unsigned(mo)}}};
         fail("no such date: " + std::to_string(y) + "-" + two_digits(mo) + " has " +
              std::to_string(unsigned(last.day())) + " days");
     }
@@ -164,7 +166,8 @@ TimeValue parse_time_text(std::string_view raw) {
         fail(kExpectedForms);
     }
     int h, mi, s = 0;
-    if (text.size() < pos + 5 || text[pos + 2] != ':' || !digits_at({pos, pos + 1, pos + 3, pos + 4})) {
+    if (text.size() < pos + 5 || text[pos + 2] != ':' ||
+        !digits_at({pos, pos + 1, pos + 3, pos + 4})) {
         fail(kExpectedForms);
     }
     h = int(digit(pos) * 10 + digit(pos + 1));
@@ -212,10 +215,13 @@ TimeValue parse_time_text(std::string_view raw) {
             // ±HH:MM:SS is what almanac writes for historic local mean times.
             if (pos < text.size() && text[pos] == ':') {
                 ++pos;
-                if (!read_digits(text, pos, 2, os)) fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
+                if (!read_digits(text, pos, 2, os))
+                    fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
             }
-            if (pos != text.size()) fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
-            if (oh > 14 || om > 59 || os > 59) fail("zone offset out of range; offsets run -14:00 to +14:00");
+            if (pos != text.size())
+                fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
+            if (oh > 14 || om > 59 || os > 59)
+                fail("zone offset out of range; offsets run -14:00 to +14:00");
             offset = std::chrono::seconds{(c == '-' ? -1 : 1) * (oh * 3600 + om * 60 + os)};
             value.form.suffix = TextForm::Suffix::Offset;
             value.form.offset = offset;
@@ -307,7 +313,8 @@ char* put_digits(char* out, unsigned v, int n) {
 }  // namespace
 
 char* write_date(char* out, date::local_days day) {
-    CivilDate civil = civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
+    CivilDate civil =
+        civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
     out = put_digits(out, static_cast<unsigned>(civil.year), 4);
     *out++ = '-';
     out = put_digits(out, civil.month, 2);

@@ -69,7 +69,8 @@ Instant ZoneClock::first_instant_at(LocalTime local) const {
         // Inside the last regime, more than a day from either end, a reading
         // occurs exactly once: no change of offset can reach it.
         Instant guess = Instant{local.time_since_epoch()} - last_.offset;
-        if (last_.begin + std::chrono::hours{24} <= guess && guess + std::chrono::hours{24} < last_.end)
+        if (last_.begin + std::chrono::hours{24} <= guess &&
+            guess + std::chrono::hours{24} < last_.end)
             return guess;
     }
     // choose::earliest: the first of a repeated reading; a skipped reading

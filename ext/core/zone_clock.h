@@ -17,7 +17,7 @@ class time_zone;
 namespace almanac {
 
 class ZoneClock {
-public:
+  public:
     // A stretch of time during which the zone's offset from UTC is constant.
     struct Regime {
         Instant begin;  // inclusive
@@ -39,7 +39,7 @@ public:
     // reading was skipped by a forward change, the instant of that change.
     Instant first_instant_at(LocalTime local) const;
 
-private:
+  private:
     explicit ZoneClock(const date::time_zone* zone) : zone_(zone) {}
     const date::time_zone* zone_ = nullptr;
     // Rows of one query are usually close in time, so the last regime looked

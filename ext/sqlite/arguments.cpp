@@ -25,8 +25,7 @@ std::string describe_value(sqlite3_value* value) {
             }
             return buffer;
         }
-        case SQLITE_BLOB:
-        {
+        case SQLITE_BLOB: {
             int bytes = sqlite3_value_bytes(value);
             return "a BLOB of " + std::to_string(bytes) + (bytes == 1 ? " byte" : " bytes");
         }

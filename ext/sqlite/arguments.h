@@ -16,7 +16,7 @@ namespace almanac::sqlite {
 
 // Thrown inside a callback; the guard turns it into sqlite3_result_error.
 class SqlError : public std::runtime_error {
-public:
+  public:
     explicit SqlError(const std::string& message) : std::runtime_error(message) {}
 };
 

@@ -6,11 +6,13 @@ SQLITE_EXTENSION_INIT1
 
 #include "almanac.h"
 
-extern "C" ALMANAC_EXPORT int sqlite3_almanac_init(sqlite3* db, char** error_message, const sqlite3_api_routines* api) {
+extern "C" ALMANAC_EXPORT int sqlite3_almanac_init(sqlite3* db, char** error_message,
+                                                   const sqlite3_api_routines* api) {
     SQLITE_EXTENSION_INIT2(api);
     int rc = almanac_register(db);
     if (rc != SQLITE_OK && error_message) {
-        *error_message = sqlite3_mprintf("almanac: registering its functions failed (%s)", sqlite3_errstr(rc));
+        *error_message =
+            sqlite3_mprintf("almanac: registering its functions failed (%s)", sqlite3_errstr(rc));
     }
     return rc;
 }

@@ -117,14 +117,17 @@ void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
                                      "such as 'YYYY-MM-DD 00:00'");
             }
             std::string text = format_date(calendar->shift_day(t->day, *n));
-            return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+            return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()),
+                                       SQLITE_TRANSIENT);
         }
         Instant moved = calendar->shift(t->instant, *n);
-        if (!in_supported_range(moved)) throw Error("the result falls outside years 0000 through 9999");
+        if (!in_supported_range(moved))
+            throw Error("the result falls outside years 0000 through 9999");
         switch (t->representation) {
             case Representation::Text: {
                 std::string text = write_like(*t, moved, *calendar);
-                return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+                return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()),
+                                           SQLITE_TRANSIENT);
             }
             default:
                 return result_boundary(context, *t, moved, *calendar);

@@ -53,9 +53,10 @@ int set_error(sqlite3_vtab* table, const std::string& message) {
 }
 
 int connect(sqlite3* db, void*, int, const char* const*, sqlite3_vtab** out, char**) {
-    int rc = sqlite3_declare_vtab(db,
-                                  "CREATE TABLE x(period_start, period_end, label TEXT, serial INTEGER,"
-                                  " start HIDDEN, stop HIDDEN, spec HIDDEN, zone HIDDEN)");
+    int rc =
+        sqlite3_declare_vtab(db,
+                             "CREATE TABLE x(period_start, period_end, label TEXT, serial INTEGER,"
+                             " start HIDDEN, stop HIDDEN, spec HIDDEN, zone HIDDEN)");
     if (rc != SQLITE_OK) return rc;
     auto* table = static_cast<sqlite3_vtab*>(sqlite3_malloc(sizeof(sqlite3_vtab)));
     if (!table) return SQLITE_NOMEM;
@@ -129,19 +130,22 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     for (int argument = 0; argument < 3; ++argument) {
         if (!given[argument]) {
             return set_error(cursor->base.pVtab,
-                             std::string(kName) + "(): argument " + std::to_string(argument + 1) + " (" +
-                                 names[argument] + ") is missing: expected periods(start, stop, spec [, zone])");
+                             std::string(kName) + "(): argument " + std::to_string(argument + 1) +
+                                 " (" + names[argument] +
+                                 ") is missing: expected periods(start, stop, spec [, zone])");
         }
     }
     try {
-        ArgumentRef start_arg{kName, 1, "start"}, stop_arg{kName, 2, "stop"}, spec_arg{kName, 3, "spec"},
-            zone_arg{kName, 4, "zone"};
+        ArgumentRef start_arg{kName, 1, "start"}, stop_arg{kName, 2, "stop"},
+            spec_arg{kName, 3, "spec"}, zone_arg{kName, 4, "zone"};
         auto start = read_time(start_arg, given[0]);
         auto stop = read_time(stop_arg, given[1]);
         for (int argument = 2; argument < kArguments; ++argument) {
-            if (given[argument] && sqlite3_value_type(given[argument]) == SQLITE_NULL) return SQLITE_OK;
+            if (given[argument] && sqlite3_value_type(given[argument]) == SQLITE_NULL)
+                return SQLITE_OK;
         }
-        cursor->calendar.emplace(make_calendar(spec_arg, given[2], given[3] ? &zone_arg : nullptr, given[3]));
+        cursor->calendar.emplace(
+            make_calendar(spec_arg, given[2], given[3] ? &zone_arg : nullptr, given[3]));
         if (!start || !stop) return SQLITE_OK;
         cursor->like = *start;
         Instant first = place_on_time_line(*start, *cursor->calendar);
@@ -186,28 +190,30 @@ int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->don
 int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
     guarded(context, [&] {
-      try {
-        switch (index) {
-            case kPeriodStart:
-                return result_boundary(context, cursor->like, cursor->current.start, *cursor->calendar);
-            case kPeriodEnd:
-                return result_boundary(context, cursor->like, cursor->current.end, *cursor->calendar);
-            case kLabel: {
-                std::string label = cursor->calendar->label(cursor->current);
-                return sqlite3_result_text(context, label.c_str(), static_cast<int>(label.size()),
-                                           SQLITE_TRANSIENT);
+        try {
+            switch (index) {
+                case kPeriodStart:
+                    return result_boundary(context, cursor->like, cursor->current.start,
+                                           *cursor->calendar);
+                case kPeriodEnd:
+                    return result_boundary(context, cursor->like, cursor->current.end,
+                                           *cursor->calendar);
+                case kLabel: {
+                    std::string label = cursor->calendar->label(cursor->current);
+                    return sqlite3_result_text(context, label.c_str(),
+                                               static_cast<int>(label.size()), SQLITE_TRANSIENT);
+                }
+                case kSerial:
+                    return sqlite3_result_int64(context, cursor->current.serial);
+                default: {
+                    sqlite3_value* argument = cursor->arguments[index - kFirstArgument];
+                    if (argument) sqlite3_result_value(context, argument);
+                    return;
+                }
             }
-            case kSerial:
-                return sqlite3_result_int64(context, cursor->current.serial);
-            default: {
-                sqlite3_value* argument = cursor->arguments[index - kFirstArgument];
-                if (argument) sqlite3_result_value(context, argument);
-                return;
-            }
+        } catch (const Error& error) {
+            result_column_error(context, error);
         }
-      } catch (const Error& error) {
-        result_column_error(context, error);
-      }
     });
     return SQLITE_OK;
 }

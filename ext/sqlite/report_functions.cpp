@@ -38,7 +38,6 @@ namespace almanac::sqlite {
 
 namespace {
 
-
 struct XReading {
     XKind kind;
     double value;

@@ -48,7 +48,6 @@
 namespace almanac::sqlite {
 namespace {
 
-
 void set_result(sqlite3_context* context, std::optional<double> value) {
     if (value)
         sqlite3_result_double(context, *value);

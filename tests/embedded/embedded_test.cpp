@@ -2,7 +2,6 @@
 // functions are registered with almanac_register, nothing is loaded.
 #define CATCH_CONFIG_MAIN
 #include <catch2/catch.hpp>
-
 #include <string>
 
 #include "almanac.h"

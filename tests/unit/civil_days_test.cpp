@@ -1,8 +1,8 @@
-#include <catch2/catch.hpp>
+#include "core/civil_days.h"
 
 #include <date/date.h>
 
-#include "core/civil_days.h"
+#include <catch2/catch.hpp>
 
 using namespace almanac;
 

@@ -1,7 +1,8 @@
+#include "core/period_calendar.h"
+
 #include <catch2/catch.hpp>
 
 #include "core/error.h"
-#include "core/period_calendar.h"
 
 using namespace almanac;
 
@@ -10,7 +11,9 @@ Instant at(const char* text) {
     auto value = parse_time_text(text);
     return value.is_calendar_day ? Instant{value.day.time_since_epoch()} : value.instant;
 }
-PeriodCalendar utc(const char* spec) { return PeriodCalendar(parse_period_spec(spec), ZoneClock::utc()); }
+PeriodCalendar utc(const char* spec) {
+    return PeriodCalendar(parse_period_spec(spec), ZoneClock::utc());
+}
 PeriodCalendar zoned(const char* spec, const char* zone) {
     return PeriodCalendar(parse_period_spec(spec), ZoneClock::named(zone));
 }
@@ -89,7 +92,8 @@ TEST_CASE("from anchors give billing cycles that clamp in short months") {
     CHECK(floor_text(billing, "2024-03-31") == "2024-03-31");
     CHECK(floor_text(utc("month from 2024-01-15"), "2024-03-10") == "2024-02-15");
     // A from with a time of day writes date-times, so results read back.
-    CHECK(floor_text(utc("day from 2024-01-01 06:00"), "2024-05-05 05:59") == "2024-05-04 06:00:00");
+    CHECK(floor_text(utc("day from 2024-01-01 06:00"), "2024-05-05 05:59") ==
+          "2024-05-04 06:00:00");
 }
 
 TEST_CASE("shifting by months clamps to the month's last day") {
@@ -113,8 +117,8 @@ TEST_CASE("shifting by months clamps to the month's last day") {
 }
 
 TEST_CASE("serials of neighbouring periods differ by one, far from 1970 too") {
-    for (const char* spec : {"day", "week", "half-month", "month", "quarter starting february", "year",
-                             "7 hours", "15 minutes"}) {
+    for (const char* spec : {"day", "week", "half-month", "month", "quarter starting february",
+                             "year", "7 hours", "15 minutes"}) {
         auto calendar = utc(spec);
         for (const char* t : {"1900-03-01 12:00", "2150-07-19 03:00", "0001-01-01", "9998-06-01"}) {
             auto period = calendar.period_of(at(t));
@@ -164,7 +168,9 @@ TEST_CASE("multi-hour periods stretch across an offset change rather than overla
 }
 
 TEST_CASE("unknown zones are refused without touching the file system") {
-    CHECK_THROWS_WITH(ZoneClock::named("Mars/Olympus_Mons"), Catch::Contains("not in the tz database"));
-    CHECK_THROWS_WITH(ZoneClock::named("../../etc/passwd"), Catch::Contains("expected an IANA time zone name"));
+    CHECK_THROWS_WITH(ZoneClock::named("Mars/Olympus_Mons"),
+                      Catch::Contains("not in the tz database"));
+    CHECK_THROWS_WITH(ZoneClock::named("../../etc/passwd"),
+                      Catch::Contains("expected an IANA time zone name"));
     CHECK_THROWS_AS(ZoneClock::named(""), Error);
 }

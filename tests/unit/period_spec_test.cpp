@@ -1,7 +1,8 @@
+#include "core/period_spec.h"
+
 #include <catch2/catch.hpp>
 
 #include "core/error.h"
-#include "core/period_spec.h"
 
 using namespace almanac;
 
@@ -72,13 +73,16 @@ TEST_CASE("bad specs say what was expected") {
     CHECK_THROWS_WITH(parse_period_spec("0 days"), Catch::Contains("positive whole number"));
     CHECK_THROWS_WITH(parse_period_spec("-3 days"), Catch::Contains("positive whole number"));
     CHECK_THROWS_WITH(parse_period_spec("fortnight"), Catch::Contains("unknown unit 'fortnight'"));
-    CHECK_THROWS_WITH(parse_period_spec("2 half-months"), Catch::Contains("half-month takes no count"));
-    CHECK_THROWS_WITH(parse_period_spec("month starting monday"), Catch::Contains("'starting' applies to"));
+    CHECK_THROWS_WITH(parse_period_spec("2 half-months"),
+                      Catch::Contains("half-month takes no count"));
+    CHECK_THROWS_WITH(parse_period_spec("month starting monday"),
+                      Catch::Contains("'starting' applies to"));
     CHECK_THROWS_WITH(parse_period_spec("week starting sunday from 2024-01-03"),
                       Catch::Contains("contradicts 'starting sunday'"));
     CHECK_THROWS_WITH(parse_period_spec("year starting april from 2024-05-01"),
                       Catch::Contains("contradicts 'starting april'"));
-    CHECK_THROWS_WITH(parse_period_spec("month from 2024-02-30"), Catch::Contains("2024-02 has 29 days"));
+    CHECK_THROWS_WITH(parse_period_spec("month from 2024-02-30"),
+                      Catch::Contains("2024-02 has 29 days"));
     CHECK_THROWS_WITH(parse_period_spec(""), Catch::Contains("empty"));
     CHECK_THROWS_AS(parse_period_spec("week starting"), Error);
     CHECK_THROWS_AS(parse_period_spec("3"), Error);
@@ -87,5 +91,6 @@ TEST_CASE("bad specs say what was expected") {
 TEST_CASE("only units of fixed length have one") {
     CHECK(parse_period_spec("2 weeks").fixed_length() == Millis{14LL * 86400000});
     CHECK(parse_period_spec("PT12H").fixed_length() == Millis{12LL * 3600000});
-    CHECK_THROWS_WITH(parse_period_spec("month").fixed_length(), Catch::Contains("no fixed length"));
+    CHECK_THROWS_WITH(parse_period_spec("month").fixed_length(),
+                      Catch::Contains("no fixed length"));
 }

@@ -1,7 +1,8 @@
+#include "core/time_value.h"
+
 #include <catch2/catch.hpp>
 
 #include "core/error.h"
-#include "core/time_value.h"
 
 using namespace almanac;
 
@@ -15,8 +16,8 @@ TEST_CASE("the Julian day of J2000.0 is 2000-01-01 12:00 UTC") {
     // J2000.0 epoch = JD 2451545.0 (from memory; CHECKS.md).
     auto value = parse_time_real(2451545.0);
     CHECK(value.representation == Representation::JulianDay);
-    CHECK(format_date_time(LocalTime{value.instant.time_since_epoch()}, TextForm::Precision::Seconds,
-                           false) == "2000-01-01 12:00:00");
+    CHECK(format_date_time(LocalTime{value.instant.time_since_epoch()},
+                           TextForm::Precision::Seconds, false) == "2000-01-01 12:00:00");
     CHECK(to_julian_day(value.instant) == 2451545.0);
 }
 
@@ -48,8 +49,8 @@ TEST_CASE("text forms: T, fractions, Z and offsets") {
     CHECK(value.form.t_separator);
     CHECK(value.form.precision == TextForm::Precision::Fraction);
     CHECK(value.form.suffix == TextForm::Suffix::Offset);
-    CHECK(format_date_time(LocalTime{value.instant.time_since_epoch()}, TextForm::Precision::Fraction,
-                           false) == "2026-03-05 04:30:00.125");
+    CHECK(format_date_time(LocalTime{value.instant.time_since_epoch()},
+                           TextForm::Precision::Fraction, false) == "2026-03-05 04:30:00.125");
     CHECK(parse_time_text("2026-03-05 10:00Z").form.suffix == TextForm::Suffix::Z);
     CHECK_THROWS_AS(parse_time_text("2026-03-05 24:00"), Error);
     CHECK_THROWS_AS(parse_time_text("2026-03-05 10:60"), Error);
