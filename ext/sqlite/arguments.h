@@ -47,6 +47,15 @@ std::optional<TimeValue> read_time(const ArgumentRef& arg, sqlite3_value* value)
 // Same rules, never raises: valid_time(). The caller handles NULL.
 bool is_valid_time(sqlite3_value* value);
 
+// A REAL result, or NULL when there is none (too few rows, no slope, ...).
+inline void result_optional_double(sqlite3_context* context, const std::optional<double>& value) {
+    if (value) {
+        sqlite3_result_double(context, *value);
+    } else {
+        sqlite3_result_null(context);
+    }
+}
+
 // Runs a callback body, turning exceptions into SQL errors: a C++ exception
 // must never unwind through SQLite's C frames.
 template <typename Body>

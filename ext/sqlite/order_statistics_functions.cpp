@@ -38,14 +38,6 @@
 namespace almanac::sqlite {
 namespace {
 
-void result_optional(sqlite3_context* context, const std::optional<double>& value) {
-    if (value) {
-        sqlite3_result_double(context, *value);
-    } else {
-        sqlite3_result_null(context);
-    }
-}
-
 // The shortest text that reads back as the same double, for messages.
 std::string shortest(double value) {
     char buffer[40];
@@ -122,14 +114,16 @@ void percentile_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
 void quantile_value(sqlite3_context* context) {
     guarded(context, [&] {
         auto* state = existing_state<QuantileState>(context);
-        result_optional(context, state && state->values ? state->values->value() : std::nullopt);
+        result_optional_double(context,
+                               state && state->values ? state->values->value() : std::nullopt);
     });
 }
 
 void quantile_final(sqlite3_context* context) {
     guarded(context, [&] {
         auto state = take_state<QuantileState>(context);
-        result_optional(context, state && state->values ? state->values->value() : std::nullopt);
+        result_optional_double(context,
+                               state && state->values ? state->values->value() : std::nullopt);
     });
 }
 
@@ -176,7 +170,7 @@ void theil_sen_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
 void theil_sen_result(sqlite3_context* context, const TheilSenState* state) {
     if (!state) return sqlite3_result_null(context);
     try {
-        result_optional(
+        result_optional_double(
             context, theil_sen_slope(std::vector<Point>(state->rows.begin(), state->rows.end())));
     } catch (const Error& error) {
         raise_function_error("theil_sen_slope", error.what());

@@ -48,13 +48,6 @@
 namespace almanac::sqlite {
 namespace {
 
-void set_result(sqlite3_context* context, std::optional<double> value) {
-    if (value)
-        sqlite3_result_double(context, *value);
-    else
-        sqlite3_result_null(context);
-}
-
 // ---- 1. one-variable moments ----------------------------------------------
 
 struct UnivariateFunction {
@@ -90,7 +83,8 @@ void univariate_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
 void univariate_value(sqlite3_context* context) {
     guarded(context, [&] {
         auto* moments = existing_state<UnivariateMoments>(context);
-        set_result(context, moments ? univariate(context).compute(*moments) : std::nullopt);
+        result_optional_double(context,
+                               moments ? univariate(context).compute(*moments) : std::nullopt);
     });
 }
 
@@ -161,7 +155,7 @@ void bivariate_value(sqlite3_context* context) {
             sqlite3_result_int64(context, moments ? moments->count() : 0);
             return;
         }
-        set_result(context, moments ? function.compute(*moments) : std::nullopt);
+        result_optional_double(context, moments ? function.compute(*moments) : std::nullopt);
     });
 }
 
@@ -383,7 +377,7 @@ void ewma_inverse(sqlite3_context* context, int, sqlite3_value** argv) {
 void ewma_value(sqlite3_context* context) {
     guarded(context, [&] {
         auto* ewma = existing_state<EwmaState>(context);
-        set_result(context, ewma ? ewma->weights.mean() : std::nullopt);
+        result_optional_double(context, ewma ? ewma->weights.mean() : std::nullopt);
     });
 }
 
