@@ -185,3 +185,30 @@ TEST_CASE("a negative sum in the fast form converts exactly") {
     other.add(sum, 0);  // merging a fast-form sum into another
     CHECK(other.to_double() == -0.25);
 }
+
+TEST_CASE("carries are resolved exactly when a long frame passes 2^29 additions") {
+    // The limbs' spare bits are folded every 2^29 additions (exact_sum.h);
+    // run past that point with products (which force the limb form) and
+    // removals, and compare with the same sum kept in exact 128-bit integer
+    // arithmetic, rounded once to a double (common practice: a 128-bit integer
+    // holds every partial sum here exactly; GCC converts it with IEEE 754
+    // round-to-nearest-even).
+    __extension__ typedef __int128 Int128;
+    const double a = 67108865.0;  // 2^26 + 1: a*a = 2^52 + 2^27 + 1 needs 53 bits
+    const double c = 50331649.0;  // 3 * 2^24 + 1
+    const Int128 a2 = Int128{67108865} * 67108865;
+    const Int128 c2 = Int128{50331649} * 50331649;
+    constexpr std::uint32_t kSteps = (1u << 29) / 3 + 4321;  // three additions per step
+    ExactSum sum;
+    for (std::uint32_t i = 0; i < kSteps; ++i) {
+        sum.add_product(a, a);
+        sum.add_product(a, a);
+        sum.subtract_product(c, c);
+    }
+    const Int128 expected = Int128{kSteps} * (2 * a2 - c2);
+    CHECK(sum.to_double() == static_cast<double>(expected));
+    sum.subtract_scaled(static_cast<double>(expected), 0);
+    // What is left is the rounding error of that double, an exact integer.
+    CHECK(sum.to_double() ==
+          static_cast<double>(expected - static_cast<Int128>(static_cast<double>(expected))));
+}
