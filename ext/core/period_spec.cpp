@@ -287,7 +287,12 @@ PeriodSpec parse_period_spec(std::string_view raw) {
             tokens.push_back(text.substr(i, j - i));
             i = j;
         } else {
-            fail("unexpected character '" + std::string(1, text[i]) + "'; " + kGrammar);
+            // Quote the whole character: half a UTF-8 sequence is not text.
+            std::size_t length = 1;
+            while (i + length < text.size() &&
+                   (static_cast<unsigned char>(text[i + length]) & 0xC0) == 0x80)
+                ++length;
+            fail("unexpected character '" + text.substr(i, length) + "'; " + kGrammar);
         }
     }
     // "half month" written as two words.

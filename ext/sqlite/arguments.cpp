@@ -33,7 +33,13 @@ std::string describe_value(sqlite3_value* value) {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
             std::string shown = text ? text : "";
             constexpr std::size_t kLongest = 60;
-            if (shown.size() > kLongest) shown = shown.substr(0, kLongest) + "...";
+            if (shown.size() > kLongest) {
+                // Cut at a character boundary: half a UTF-8 sequence would
+                // make the whole message invalid text.
+                std::size_t cut = kLongest;
+                while (cut > 0 && (static_cast<unsigned char>(shown[cut]) & 0xC0) == 0x80) --cut;
+                shown = shown.substr(0, cut) + "...";
+            }
             std::string quoted = "'";
             for (char c : shown) {
                 if (c == '\'') quoted += '\'';

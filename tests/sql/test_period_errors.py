@@ -7,6 +7,7 @@ the argument by position and name, the value as written, and the words DESIGN.md
 asks for (a Unix time in milliseconds "says so"; an unknown unit says what was
 expected) — and then the exact text, pinned once read and judged good.
 """
+import sqlite3
 import subprocess
 
 import pytest
@@ -375,3 +376,21 @@ def test_every_case_in_one_connection_leaves_it_usable(db):
         except Exception:
             pass
     assert run(db, "period_label('2026-01-01', 'week')") == [("2026-W01",)]  # from memory: Thursday, week 1
+
+
+def test_messages_stay_valid_text_around_non_ascii_input(db):
+    # A message quotes the offending character or value; quoting half of a
+    # UTF-8 sequence would make the message undecodable (found by fuzzing).
+    db.text_factory = bytes
+    for sql, params in [
+        ("SELECT period_floor('2026-01-01', ?)", ("2 wéeks",)),
+        ("SELECT period_floor(?, 'day')", ("x" * 59 + "é" * 10,)),
+    ]:
+        try:
+            db.execute(sql, params).fetchall()
+        except sqlite3.OperationalError as error:
+            message = str(error)  # raises UnicodeDecodeError if the bytes were cut
+            assert message.startswith("period_floor(): argument")
+            assert "\ufffd" not in message
+        else:
+            raise AssertionError(f"{sql} {params!r} should have failed")
