@@ -324,6 +324,7 @@ PeriodCalendar::PeriodCalendar(PeriodSpec spec, ZoneClock clock)
         sub_day_ = std::make_shared<SubDayGrid>(spec_, clock_);
     } else {
         grid_ = std::make_shared<CalendarGrid>(spec_);
+        writes_dates_ = !grid_->has_time_of_day();
     }
 }
 
@@ -412,8 +413,6 @@ date::local_days PeriodCalendar::shift_day(date::local_days day, std::int64_t n)
     }
     return date::floor<days>(shift_reading(LocalTime{day.time_since_epoch()}, n));
 }
-
-bool PeriodCalendar::writes_dates() const { return !sub_day_ && !grid_->has_time_of_day(); }
 
 char* PeriodCalendar::write_boundary(Instant t, char* out) const {
     LocalTime local = clock_.to_local(t);

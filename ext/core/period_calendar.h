@@ -56,7 +56,7 @@ class PeriodCalendar {
     char* write_boundary(Instant t, char* out) const;
     // Whether format_boundary writes bare dates (calendar units whose
     // boundaries fall at midnight) or date-times.
-    bool writes_dates() const;
+    bool writes_dates() const { return writes_dates_; }
 
   private:
     LocalTime shift_reading(LocalTime local, std::int64_t n) const;
@@ -66,6 +66,7 @@ class PeriodCalendar {
     // Immutable after construction, so copies may share them.
     std::shared_ptr<const CalendarGrid> grid_;
     std::shared_ptr<const SubDayGrid> sub_day_;
+    bool writes_dates_ = false;  // decided once: write_boundary runs per row
 };
 
 }  // namespace almanac

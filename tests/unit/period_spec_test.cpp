@@ -6,14 +6,25 @@
 
 using namespace almanac;
 
+namespace {
+// One row of a spec table: the text and the unit and count it must parse to.
+struct SpecRow {
+    const char* text;
+    PeriodUnit unit;
+    std::int64_t count;
+};
+
+void check_spec(const SpecRow& row) {
+    INFO(row.text);
+    auto spec = parse_period_spec(row.text);
+    CHECK(spec.unit == row.unit);
+    CHECK(spec.count == row.count);
+}
+}  // namespace
+
 TEST_CASE("spec words name units, with plurals, counts and free spacing") {
-    struct Row {
-        const char* text;
-        PeriodUnit unit;
-        std::int64_t count;
-    };
     // Expected values: DESIGN.md's spec grammar (the contract).
-    auto row = GENERATE(values<Row>({
+    auto row = GENERATE(values<SpecRow>({
         {"day", PeriodUnit::Day, 1},
         {"DAYS", PeriodUnit::Day, 1},
         {"2 weeks", PeriodUnit::Week, 2},
@@ -27,19 +38,12 @@ TEST_CASE("spec words name units, with plurals, counts and free spacing") {
         {"90 seconds", PeriodUnit::Second, 90},
         {"hour", PeriodUnit::Hour, 1},
     }));
-    auto spec = parse_period_spec(row.text);
-    CHECK(spec.unit == row.unit);
-    CHECK(spec.count == row.count);
+    check_spec(row);
 }
 
 TEST_CASE("ISO 8601 single-component durations map onto units") {
-    struct Row {
-        const char* text;
-        PeriodUnit unit;
-        std::int64_t count;
-    };
     // ISO 8601-1:2019 duration designators: Y M W D, and H M S after T.
-    auto row = GENERATE(values<Row>({
+    auto row = GENERATE(values<SpecRow>({
         {"P1Y", PeriodUnit::Year, 1},
         {"P3M", PeriodUnit::Month, 3},
         {"P1W", PeriodUnit::Week, 1},
@@ -48,9 +52,7 @@ TEST_CASE("ISO 8601 single-component durations map onto units") {
         {"pt15m", PeriodUnit::Minute, 15},
         {"PT30S", PeriodUnit::Second, 30},
     }));
-    auto spec = parse_period_spec(row.text);
-    CHECK(spec.unit == row.unit);
-    CHECK(spec.count == row.count);
+    check_spec(row);
 }
 
 TEST_CASE("starting and from modify weeks, quarters and years") {
