@@ -1,4 +1,5 @@
 #!/usr/bin/python3
+# SPDX-License-Identifier: MIT
 """Writes the demo database of Hollow Oak Bakehouse, an invented bakery-café.
 
 Hollow Oak is made up for this demo: three shops (Millrace, Quarry Hill,

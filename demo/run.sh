@@ -1,4 +1,5 @@
 #!/usr/bin/env bash
+# SPDX-License-Identifier: MIT
 # The demo: installs what is missing and builds almanac (tests/setup.sh),
 # generates three years of sales of Hollow Oak Bakehouse (an invented
 # three-shop bakery in America/Denver), runs the report library in sql/ with

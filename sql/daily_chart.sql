@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: the overlay chart. For the top items (or one chosen item),
 -- the raw daily amount as a thin light line and its 7-day moving mean as a
 -- thick line in the same colour, so the noise and the direction show at once.

@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: the noise ranking. Per item, how far its weekly amounts
 -- scatter around their own least-squares trend line, relative to the item's
 -- mean week: the noisiest items first. A noisy item needs more weeks before

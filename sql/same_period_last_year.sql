@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: each period beside the same period of the year before.
 --
 -- For weeks, "the same period last year" is the same ISO 8601 week number of

@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: totals and means per fiscal quarter, every quarter shown (in
 -- the shop's time zone; the fiscal year starts in the month @fiscal_start).
 -- A quarter without sales is a row of zeros, not a missing row; its means are

@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: totals and means per half-month, every half-month shown (the
 -- 1st-15th and the 16th-last day of each month, in the shop's time zone). A
 -- half-month without sales is a row of zeros, not a missing row; its means are

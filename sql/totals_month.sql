@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: totals and means per calendar month, every month shown (in the
 -- shop's time zone). A month without sales is a row of zeros, not a missing
 -- row; its means are NULL (there is nothing to average).

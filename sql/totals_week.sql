@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: totals and means per week, every week shown (ISO 8601 weeks,
 -- Monday to Sunday, in the shop's time zone). A week without sales is a row of
 -- zeros, not a missing row; its means are NULL (there is nothing to average).

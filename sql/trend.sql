@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: the trend table. Per item, the weekly amounts (every week of
 -- the range, a week without sales counted as 0) fitted with a least-squares
 -- line against the week's serial number, so the slope is money per week.

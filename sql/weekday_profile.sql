@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac report: the weekday profile. How a typical Monday, Tuesday, ...
 -- compares with the rest of the week, in the shop's local calendar.
 --

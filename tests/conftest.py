@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Fixtures shared by the SQL-level tests and the reference checks.
 
 Every test talks to the real SQLite library: through Python's sqlite3 module

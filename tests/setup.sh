@@ -1,4 +1,5 @@
 #!/usr/bin/env bash
+# SPDX-License-Identifier: MIT
 # Shared by demo/run.sh and tests/run.sh: installs the Debian packages that are
 # missing (as root; otherwise prints the one apt-get line to run), then builds.
 #   tests/setup.sh [extra-package ...]

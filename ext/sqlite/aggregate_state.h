@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Aggregate state as a C++ object: SQLite's aggregate context holds only a
 // pointer to it, so any C++ type (with its own destructor) can be a state.
 // xFinal, which SQLite also calls when a statement stops early or fails,

@@ -1,10 +1,11 @@
+// SPDX-License-Identifier: MIT
 #include "arguments.h"
 
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
 
-#include "../core/error.h"
+#include "core/text/error.h"
 
 namespace almanac::sqlite {
 

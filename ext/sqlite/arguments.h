@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Reading SQL arguments into core types, and the one shape every error
 // message takes:  fn(): argument N (name) = <value>: <what was expected>
 // Readers return std::nullopt for SQL NULL, so each function decides what
@@ -9,7 +10,7 @@
 #include <stdexcept>
 #include <string>
 
-#include "../core/time_value.h"
+#include "core/time/time_value.h"
 #include "sqlite_api.h"
 
 namespace almanac::sqlite {

@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // The loadable module's entry point. SQLite derives the name
 // sqlite3_almanac_init from the file name almanac.so, so `.load build/almanac`
 // needs no entry-point argument.

@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Order statistics as SQL aggregates that are also window functions.
 //
 // 1. median(x) — the same as percentile_cont(x, 0.5). Aggregate and window
@@ -28,9 +29,9 @@
 #include <string>
 #include <vector>
 
-#include "../core/error.h"
-#include "../core/order_statistics.h"
-#include "../core/theil_sen.h"
+#include "core/text/error.h"
+#include "core/stats/order_statistics.h"
+#include "core/stats/theil_sen.h"
 #include "aggregate_state.h"
 #include "arguments.h"
 #include "registration.h"

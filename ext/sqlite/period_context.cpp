@@ -1,6 +1,7 @@
+// SPDX-License-Identifier: MIT
 #include "period_context.h"
 
-#include "../core/error.h"
+#include "core/text/error.h"
 
 namespace almanac::sqlite {
 

@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // What the period functions and the periods() table share: turning a spec
 // and an optional zone into a PeriodCalendar (cached per statement), placing
 // a time value on the time line, and writing instants back in the caller's
@@ -7,7 +8,7 @@
 #include <optional>
 #include <string>
 
-#include "../core/period_calendar.h"
+#include "core/time/period_calendar.h"
 #include "arguments.h"
 
 namespace almanac::sqlite {

@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Calendar period functions.
 //
 //  1. period_floor(t, spec [, zone]), period_end(t, spec [, zone]):
@@ -19,7 +20,7 @@
 //  error naming the function, the argument and the value. The forms without a
 //  zone are deterministic; the zoned forms are not (a tz database update can
 //  change their results).
-#include "../core/error.h"
+#include "core/text/error.h"
 #include "arguments.h"
 #include "period_context.h"
 #include "registration.h"

@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // periods(start, stop, spec [, zone]): a table-valued function.
 //
 //  1. One row per period of `spec` that overlaps [start, stop), in order,
@@ -13,7 +14,7 @@
 #include <memory>
 #include <optional>
 
-#include "../core/error.h"
+#include "core/text/error.h"
 #include "arguments.h"
 #include "period_context.h"
 #include "registration.h"

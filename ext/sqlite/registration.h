@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // One registration function per binding file; almanac_register calls them all.
 #pragma once
 

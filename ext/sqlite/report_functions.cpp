@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Report functions: pictures of a series, from SQL.
 //
 // 1. sparkline(y, x) — aggregate. y a number (NULL allowed), x a number or a
@@ -25,11 +26,11 @@
 #include <optional>
 #include <string>
 
-#include "../core/chart_options.h"
-#include "../core/error.h"
-#include "../core/line_chart.h"
-#include "../core/sparkline.h"
-#include "../core/x_value.h"
+#include "core/chart/chart_options.h"
+#include "core/text/error.h"
+#include "core/chart/line_chart.h"
+#include "core/chart/sparkline.h"
+#include "core/chart/axis_kind.h"
 #include "aggregate_state.h"
 #include "arguments.h"
 #include "registration.h"

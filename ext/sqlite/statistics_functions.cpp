@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Trend and noise statistics: aggregates that are also sliding windows.
 //
 // Contract (every function is a plain aggregate and a window function with a
@@ -36,11 +37,11 @@
 #include <optional>
 #include <string>
 
-#include "../core/error.h"
-#include "../core/exact_sum.h"
-#include "../core/exponential_weights.h"
-#include "../core/moment_sums.h"
-#include "../core/period_spec.h"
+#include "core/text/error.h"
+#include "core/exact/exact_sum.h"
+#include "core/stats/exponential_weights.h"
+#include "core/stats/moment_sums.h"
+#include "core/time/period_spec.h"
 #include "aggregate_state.h"
 #include "arguments.h"
 #include "registration.h"

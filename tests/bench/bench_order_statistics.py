@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Sliding order statistics beside SQLite's own sliding avg(), in one run.
 
 Run by hand (not a test):  /usr/bin/python3 tests/bench/bench_order_statistics.py [rows]

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Per-row cost of period keys beside SQLite's own date functions.
 
 Run by hand (not a test):

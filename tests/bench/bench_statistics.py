@@ -1,4 +1,5 @@
 #!/usr/bin/python3
+# SPDX-License-Identifier: MIT
 """Sliding-window statistics against SQLite's own sliding avg(), in one run.
 
 Run with Debian's interpreter, after a build:

@@ -1,3 +1,4 @@
+// SPDX-License-Identifier: MIT
 // Proves the static library serves an application that embeds SQLite: the
 // functions are registered with almanac_register, nothing is loaded.
 #define CATCH_CONFIG_MAIN

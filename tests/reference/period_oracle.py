@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """An independent reference calendar for the period checks.
 
 DESIGN.md's rules ("Time values", "Calendar periods", "Spec grammar",

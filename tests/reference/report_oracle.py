@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """The reports of sql/ computed a second time, in plain Python.
 
 Each function takes the rows of a sales table, (ts, item, qty, amount) with

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """svg_line_chart() and sparkline() through real SQLite, checked against the
 contract (DESIGN.md "Reports") with Python's own tools as the oracle:
 xml.etree parses every document, sorted() orders the series names,

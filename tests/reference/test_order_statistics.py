@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Order statistics against numpy and scipy, computed at test time.
 
 Seeded random series in three partitions — values near 1e9 with cents and

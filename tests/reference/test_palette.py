@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """almanac's own palette, checked numerically from the colours the SVG uses.
 
 Colour science used (each a published source):

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Week labels against ISO 8601 week dates, through datetime.date.isocalendar().
 
 Every day from 1900-01-01 to 2100-12-31 (and a seeded random time of day on

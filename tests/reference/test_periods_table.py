@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """The table-valued periods(start, stop, spec [, zone]) against an enumeration in plain datetime.
 
 DESIGN.md: one row per period overlapping [start, stop), columns

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Calendar periods without a zone, against plain Python datetime arithmetic.
 
 Seeded random time values from 1900 to 2100, written in every TEXT form

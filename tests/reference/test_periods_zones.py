@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Zoned calendar periods against Python's zoneinfo (the IANA database Debian's tzdata installs).
 
 Three zones with daylight saving: America/Denver (northern hemisphere),

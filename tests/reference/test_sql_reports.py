@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """The report library sql/ run in the real sqlite3 shell, against answers computed in Python.
 
 Two databases: a small fixture built here with a known shape (a rising, a

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """NIST StRD certified values against almanac's exact statistics.
 
 Sources (CHECKS.md): NIST StRD linear regression dataset Norris and analysis

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Sliding-window statistics against numpy, scipy, pandas and math.fsum, at test time.
 
 Seeded random series in three partitions — values near 1e9 with cents and

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Bad input to median, percentile_cont and theil_sen_slope: a clear error, never a crash.
 
 Every message has one shape (the common brief, ext/sqlite/arguments.h):

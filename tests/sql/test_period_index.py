@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """period_floor(ts, 'week') in an index on an expression and in a generated column.
 
 DESIGN.md: the scalar functions are registered deterministic in their forms

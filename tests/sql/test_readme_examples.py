@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Every SQL example in README.md runs in the real sqlite3 shell and prints
 exactly the text shown under it. The README is the user's contract, so a
 change in behaviour must show up as a change in the README."""

@@ -1,3 +1,4 @@
+# SPDX-License-Identifier: MIT
 """Bad input to the statistics functions: a clear error, or NULL by SQL's rules, never a crash.
 
 Every message has one shape (the common brief, ext/sqlite/arguments.h):

@@ -1,0 +1,34 @@
+// SPDX-License-Identifier: MIT
+#include "core/chart/axis_kind.h"
+
+#include <cmath>
+
+#include "core/text/error.h"
+
+namespace almanac {
+
+double time_axis_value(const TimeValue& value) {
+    Instant t = value.is_calendar_day ? Instant{value.day.time_since_epoch()} : value.instant;
+    return static_cast<double>(t.time_since_epoch().count());
+}
+
+Instant instant_from_axis_value(double value) {
+    return Instant{Millis{static_cast<std::int64_t>(std::llround(value))}};
+}
+
+const char* describe_x_kind(XKind kind) {
+    return kind == XKind::Number ? "a number" : "a time value";
+}
+
+void XKindGuard::accept(XKind kind) {
+    if (!kind_) {
+        kind_ = kind;
+        return;
+    }
+    if (*kind_ != kind)
+        throw Error(std::string("expected ") + describe_x_kind(*kind_) +
+                    " like the earlier x values of this group; one axis cannot mix numbers "
+                    "and time values");
+}
+
+}  // namespace almanac

@@ -1,0 +1,35 @@
+// SPDX-License-Identifier: MIT
+// The x value of a chart or sparkline: a plain number, or a time value
+// (TEXT that is not a number) read as an instant. One chart takes one kind.
+#pragma once
+
+#include <optional>
+#include <string>
+
+#include "core/time/time_value.h"
+
+namespace almanac {
+
+enum class XKind { Number, Time };
+
+// A time value on the x axis: milliseconds since 1970-01-01 UTC, as a double
+// (exact: every supported instant is below 2^53 ms). A calendar day counts
+// from its UTC midnight, as DESIGN.md reads a bare date without a zone.
+double time_axis_value(const TimeValue& value);
+Instant instant_from_axis_value(double value);
+
+const char* describe_x_kind(XKind kind);  // "a number", "a time value"
+
+// Remembers the kind of the first x value and refuses the other kind later:
+// a chart cannot put numbers and dates on one axis.
+class XKindGuard {
+  public:
+    // Throws almanac::Error saying what was expected.
+    void accept(XKind kind);
+    std::optional<XKind> kind() const { return kind_; }
+
+  private:
+    std::optional<XKind> kind_;
+};
+
+}  // namespace almanac

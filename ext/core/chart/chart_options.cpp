@@ -1,0 +1,59 @@
+// SPDX-License-Identifier: MIT
+#include "core/chart/chart_options.h"
+
+#include <cmath>
+
+#include "core/text/error.h"
+#include "core/text/json_value.h"
+
+namespace almanac {
+
+namespace {
+
+std::string text_option(const std::string& key, const JsonValue& value) {
+    if (value.type() != JsonValue::Type::String)
+        throw Error("key \"" + key + "\" = " + value.describe() + ": expected a string");
+    return value.string();
+}
+
+int size_option(const std::string& key, const JsonValue& value, int minimum, int maximum) {
+    std::string expected = "expected a whole number of pixels from " + std::to_string(minimum) +
+                           " to " + std::to_string(maximum);
+    if (value.type() != JsonValue::Type::Number)
+        throw Error("key \"" + key + "\" = " + value.describe() + ": " + expected);
+    double number = value.number();
+    if (std::floor(number) != number || number < minimum || number > maximum)
+        throw Error("key \"" + key + "\" = " + value.describe() + ": " + expected);
+    return static_cast<int>(number);
+}
+
+}  // namespace
+
+ChartOptions parse_chart_options(std::string_view json) {
+    JsonValue document = parse_json(json);
+    if (document.type() != JsonValue::Type::Object)
+        throw Error("expected a JSON object such as {\"title\": \"Sales\"}, not " +
+                    std::string(describe_json_type(document.type())));
+    ChartOptions options;
+    for (const auto& [key, value] : document.object()) {
+        bool is_null = value.type() == JsonValue::Type::Null;
+        if (key == "title") {
+            if (!is_null) options.title = text_option(key, value);
+        } else if (key == "y_caption") {
+            if (!is_null) options.y_caption = text_option(key, value);
+        } else if (key == "width") {
+            if (!is_null)
+                options.width =
+                    size_option(key, value, ChartOptions::kMinWidth, ChartOptions::kMaxWidth);
+        } else if (key == "height") {
+            if (!is_null)
+                options.height =
+                    size_option(key, value, ChartOptions::kMinHeight, ChartOptions::kMaxHeight);
+        } else {
+            throw Error("unknown key \"" + key + "\": expected title, width, height or y_caption");
+        }
+    }
+    return options;
+}
+
+}  // namespace almanac

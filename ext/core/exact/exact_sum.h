@@ -1,0 +1,153 @@
+// SPDX-License-Identifier: MIT
+// An exact sum of doubles and of products of two doubles, with removal.
+//
+// Technique: a fixed-point superaccumulator (in the manner of Kulisch's long
+// accumulator and Neal's "superaccumulators"). Every double is an integer
+// m < 2^53 times 2^e with -1074 <= e <= 971, and the product of two doubles is
+// an integer m_a*m_b < 2^106 times 2^(e_a+e_b): both are added, without any
+// rounding, into 64-bit signed limbs that each carry a 32-bit digit of one
+// long binary number. The 32 spare bits of each limb absorb carries, so an
+// addition touches three limbs and never propagates a carry; carries are
+// resolved only when the value is read, or every 2^29 additions. Removal is
+// the addition of the negated term, so a sliding frame's sum is exactly the
+// sum of the values in the frame, whatever has passed through it before — a
+// 1e15 spike that leaves the frame leaves no trace.
+//
+// Only the limbs between the lowest and highest digit in use are stored and
+// visited, so values of similar magnitude cost a few limbs, and reading the
+// sum (carry resolution plus rounding) is a handful of operations.
+//
+// A faster form comes first: while the terms are doubles whose exponents lie
+// within about 70 bits of each other (a series of prices, with its spikes),
+// the sum is one exact 128-bit integer times 2^e, so adding is a shift and an
+// add and reading is one rounding. The first term that does not fit (an
+// overflow, a far smaller or larger exponent, or any product) moves the sum
+// into the limbs, where it stays until it is exactly zero again.
+#pragma once
+
+#include <cstdint>
+#include <cstring>
+#include <vector>
+
+#include "core/exact/correct_rounding.h"
+#include "core/exact/exact_number.h"
+
+namespace almanac {
+
+class ExactSum {
+  public:
+    void add(double x) { add_double(x, 0, false); }
+    void subtract(double x) { add_double(x, 0, true); }
+    // x * 2^shift, exactly; shift moves the term by whole bits.
+    void add_scaled(double x, std::int64_t shift) { add_double(x, shift, false); }
+    void subtract_scaled(double x, std::int64_t shift) { add_double(x, shift, true); }
+    // a * b * 2^shift, exactly (no fused rounding, no overflow, no underflow).
+    void add_product(double a, double b, std::int64_t shift = 0) { add_prod(a, b, shift, false); }
+    void subtract_product(double a, double b, std::int64_t shift = 0) {
+        add_prod(a, b, shift, true);
+    }
+    // Adds other * 2^(32*limb_shift) exactly; other is only normalised.
+    void add(ExactSum& other, std::int64_t limb_shift);
+
+    // Readers resolve carries in place (the value does not change).
+    bool is_zero();
+    int sign();
+    // Correctly rounded, half to even: the double nearest the exact sum,
+    // which is what Python's math.fsum returns for the same terms.
+    double to_double() { return rounded(kDoubleLowestBit).to_double(); }
+    RoundedBinary rounded(std::int64_t lowest_bit);
+    ExactNumber value();
+
+  private:
+    // Bit position 0 of the long number is 2^-kBitOffset; a multiple of 32 at
+    // or below the last bit of a product of two subnormals (2^-2148).
+    static constexpr std::int64_t kBitOffset = 2176;
+    static constexpr std::uint32_t kNormalizeEvery = 1u << 29;
+
+    static std::int64_t floor_div32(std::int64_t v) { return v >= 0 ? v / 32 : -((-v + 31) / 32); }
+
+    __extension__ typedef __int128 Int128;
+
+    void add_double(double x, std::int64_t shift, bool negate) {
+        std::uint64_t bits;
+        std::memcpy(&bits, &x, sizeof bits);
+        int biased = static_cast<int>((bits >> 52) & 0x7ff);
+        std::uint64_t mantissa = bits & ((std::uint64_t(1) << 52) - 1);
+        if (biased == 0x7ff) throw_not_finite();
+        int exponent;
+        if (biased == 0) {
+            if (mantissa == 0) return;
+            exponent = -1074;
+        } else {
+            mantissa |= std::uint64_t(1) << 52;
+            exponent = biased - 1075;
+        }
+        bool negative = negate != (bits >> 63 != 0);
+        if (!wide_ && add_narrow(mantissa, exponent + shift, negative)) return;
+        add_bits(mantissa, exponent + shift, negative);
+    }
+    // Adds ±mantissa * 2^exponent to the 128-bit form; false (having moved
+    // the sum into the limbs) when it does not fit.
+    bool add_narrow(std::uint64_t mantissa, std::int64_t exponent, bool negative) {
+        if (narrow_ == 0) {
+            narrow_exponent_ = exponent;
+            narrow_ = negative ? -Int128(mantissa) : Int128(mantissa);
+            return true;
+        }
+        if (exponent < narrow_exponent_ && !rescale_narrow(exponent)) return false;
+        std::int64_t d = exponent - narrow_exponent_;
+        if (d > 72) return widen();  // the term would need more than 125 bits
+        Int128 term = Int128(mantissa) << d;
+        Int128 sum;
+        if (__builtin_add_overflow(narrow_, negative ? -term : term, &sum)) return widen();
+        narrow_ = sum;
+        return true;
+    }
+    bool rescale_narrow(std::int64_t exponent);
+    // Moves the 128-bit form into the limbs; returns false for add_narrow.
+    bool widen();
+    void add_prod(double a, double b, std::int64_t shift, bool negate);
+    // Adds ±magnitude * 2^bit_exponent.
+    void add_bits(std::uint64_t magnitude, std::int64_t bit_exponent, bool negative) {
+        std::int64_t position = bit_exponent + kBitOffset;
+        std::int64_t k = floor_div32(position);
+        unsigned s = static_cast<unsigned>(position - 32 * k);
+        // Three 32-bit digits of magnitude << s (at most 64 + 31 bits).
+        std::uint64_t low = magnitude << s;
+        std::uint64_t high = s ? magnitude >> (64 - s) : 0;
+        std::int64_t c0 = static_cast<std::int64_t>(low & 0xffffffffu);
+        std::int64_t c1 = static_cast<std::int64_t>(low >> 32);
+        std::int64_t c2 = static_cast<std::int64_t>(high);
+        // One spare limb above the digits, so the top limb only ever takes carries.
+        if (k < lo_ || k + 4 > hi_) extend(k, k + 4);
+        std::int64_t* p = limbs_.data() + (k - base_);
+        if (negative) {
+            p[0] -= c0;
+            p[1] -= c1;
+            p[2] -= c2;
+        } else {
+            p[0] += c0;
+            p[1] += c1;
+            p[2] += c2;
+        }
+        if (++pending_ >= kNormalizeEvery) normalize();
+    }
+    [[noreturn]] static void throw_not_finite();
+    // Makes [lo, hi) part of the active range, allocating as needed.
+    void extend(std::int64_t lo, std::int64_t hi);
+    // Resolves carries: every limb but the top becomes a digit in [0, 2^32),
+    // the top a signed value in [-2^32, 2^32); zero limbs leave the range.
+    void normalize();
+    // normalize(), then back to the fast form when the sum is exactly zero.
+    void settle();
+
+    std::vector<std::int64_t> limbs_;  // limbs_[i] is limb number base_ + i
+    std::int64_t base_ = 0;
+    std::int64_t lo_ = 0, hi_ = 0;  // active limbs [lo_, hi_); all others are zero
+    std::uint32_t pending_ = 0;     // additions since the last normalize()
+    bool wide_ = false;             // the sum is in the limbs, not in narrow_
+    Int128 narrow_ = 0;             // otherwise the sum is narrow_ * 2^narrow_exponent_
+    std::int64_t narrow_exponent_ = 0;
+};
+
+}  // namespace almanac

@@ -1,0 +1,372 @@
+// SPDX-License-Identifier: MIT
+// A hand-written parser: it runs once per row, so no streams and no regex.
+#include "core/time/time_value.h"
+
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <initializer_list>
+
+#include "core/time/civil_days.h"
+#include "core/text/error.h"
+
+namespace almanac {
+namespace {
+
+using namespace std::chrono;
+
+constexpr const char* kExpectedForms =
+    "expected YYYY-MM-DD, optionally followed by HH:MM[:SS[.fff]] and Z or +HH:MM, "
+    "or a number (a Julian day below 5373484.5, Unix seconds otherwise)";
+
+// Julian day number of the Unix epoch, in milliseconds, as SQLite keeps it.
+constexpr std::int64_t kUnixEpochJulianMillis = 210866760000000LL;
+constexpr double kLargestJulianDay = 5373484.5;
+
+bool is_digit(char c) { return c >= '0' && c <= '9'; }
+bool is_space(char c) {
+    return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\f' || c == '\v';
+}
+
+// Reads exactly n digits at text[pos], advancing pos.
+bool read_digits(std::string_view text, std::size_t& pos, int n, int& out) {
+    if (pos + n > text.size()) return false;
+    int value = 0;
+    for (int i = 0; i < n; ++i) {
+        char c = text[pos + i];
+        if (!is_digit(c)) return false;
+        value = value * 10 + (c - '0');
+    }
+    pos += n;
+    out = value;
+    return true;
+}
+
+inline std::string_view trim(std::string_view text) {
+    // Spaces are all at or below ' '; most texts start and end with neither.
+    auto above_space = [](char c) { return static_cast<unsigned char>(c) > ' '; };
+    if (text.empty() || (above_space(text.front()) && above_space(text.back()))) return text;
+    while (!text.empty() && is_space(text.front())) text.remove_prefix(1);
+    while (!text.empty() && is_space(text.back())) text.remove_suffix(1);
+    return text;
+}
+
+[[noreturn]] void fail(const std::string& reason) { throw Error(reason); }
+
+std::string two_digits(int v) {
+    char buffer[8];
+    std::snprintf(buffer, sizeof buffer, "%02d", v);
+    return buffer;
+}
+
+Instant from_unix_millis(std::int64_t ms) { return Instant{Millis{ms}}; }
+
+// `described` is only turned into a message on failure: this runs per row.
+template <typename Describe>
+void check_range(Instant t, Describe&& described) {
+    if (t < earliest_supported_instant())
+        fail(described() + " is before year 0000; years 0000 through 9999 are supported");
+    if (t >= latest_supported_instant())
+        fail(described() + " is after year 9999; years 0000 through 9999 are supported");
+}
+
+}  // namespace
+
+// 0000-01-01 and 10000-01-01 are days -719528 and 2932897 of the Unix epoch.
+constexpr std::int64_t kEarliestMillis = -719528LL * 86400000LL;
+constexpr std::int64_t kLatestMillis = 2932897LL * 86400000LL;
+static_assert(date::sys_days{date::year{0} / 1 / 1}.time_since_epoch().count() == -719528);
+static_assert(date::sys_days{date::year{10000} / 1 / 1}.time_since_epoch().count() == 2932897);
+
+Instant earliest_supported_instant() { return Instant{Millis{kEarliestMillis}}; }
+Instant latest_supported_instant() { return Instant{Millis{kLatestMillis}}; }
+bool in_supported_range(Instant t) {
+    return t >= earliest_supported_instant() && t < latest_supported_instant();
+}
+bool in_supported_range(LocalTime t) { return in_supported_range(Instant{t.time_since_epoch()}); }
+
+std::optional<double> numeric_text(std::string_view text) {
+    text = trim(text);
+    if (text.empty()) return std::nullopt;
+    // The shape SQLite itself treats as a number: sign, digits, point, exponent.
+    std::size_t pos = 0;
+    if (text[pos] == '+' || text[pos] == '-') ++pos;
+    std::size_t mantissa_digits = 0;
+    while (pos < text.size() && is_digit(text[pos])) ++pos, ++mantissa_digits;
+    if (pos < text.size() && text[pos] == '.') {
+        ++pos;
+        while (pos < text.size() && is_digit(text[pos])) ++pos, ++mantissa_digits;
+    }
+    if (mantissa_digits == 0) return std::nullopt;
+    if (pos < text.size() && (text[pos] == 'e' || text[pos] == 'E')) {
+        ++pos;
+        if (pos < text.size() && (text[pos] == '+' || text[pos] == '-')) ++pos;
+        std::size_t exponent_digits = 0;
+        while (pos < text.size() && is_digit(text[pos])) ++pos, ++exponent_digits;
+        if (exponent_digits == 0) return std::nullopt;
+    }
+    if (pos != text.size()) return std::nullopt;
+    std::string copy(text);
+    return std::strtod(copy.c_str(), nullptr);
+}
+
+TimeValue parse_time_text(std::string_view raw) {
+    std::string_view text = trim(raw);
+    // A date never reads as a number; skip the number test for the common case.
+    bool looks_like_date = text.size() >= 10 && text[4] == '-';
+    if (auto number = looks_like_date ? std::nullopt : numeric_text(text)) {
+        // An integer-looking text behaves as the INTEGER it spells.
+        bool integral = text.find_first_of(".eE") == std::string_view::npos;
+        if (integral && std::fabs(*number) < 9.2e18) {
+            return parse_time_integer(std::strtoll(std::string(text).c_str(), nullptr, 10));
+        }
+        return parse_time_real(*number);
+    }
+
+    TimeValue value;
+    value.representation = Representation::Text;
+    // Fixed positions first: YYYY-MM-DD, then [T ]HH:MM. One length check
+    // covers the digits, which keeps the common case short.
+    auto digit = [&](std::size_t i) { return unsigned(text[i]) - '0'; };
+    auto digits_at = [&](std::initializer_list<std::size_t> places) {
+        for (std::size_t i : places)
+            if (!is_digit(text[i])) return false;
+        return true;
+    };
+    if (text.size() < 10 || text[4] != '-' || text[7] != '-' ||
+        !digits_at({0, 1, 2, 3, 5, 6, 8, 9})) {
+        fail(kExpectedForms);
+    }
+    int y = int(digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3));
+    int mo = int(digit(5) * 10 + digit(6));
+    int d = int(digit(8) * 10 + digit(9));
+    std::size_t pos = 10;
+    if (mo < 1 || mo > 12) fail("month " + two_digits(mo) + " does not exist; " + kExpectedForms);
+    date::year_month_day ymd{date::year{y}, date::month{unsigned(mo)}, date::day{unsigned(d)}};
+    if (!ymd.ok()) {
+        auto last = date::year_month_day_last{date::year{y},
+                                              date::month_day_last{date::month{unsigned(mo)}}};
+        fail("no such date: " + std::to_string(y) + "-" + two_digits(mo) + " has " +
+             std::to_string(unsigned(last.day())) + " days");
+    }
+    date::local_days day{date::days{day_number_from_civil(y, unsigned(mo), unsigned(d))}};
+    if (pos == text.size()) {
+        value.is_calendar_day = true;
+        value.day = day;
+        value.form.precision = TextForm::Precision::Date;
+        return value;
+    }
+
+    // Time of day, after a T or spaces.
+    if (text[pos] == 'T' || text[pos] == 't') {
+        value.form.t_separator = true;
+        ++pos;
+    } else if (is_space(text[pos])) {
+        while (pos < text.size() && is_space(text[pos])) ++pos;
+    } else {
+        fail(kExpectedForms);
+    }
+    int h, mi, s = 0;
+    if (text.size() < pos + 5 || text[pos + 2] != ':' ||
+        !digits_at({pos, pos + 1, pos + 3, pos + 4})) {
+        fail(kExpectedForms);
+    }
+    h = int(digit(pos) * 10 + digit(pos + 1));
+    mi = int(digit(pos + 3) * 10 + digit(pos + 4));
+    pos += 5;
+    value.form.precision = TextForm::Precision::Minutes;
+    std::int64_t fraction_millis = 0;
+    if (pos < text.size() && text[pos] == ':') {
+        ++pos;
+        if (text.size() < pos + 2 || !digits_at({pos, pos + 1})) fail(kExpectedForms);
+        s = int(digit(pos) * 10 + digit(pos + 1));
+        pos += 2;
+        value.form.precision = TextForm::Precision::Seconds;
+        if (pos < text.size() && text[pos] == '.') {
+            ++pos;
+            std::size_t start = pos;
+            double scale = 0.1, fraction = 0;
+            while (pos < text.size() && is_digit(text[pos])) {
+                fraction += (text[pos] - '0') * scale;
+                scale /= 10;
+                ++pos;
+            }
+            if (pos == start) fail(kExpectedForms);
+            fraction_millis = static_cast<std::int64_t>(fraction * 1000.0 + 0.5);
+            value.form.precision = TextForm::Precision::Fraction;
+        }
+    }
+    if (h > 23) fail("hour " + two_digits(h) + " does not exist; hours run 00 to 23");
+    if (mi > 59) fail("minute " + two_digits(mi) + " does not exist; minutes run 00 to 59");
+    if (s > 59) fail("second " + two_digits(s) + " does not exist; seconds run 00 to 59");
+
+    while (pos < text.size() && is_space(text[pos])) ++pos;
+    std::chrono::seconds offset{0};
+    if (pos < text.size()) {
+        char c = text[pos];
+        if ((c == 'Z' || c == 'z') && pos + 1 == text.size()) {
+            value.form.suffix = TextForm::Suffix::Z;
+        } else if (c == '+' || c == '-') {
+            ++pos;
+            int oh, om, os = 0;
+            if (!read_digits(text, pos, 2, oh) || pos >= text.size() || text[pos++] != ':' ||
+                !read_digits(text, pos, 2, om)) {
+                fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
+            }
+            // ±HH:MM:SS is what almanac writes for historic local mean times.
+            if (pos < text.size() && text[pos] == ':') {
+                ++pos;
+                if (!read_digits(text, pos, 2, os))
+                    fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
+            }
+            if (pos != text.size())
+                fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
+            if (oh > 14 || om > 59 || os > 59)
+                fail("zone offset out of range; offsets run -14:00 to +14:00");
+            offset = std::chrono::seconds{(c == '-' ? -1 : 1) * (oh * 3600 + om * 60 + os)};
+            value.form.suffix = TextForm::Suffix::Offset;
+            value.form.offset = offset;
+        } else {
+            fail(kExpectedForms);
+        }
+    }
+    auto local = LocalTime{day.time_since_epoch()} + hours{h} + minutes{mi} + seconds{s} +
+                 Millis{fraction_millis};
+    value.instant = Instant{local.time_since_epoch()} - offset;
+    check_range(value.instant, [] { return std::string("the time"); });
+    return value;
+}
+
+TimeValue parse_time_real(double v) {
+    if (!std::isfinite(v)) fail("expected a finite number");
+    TimeValue value;
+    Instant t;
+    if (v >= 0 && v < kLargestJulianDay) {
+        value.representation = Representation::JulianDay;
+        // SQLite rounds a Julian day to the millisecond the same way.
+        auto jd_millis = static_cast<std::int64_t>(v * 86400000.0 + 0.5);
+        t = from_unix_millis(jd_millis - kUnixEpochJulianMillis);
+        check_range(t, [v] {
+            char shown[32];
+            std::snprintf(shown, sizeof shown, "%.15g", v);
+            return std::string("Julian day ") + shown;
+        });
+    } else {
+        value.representation = Representation::UnixSeconds;
+        double ms = std::floor(v * 1000.0 + 0.5);
+        if (ms >= 4e17 || ms <= -4e17) {
+            fail("Unix seconds far past year 9999 (is it in milliseconds? divide by 1000)");
+        }
+        t = from_unix_millis(static_cast<std::int64_t>(ms));
+        if (t >= latest_supported_instant())
+            fail("Unix seconds past year 9999 (is it in milliseconds? divide by 1000)");
+        check_range(t, [] { return std::string("the Unix time"); });
+    }
+    value.instant = t;
+    return value;
+}
+
+TimeValue parse_time_integer(std::int64_t v) {
+    if (v >= 0 && v < 5373484) {
+        TimeValue value = parse_time_real(static_cast<double>(v));
+        return value;
+    }
+    TimeValue value;
+    value.representation = Representation::UnixSeconds;
+    value.integer_input = true;
+    // 253402300800 is 10000-01-01 00:00:00 UTC.
+    if (v >= 253402300800LL)
+        fail("Unix seconds past year 9999 (is it in milliseconds? divide by 1000)");
+    if (v < -62167219200LL) fail("Unix seconds before year 0000");
+    value.instant = from_unix_millis(v * 1000);
+    return value;
+}
+
+double to_julian_day(Instant t) {
+    return static_cast<double>(t.time_since_epoch().count() + kUnixEpochJulianMillis) / 86400000.0;
+}
+double to_unix_seconds_real(Instant t) {
+    return static_cast<double>(t.time_since_epoch().count()) / 1000.0;
+}
+std::int64_t to_unix_seconds_integer(Instant t) {
+    return date::floor<seconds>(t).time_since_epoch().count();
+}
+
+namespace {
+// Writes n digits of v at out, two at a time; faster than snprintf, which
+// matters because it runs once per row.
+constexpr char kDigitPairs[] =
+    "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
+    "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
+    "8081828384858687888990919293949596979899";
+char* put_digits(char* out, unsigned v, int n) {
+    int i = n;
+    while (i >= 2) {
+        i -= 2;
+        const char* pair = kDigitPairs + 2 * (v % 100);
+        out[i] = pair[0];
+        out[i + 1] = pair[1];
+        v /= 100;
+    }
+    if (i == 1) out[0] = static_cast<char>('0' + v % 10);
+    return out + n;
+}
+}  // namespace
+
+char* write_date(char* out, date::local_days day) {
+    CivilDate civil =
+        civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
+    out = put_digits(out, static_cast<unsigned>(civil.year), 4);
+    *out++ = '-';
+    out = put_digits(out, civil.month, 2);
+    *out++ = '-';
+    return put_digits(out, civil.day, 2);
+}
+
+std::string format_date(date::local_days day) {
+    char buffer[10];
+    return std::string(buffer, write_date(buffer, day));
+}
+
+std::string format_date_time(LocalTime t, TextForm::Precision precision, bool t_separator) {
+    auto day = date::floor<date::days>(t);
+    auto time_of_day = date::hh_mm_ss<Millis>{t - day};
+    std::string text = format_date(day);
+    if (precision == TextForm::Precision::Date) return text;
+    char buffer[16];
+    char* out = buffer;
+    *out++ = t_separator ? 'T' : ' ';
+    out = put_digits(out, unsigned(time_of_day.hours().count()), 2);
+    *out++ = ':';
+    out = put_digits(out, unsigned(time_of_day.minutes().count()), 2);
+    if (precision != TextForm::Precision::Minutes) {
+        *out++ = ':';
+        out = put_digits(out, unsigned(time_of_day.seconds().count()), 2);
+    }
+    if (precision == TextForm::Precision::Fraction) {
+        *out++ = '.';
+        out = put_digits(out, unsigned(time_of_day.subseconds().count()), 3);
+    }
+    text.append(buffer, out);
+    return text;
+}
+
+std::string format_offset(std::chrono::seconds offset) {
+    auto total = offset.count();
+    char buffer[12];
+    char* out = buffer;
+    *out++ = total < 0 ? '-' : '+';
+    unsigned magnitude = static_cast<unsigned>(total < 0 ? -total : total);
+    out = put_digits(out, magnitude / 3600, 2);
+    *out++ = ':';
+    out = put_digits(out, magnitude / 60 % 60, 2);
+    // Offsets of whole minutes are the rule; historic local mean times have
+    // seconds, which ±HH:MM cannot carry, so they are written ±HH:MM:SS.
+    if (magnitude % 60 != 0) {
+        *out++ = ':';
+        out = put_digits(out, magnitude % 60, 2);
+    }
+    return std::string(buffer, out);
+}
+
+}  // namespace almanac

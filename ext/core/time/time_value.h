@@ -1,0 +1,83 @@
+// SPDX-License-Identifier: MIT
+// Time values as almanac reads them: the TEXT forms SQLite's date functions
+// accept, and numbers by SQLite's `auto` rule (a Julian day when
+// 0 <= v < 5373484.5, Unix seconds otherwise). Three different meanings get
+// three different types, in the spirit of the date library:
+//   Instant    a point on the UTC time line, in milliseconds;
+//   LocalTime  a reading of some wall clock (a zone's or UTC's);
+//   date::local_days  a calendar day, not yet placed in any zone.
+// A parsed value also remembers how it was written, so results can be given
+// back in the caller's own representation.
+#pragma once
+
+#include <date/date.h>
+
+#include <chrono>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+
+namespace almanac {
+
+using Millis = std::chrono::duration<std::int64_t, std::milli>;
+using Instant = date::sys_time<Millis>;
+using LocalTime = date::local_time<Millis>;
+
+// How a value was written, which decides how a result is written back.
+enum class Representation {
+    Text,         // TEXT in, TEXT out
+    UnixSeconds,  // number read as Unix seconds
+    JulianDay,    // number read as a Julian day number; results are REAL
+};
+
+// The shape of a TEXT time value, kept so period_shift can answer in it.
+struct TextForm {
+    enum class Precision { Date, Minutes, Seconds, Fraction };
+    enum class Suffix { None, Z, Offset };
+    Precision precision = Precision::Date;
+    bool t_separator = false;
+    Suffix suffix = Suffix::None;
+    std::chrono::seconds offset{0};  // when suffix == Offset
+};
+
+struct TimeValue {
+    Representation representation = Representation::Text;
+    bool integer_input = false;  // an INTEGER Unix time gives INTEGER results
+    TextForm form;
+    // A bare YYYY-MM-DD is a calendar day: it is placed in a zone only when
+    // the caller has one. Every other value is an instant.
+    bool is_calendar_day = false;
+    date::local_days day{};  // when is_calendar_day
+    Instant instant{};       // otherwise
+};
+
+// Parsers throw almanac::Error saying what was expected. They accept exactly
+// what valid_time() accepts.
+TimeValue parse_time_text(std::string_view text);
+TimeValue parse_time_real(double value);
+TimeValue parse_time_integer(std::int64_t value);
+
+// SQLite reads numeric TEXT as a number; so do we. Returns the number when
+// the whole text (surrounding spaces allowed) is a decimal number.
+std::optional<double> numeric_text(std::string_view text);
+
+// Limits of the supported calendar, years 0000 through 9999.
+Instant earliest_supported_instant();
+Instant latest_supported_instant();  // exclusive
+bool in_supported_range(Instant t);
+bool in_supported_range(LocalTime t);
+
+// Conversions between the numeric representations and instants.
+double to_julian_day(Instant t);
+double to_unix_seconds_real(Instant t);
+std::int64_t to_unix_seconds_integer(Instant t);  // floor to the second
+
+// Text writers. A local reading with an offset gets it appended as ±HH:MM.
+std::string format_date(date::local_days day);
+// Writes YYYY-MM-DD (10 bytes) at out and returns the end; no allocation.
+char* write_date(char* out, date::local_days day);
+std::string format_date_time(LocalTime t, TextForm::Precision precision, bool t_separator);
+std::string format_offset(std::chrono::seconds offset);
+
+}  // namespace almanac
