@@ -53,7 +53,7 @@ range AS (
 ),
 daily_sales AS (
   -- A day's takings in cents, so the smooth line is the mean of the amounts the raw line shows.
-  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, round(sum(s.amount), 2) AS amount
+  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, round(exact_sum(s.amount), 2) AS amount
   FROM sales AS s, settings, range
   WHERE (@item IS NULL OR s.item = @item)
     AND period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
@@ -61,7 +61,7 @@ daily_sales AS (
   GROUP BY 1, 2
 ),
 chosen AS (
-  SELECT item FROM daily_sales GROUP BY item ORDER BY sum(amount) DESC, item LIMIT coalesce(@top, 3)
+  SELECT item FROM daily_sales GROUP BY item ORDER BY exact_sum(amount) DESC, item LIMIT coalesce(@top, 3)
 ),
 daily AS (
   SELECT c.item, p.serial, p.period_start AS day, coalesce(t.amount, 0) AS amount

@@ -57,7 +57,7 @@ weeks AS (
   FROM settings, range, periods(range.start, range.stop, 'week', settings.zone) AS p
 ),
 weekly_sales AS (
-  SELECT period_serial(s.ts, 'week', settings.zone) AS serial, s.item, sum(s.amount) AS amount
+  SELECT period_serial(s.ts, 'week', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
   FROM sales AS s, settings, range
   WHERE period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
     AND period_serial(s.ts, 'day', settings.zone) < period_serial(range.stop, 'day', settings.zone)

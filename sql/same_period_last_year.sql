@@ -64,7 +64,7 @@ range AS (
   FROM sales AS s, settings
 ),
 totals AS (
-  SELECT period_serial(c.ts, settings.spec, settings.zone) AS serial, c.item, sum(c.amount) AS amount
+  SELECT period_serial(c.ts, settings.spec, settings.zone) AS serial, c.item, exact_sum(c.amount) AS amount
   FROM chosen AS c, settings, range
   WHERE c.day >= period_serial(range.start, 'day', settings.zone)
     AND c.day < period_serial(range.stop, 'day', settings.zone)

@@ -61,7 +61,7 @@ range AS (
 -- Sales summed per period; only periods that have sales appear here.
 totals AS (
   SELECT period_serial(c.ts, settings.spec, settings.zone) AS serial, c.item,
-         count(*) AS sales, sum(c.qty) AS qty, sum(c.amount) AS amount,
+         count(*) AS sales, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount,
          count(DISTINCT c.day) AS days_with_sales
   FROM chosen AS c, settings, range
   WHERE c.day >= period_serial(range.start, 'day', settings.zone)

@@ -54,7 +54,7 @@ range AS (
   FROM sales AS s, settings
 ),
 daily_sales AS (
-  SELECT c.day AS serial, c.item, sum(c.qty) AS qty, sum(c.amount) AS amount
+  SELECT c.day AS serial, c.item, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount
   FROM chosen AS c, settings, range
   WHERE c.day >= period_serial(range.start, 'day', settings.zone)
     AND c.day < period_serial(range.stop, 'day', settings.zone)
@@ -72,13 +72,13 @@ daily AS (
 ),
 profile AS (
   SELECT item, weekday, count(*) AS days, count(sold) AS days_with_sales,
-         coalesce(sum(qty), 0) AS qty, coalesce(sum(amount), 0) AS amount,
+         coalesce(exact_sum(qty), 0) AS qty, coalesce(exact_sum(amount), 0) AS amount,
          avg(amount) AS mean, median(amount) AS median
   FROM daily
   GROUP BY item, weekday
 ),
 overall AS (
-  SELECT item, sum(amount) AS amount, sum(amount) / sum(days_with_sales) AS mean_day
+  SELECT item, exact_sum(amount) AS amount, exact_sum(amount) / exact_sum(days_with_sales) AS mean_day
   FROM profile
   GROUP BY item
 )

@@ -11,5 +11,6 @@ int register_periods_table(sqlite3* db);
 int register_statistics_functions(sqlite3* db);
 int register_order_statistics_functions(sqlite3* db);
 int register_report_functions(sqlite3* db);
+int register_export_functions(sqlite3* db);
 
 }  // namespace almanac::sqlite
