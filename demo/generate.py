@@ -6,11 +6,14 @@ Hollow Oak is made up for this demo: three shops (Millrace, Quarry Hill,
 Lantern Square) in the America/Denver time zone, twelve items, one row per
 sale in a table
 
-    sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, shop TEXT)
+    sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, shop TEXT,
+          segment TEXT AS (shop))
 
 with ts the UTC time of the sale as 'YYYY-MM-DD HH:MM:SS' (what a
 point-of-sale export usually holds), qty the units sold and amount what was
 paid (a promotion sells at a discount, so amount is not always qty x price).
+segment is a generated column, the shop: the reports' @by_segment breaks their
+figures down by it.
 
 The default range is 2023-01-02 .. 2025-12-28 local: exactly the ISO weeks
 2023-W01 .. 2025-W52, three whole years, so weekly trends are not pulled by a
@@ -143,7 +146,8 @@ def generate(connection, seed, start, end, scale):
     refit_shop, refit_first, refit_last = REFIT[0], dt.date.fromisoformat(REFIT[1]), dt.date.fromisoformat(REFIT[2])
 
     connection.execute("DROP TABLE IF EXISTS sales")
-    connection.execute("CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, shop TEXT)")
+    connection.execute("CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, shop TEXT,"
+                       " segment TEXT AS (shop))")
     insert = "INSERT INTO sales(ts, item, qty, amount, shop) VALUES (?, ?, ?, ?, ?)"
     rows_written = 0
     day = start

@@ -73,18 +73,20 @@ escape_html() { sed -e 's/&/\&amp;/g' -e 's/</\&lt;/g' -e 's/>/\&gt;/g'; }
 
 section() { printf '\n== %s ==\n' "$1"; }
 
-section "Weekly totals, last 13 ISO weeks (sql/totals_week.sql)"
-report sql/totals_week.sql column last 13
-section "Monthly totals (sql/totals_month.sql)"
-report sql/totals_month.sql column
+section "The latest week against the week before and the same ISO week a year earlier, per shop (sql/compare.sql)"
+report sql/compare.sql column by_segment 1
+section "The latest month to date against the month before and a year earlier (sql/compare.sql)"
+report sql/compare.sql column unit month
+section "Weekly totals, last 13 ISO weeks (sql/totals.sql)"
+report sql/totals.sql column last 13
+section "Monthly totals (sql/totals.sql, @unit month)"
+report sql/totals.sql column unit month
 section "Trend per item, weekly amounts (sql/trend.sql)"
 report sql/trend.sql column
 section "Noise ranking, noisiest first (sql/noise_ranking.sql)"
 report sql/noise_ranking.sql column
 section "Weekday profile (sql/weekday_profile.sql)"
 report sql/weekday_profile.sql column
-section "Same ISO week last year, last 6 weeks (sql/same_period_last_year.sql)"
-report sql/same_period_last_year.sql column last 6
 
 # Charts: the top three items together, then one chart for each of the twelve largest.
 report sql/daily_chart.sql list > "$out/chart_top_items.svg"
@@ -131,12 +133,11 @@ HEAD
   html_table "Noise ranking" "Spread of the weeks around each item's trend line, relative to its mean week; noisiest first." \
     sql/noise_ranking.sql
   html_table "Weekly totals, last 13 weeks" "Every ISO week shown; a week without sales would be a row of zeros." \
-    sql/totals_week.sql last 13
-  html_table "Monthly totals" "Means are NULL (empty) where a month has no sales." sql/totals_month.sql
-  html_table "Fiscal quarters (fiscal year from October)" "" sql/totals_fiscal_quarter.sql
+    sql/totals.sql last 13
+  html_table "Monthly totals" "Means are NULL (empty) where a month has no sales." sql/totals.sql unit month
+  html_table "Fiscal quarters (fiscal year from October)" "" sql/totals.sql unit "quarter starting october"
   html_table "Weekday profile" "Mean and median of a day with sales; index 100 = the average such day." \
     sql/weekday_profile.sql
-  html_table "Same ISO week last year, last 13 weeks" "" sql/same_period_last_year.sql last 13
   printf '<h2>Each item</h2>\n'
   for i in "${!chart_files[@]}"; do
     printf '<h3>%s</h3>\n<div class="chart">\n' "$(printf '%s' "${chart_items[$i]}" | escape_html)"

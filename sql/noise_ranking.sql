@@ -38,7 +38,7 @@
 --   sd_pct           100 * stddev_samp / mean_per_week: the same without taking the trend out
 --   Seasons count as scatter here (a line has no seasons), so a seasonal item
 --   ranks as noisy; compare a season with the same weeks of last year instead
---   (sql/same_period_last_year.sql).
+--   (sql/compare.sql).
 --
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \

@@ -28,11 +28,13 @@ def local_day(ts, zone):
 
 
 class Sale:
-    __slots__ = ("day", "item", "qty", "amount")
+    __slots__ = ("day", "item", "qty", "amount", "segment")
 
     def __init__(self, row, zone):
         self.day = local_day(row[0], zone)
         self.item, self.qty, self.amount = row[1], row[2], row[3]
+        # The optional fifth column; a row without one, or a NULL, is in segment '(none)'.
+        self.segment = row[4] if len(row) > 4 and row[4] is not None else "(none)"
 
 
 def sales_of(rows, zone):
@@ -101,26 +103,106 @@ def chosen(sales, choice):
 
 # --- the reports ----------------------------------------------------------------------------
 
-def period_totals(rows, zone, period_of, item=None, start=None, stop=None):
-    """sql/totals_*.sql: one row per period and item, empty periods as 0 / NULL means."""
+def period_days(period_of, start):
+    """Local calendar days of the period that begins on `start`."""
+    day = start
+    while period_of(day)[0] == start:
+        day += dt.timedelta(days=1)
+    return (day - start).days
+
+
+def segments_of(sales, by_segment):
+    """'all segments' first, then each segment in sorted order when asked for."""
+    return ["all segments"] + (sorted({s.segment for s in sales}) if by_segment else [])
+
+
+def in_segment(sale, segment):
+    return segment == "all segments" or sale.segment == segment
+
+
+def period_totals(rows, zone, period_of, item=None, start=None, stop=None, by_segment=False):
+    """sql/totals.sql: one row per period, segment and item, empty periods as 0 / NULL
+    means, and how many of the period's days lie inside [first, after)."""
     sales = sales_of(rows, zone)
     first, after = day_range(sales, start, stop)
     picked = chosen(sales, item)
     keys = sorted({item_key(s, item) for s in picked})
+    segments = segments_of(sales, by_segment)
     cells = defaultdict(list)
     for s in picked:
         if first <= s.day < after:
-            cells[(period_of(s.day)[0], item_key(s, item))].append(s)
+            for segment in segments:
+                if in_segment(s, segment):
+                    cells[(period_of(s.day)[0], segment, item_key(s, item))].append(s)
     result = []
     for start_day, label in enumerate_periods(period_of, first, after):
+        length = period_days(period_of, start_day)
+        end_day = start_day + dt.timedelta(days=length)
+        covered = (min(end_day, after) - max(start_day, first)).days
+        for segment in segments:
+            for key in keys:
+                group = cells.get((start_day, segment, key), [])
+                amount = math.fsum(s.amount for s in group)
+                days = len({s.day for s in group})
+                result.append(dict(label=label, segment=segment, item=key, days_in_period=length,
+                                   days_covered=covered, complete=int(covered == length),
+                                   sales=len(group), qty=sum(s.qty for s in group),
+                                   amount=amount, days_with_sales=days,
+                                   amount_per_day=amount / days if days else None,
+                                   mean_sale=amount / len(group) if group else None))
+    return result
+
+
+def compare(rows, zone, period_of, year_back, item=None, by_segment=False, stop=None):
+    """sql/compare.sql: the period holding the last day, to date, against the previous
+    period and the period a year earlier (year_back(start) gives its start, or None),
+    each over the same number of days from its start, cut at the end of the base period.
+    Trading days: the days of a span with any sale of the segment."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales, None, stop)
+    last = after - dt.timedelta(days=1)
+    start, label = period_of(last)
+    length = period_days(period_of, start)
+    elapsed = (after - start).days
+    picked = chosen(sales, item)
+    keys = sorted({item_key(s, item) for s in picked})
+    bases = [("previous", period_of(start - dt.timedelta(days=1))[0]), ("year", year_back(start))]
+
+    def span_figures(segment, key, begin, days):
+        end = begin + dt.timedelta(days=days)
+        inside = [s for s in sales if begin <= s.day < end and in_segment(s, segment)]
+        trading = len({s.day for s in inside})
+        amount = math.fsum(s.amount for s in inside
+                           if (item is None or item == "*" or s.item == item) and item_key(s, item) == key)
+        return amount, trading
+
+    result = []
+    for segment in segments_of(sales, by_segment):
         for key in keys:
-            group = cells.get((start_day, key), [])
-            amount = math.fsum(s.amount for s in group)
-            days = len({s.day for s in group})
-            result.append(dict(label=label, item=key, sales=len(group), qty=sum(s.qty for s in group),
-                               amount=amount, days_with_sales=days,
-                               amount_per_day=amount / days if days else None,
-                               mean_sale=amount / len(group) if group else None))
+            amount, trading = span_figures(segment, key, start, elapsed)
+            for against, base_start in bases:
+                row = dict(segment=segment, item=key, period=label, days_in_period=length, days_covered=elapsed,
+                           complete=int(elapsed == length),
+                           span=f"{start.isoformat()}..{(start + dt.timedelta(days=elapsed - 1)).isoformat()}",
+                           trading_days=trading, amount=amount,
+                           per_trading_day=amount / trading if trading else None, against=against,
+                           base_period=None, base_span=None, base_trading_days=None, base_amount=None,
+                           base_per_trading_day=None, change_pct=None, change_per_day_pct=None)
+                if base_start is not None:
+                    base_days = min(elapsed, period_days(period_of, base_start))
+                    row["base_period"] = period_of(base_start)[1]
+                    row["base_span"] = (f"{base_start.isoformat()}.."
+                                        f"{(base_start + dt.timedelta(days=base_days - 1)).isoformat()}")
+                    if base_start >= first and base_start + dt.timedelta(days=base_days) <= after:
+                        base_amount, base_trading = span_figures(segment, key, base_start, base_days)
+                        row.update(base_trading_days=base_trading, base_amount=base_amount,
+                                   base_per_trading_day=base_amount / base_trading if base_trading else None)
+                        if base_amount:
+                            row["change_pct"] = 100 * (amount - base_amount) / base_amount
+                        if row["per_trading_day"] is not None and row["base_per_trading_day"]:
+                            row["change_per_day_pct"] = (100 * (row["per_trading_day"] - row["base_per_trading_day"])
+                                                         / row["base_per_trading_day"])
+                result.append(row)
     return result
 
 
@@ -250,25 +332,6 @@ def last_year_of_start(start):
     """Any other unit: the period start twelve months earlier (period starts are on
     the 1st or the 16th, so no clamping arises)."""
     return start.replace(year=start.year - 1)
-
-
-def same_period_last_year(rows, zone, period_of, counterpart, item=None):
-    """sql/same_period_last_year.sql."""
-    totals = period_totals(rows, zone, period_of, item)
-    sales = sales_of(rows, zone)
-    first, after = day_range(sales)
-    starts = {label: start for start, label in enumerate_periods(period_of, first, after)}
-    by_start = {(starts[row["label"]], row["item"]): row["amount"] for row in totals}
-    result = []
-    for row in totals:
-        previous = counterpart(starts[row["label"]])
-        last_amount = by_start.get((previous, row["item"])) if previous else None
-        result.append(dict(period=row["label"], item=row["item"], amount=row["amount"],
-                           last_year_period=period_of(previous)[1] if previous else None,
-                           last_year_amount=last_amount,
-                           change=row["amount"] - last_amount if last_amount is not None else None,
-                           change_pct=100 * (row["amount"] - last_amount) / last_amount if last_amount else None))
-    return result
 
 
 def chart_points(rows, zone, top=3, item=None):

@@ -171,17 +171,19 @@ def test_generator_is_deterministic_and_has_the_promised_shape(tmp_path):
 # --- period totals ---------------------------------------------------------------------------
 
 TOTALS = {
-    "totals_week": ("week", oracle.week_of),
-    "totals_half_month": ("half_month", oracle.half_month_of),
-    "totals_month": ("month", oracle.month_of),
-    "totals_fiscal_quarter": ("fiscal_quarter", oracle.fiscal_quarter_of(10)),
+    "week": oracle.week_of,
+    "half-month": oracle.half_month_of,
+    "month": oracle.month_of,
+    "quarter starting october": oracle.fiscal_quarter_of(10),
 }
 
 
-def check_totals(got, expected, column):
+def check_totals(got, expected):
     assert len(got) == len(expected)  # oracle: report_oracle.enumerate_periods (datetime days)
     for g, e in zip(got, expected):
-        assert g[column] == e["label"] and g["item"] == e["item"]   # oracle: date.isocalendar / calendar labels
+        assert (g["period"], g["segment"], g["item"]) == (e["label"], e["segment"], e["item"])  # oracle: date.isocalendar / calendar labels
+        assert (g["days_in_period"], g["days_covered"], g["complete"]) == (
+            e["days_in_period"], e["days_covered"], e["complete"])  # oracle: datetime day counts (report_oracle.period_days)
         assert (g["sales"], g["qty"], g["days_with_sales"]) == (e["sales"], e["qty"], e["days_with_sales"])  # oracle: plain Python counts
         assert close(g["amount"], e["amount"], 2)                   # oracle: math.fsum over the period's rows
         assert close(g["amount_per_day"], e["amount_per_day"], 2)   # oracle: fsum / distinct local days, None when 0
@@ -189,33 +191,39 @@ def check_totals(got, expected, column):
     count("period total rows", len(got))
 
 
-@pytest.mark.parametrize("name", sorted(TOTALS))
-def test_period_totals_match_plain_python_sums(database, name):
+@pytest.mark.parametrize("unit", sorted(TOTALS))
+def test_period_totals_match_plain_python_sums(database, unit):
     path, rows = database
-    column, period_of = TOTALS[name]
-    check_totals(report(path, name, zone=ZONE), oracle.period_totals(rows, ZONE, period_of), column)
+    check_totals(report(path, "totals", zone=ZONE, unit=unit), oracle.period_totals(rows, ZONE, TOTALS[unit]))
 
 
-@pytest.mark.parametrize("name", sorted(TOTALS))
-def test_period_totals_per_item_and_for_one_item(fixture_db, name):
+@pytest.mark.parametrize("unit", sorted(TOTALS))
+def test_period_totals_per_item_and_for_one_item(fixture_db, unit):
     path, rows = fixture_db
-    column, period_of = TOTALS[name]
-    check_totals(report(path, name, zone=ZONE, item="*"), oracle.period_totals(rows, ZONE, period_of, "*"), column)
-    check_totals(report(path, name, zone=ZONE, item="Winter soup"),
-                 oracle.period_totals(rows, ZONE, period_of, "Winter soup"), column)
+    period_of = TOTALS[unit]
+    check_totals(report(path, "totals", zone=ZONE, unit=unit, item="*"),
+                 oracle.period_totals(rows, ZONE, period_of, "*"))
+    check_totals(report(path, "totals", zone=ZONE, unit=unit, item="Winter soup"),
+                 oracle.period_totals(rows, ZONE, period_of, "Winter soup"))
+
+
+def test_the_unit_defaults_to_the_iso_week(fixture_db):
+    path, rows = fixture_db
+    check_totals(report(path, "totals", zone=ZONE), oracle.period_totals(rows, ZONE, oracle.week_of))
 
 
 def test_empty_periods_are_zero_for_sums_and_null_for_means(fixture_db):
     path, _ = fixture_db
-    weeks = {row["week"]: row for row in report(path, "totals_week", zone=ZONE)}
-    months = {row["month"]: row for row in report(path, "totals_month", zone=ZONE)}
-    halves = {row["half_month"]: row for row in report(path, "totals_half_month", zone=ZONE)}
+    weeks = {row["period"]: row for row in report(path, "totals", zone=ZONE)}
+    months = {row["period"]: row for row in report(path, "totals", zone=ZONE, unit="month")}
+    halves = {row["period"]: row for row in report(path, "totals", zone=ZONE, unit="half-month")}
     # The fixture is closed 2020-06-01..30: ISO weeks 23-26 of 2020 lie wholly inside
     # (oracle: date(2020,6,1).isocalendar() is (2020, 23, 1), date(2020,6,28) is (2020, 26, 7)).
     for empty in [weeks[f"2020-W{w}"] for w in (23, 24, 25, 26)] + [months["2020-06"], halves["2020-06 (1-15)"],
                                                                      halves["2020-06 (16-30)"]]:
         assert (empty["sales"], empty["qty"], empty["amount"], empty["days_with_sales"]) == (0, 0, 0, 0)  # common practice: an empty period sums to 0
         assert empty["amount_per_day"] is None and empty["mean_sale"] is None  # common practice: a mean of nothing is NULL
+        assert empty["complete"] == 1  # a closed month is covered by the data, only empty
     # ISO year 2020 has 53 weeks (oracle: date(2020, 12, 31).isocalendar()[1] == 53).
     assert "2020-W53" in weeks and dt.date(2020, 12, 31).isocalendar()[1] == 53
     count("empty periods", 7)
@@ -223,10 +231,10 @@ def test_empty_periods_are_zero_for_sums_and_null_for_means(fixture_db):
 
 def test_a_range_from_parameters_and_a_view_over_another_table(fixture_db, tmp_path):
     path, rows = fixture_db
-    got = report(path, "totals_month", zone=ZONE, start="2020-03-01", stop="2020-09-01")
+    got = report(path, "totals", zone=ZONE, unit="month", start="2020-03-01", stop="2020-09-01")
     expected = oracle.period_totals(rows, ZONE, oracle.month_of, start=dt.date(2020, 3, 1), stop=dt.date(2020, 9, 1))
-    check_totals(got, expected, "month")
-    assert [row["month"] for row in got] == ["2020-03", "2020-04", "2020-05", "2020-06", "2020-07", "2020-08"]  # oracle: calendar months Mar..Aug
+    check_totals(got, expected)
+    assert [row["period"] for row in got] == ["2020-03", "2020-04", "2020-05", "2020-06", "2020-07", "2020-08"]  # oracle: calendar months Mar..Aug
     # A table of another shape, reached through the temp view the report headers describe.
     other = tmp_path / "other.db"
     connection = sqlite3.connect(other)
@@ -234,11 +242,72 @@ def test_a_range_from_parameters_and_a_view_over_another_table(fixture_db, tmp_p
     connection.executemany("INSERT INTO pos_export VALUES (?, ?, ?, ?)", rows)
     connection.commit()
     connection.close()
-    script = (".parameter set @zone America/Denver\n.mode json\n"
+    script = (".parameter set @zone America/Denver\n.parameter set @unit month\n.mode json\n"
               "CREATE TEMP VIEW sales AS SELECT sold_at AS ts, product AS item, units AS qty, total AS amount"
-              " FROM pos_export;\n" + (SQL / "totals_month.sql").read_text())
+              " FROM pos_export;\n" + (SQL / "totals.sql").read_text())
     check_totals(json.loads(run_shell(script, database=str(other))),
-                 oracle.period_totals(rows, ZONE, oracle.month_of), "month")
+                 oracle.period_totals(rows, ZONE, oracle.month_of))
+
+
+# --- data that ends mid-week and mid-month, in three segments ---------------------------------
+
+PARTIAL_LAST = dt.date(2021, 2, 17)  # a Wednesday (date(2021, 2, 17).isoweekday() == 3), mid-February
+SEGMENTS = ["North", "South", "West"]
+
+
+@pytest.fixture(scope="module")
+def partial_db(tmp_path_factory):
+    """The fixture's rows up to PARTIAL_LAST, each in one of three segments (seeded)."""
+    rng = random.Random(5)
+    rows = [row + (rng.choice(SEGMENTS),) for row in fixture_rows()
+            if oracle.local_day(row[0], ZONE) <= PARTIAL_LAST]
+    path = tmp_path_factory.mktemp("partial") / "partial.db"
+    connection = sqlite3.connect(path)
+    connection.execute("CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, segment TEXT)")
+    connection.executemany("INSERT INTO sales VALUES (?, ?, ?, ?, ?)", rows)
+    connection.commit()
+    connection.close()
+    return path, rows
+
+
+@pytest.mark.parametrize("unit", sorted(TOTALS))
+def test_totals_flag_the_partial_last_period_and_break_down_by_segment(partial_db, unit):
+    path, rows = partial_db
+    got = report(path, "totals", zone=ZONE, unit=unit, item="*", by_segment=1)
+    check_totals(got, oracle.period_totals(rows, ZONE, TOTALS[unit], "*", by_segment=True))
+    last = got[-1]
+    assert last["complete"] == 0 and last["days_covered"] < last["days_in_period"]  # oracle: 2021-02-17 is a Wednesday, mid-month
+    assert all(row["complete"] == 1 for row in got if row["period"] != last["period"] and row["period"] != got[0]["period"])
+
+
+@pytest.mark.parametrize("unit", ["week", "month"])
+def test_segments_add_up_exactly_to_the_all_segments_row(partial_db, unit):
+    path, _ = partial_db
+    got = report(path, "totals", zone=ZONE, unit=unit, item="*", by_segment=1)
+    whole = {(row["period"], row["item"]): row for row in got if row["segment"] == "all segments"}
+    parts = {}
+    for row in got:
+        if row["segment"] != "all segments":
+            part = parts.setdefault((row["period"], row["item"]), dict(sales=0, qty=0, amount=[]))
+            part["sales"] += row["sales"]
+            part["qty"] += row["qty"]
+            part["amount"].append(row["amount"])
+    assert {row["segment"] for row in got} == {"all segments", *SEGMENTS}
+    assert parts.keys() == whole.keys()
+    for key, part in parts.items():
+        # oracle: math.fsum of the three segments' amounts; the fixture's prices are binary
+        # fractions, so every sum is exact and the parts equal the whole bit for bit
+        assert math.fsum(part["amount"]) == whole[key]["amount"]
+        assert (part["sales"], part["qty"]) == (whole[key]["sales"], whole[key]["qty"])
+    count("segment sums", len(parts))
+
+
+def test_a_table_without_a_segment_column_is_one_segment(fixture_db):
+    path, rows = fixture_db
+    got = report(path, "totals", zone=ZONE, unit="month", by_segment=1)
+    # Rows without a segment are segment '(none)': that row equals the whole (report_oracle.period_totals).
+    check_totals(got, oracle.period_totals(rows, ZONE, oracle.month_of, by_segment=True))
+    assert {row["segment"] for row in got} == {"all segments", "(none)"}
 
 
 # --- trend and noise -------------------------------------------------------------------------
@@ -341,48 +410,95 @@ def test_weekday_profile_per_item(fixture_db):
     assert max(profile, key=lambda d: profile[d]["mean_per_day"]) == "Saturday"
 
 
-# --- same period last year -------------------------------------------------------------------
+# --- like-for-like comparison ----------------------------------------------------------------
 
-def check_last_year(got, expected):
+def year_back(period_of):
+    """The start of the period a year earlier: the same ISO week of the previous ISO year
+    for weeks (date.fromisocalendar), else the period holding the start 12 months back."""
+    if period_of is oracle.week_of:
+        return oracle.last_year_of_week
+    return lambda start: period_of(oracle.last_year_of_start(start))[0]
+
+
+def check_compare(got, expected):
     assert len(got) == len(expected)
     for g, e in zip(got, expected):
-        assert (g["period"], g["item"], g["last_year_period"]) == (e["period"], e["item"], e["last_year_period"])  # oracle: date.fromisocalendar(year - 1, week, 1) / date.replace(year=-1)
-        assert close(g["amount"], e["amount"], 2)                      # oracle: math.fsum
-        assert close(g["last_year_amount"], e["last_year_amount"], 2)  # oracle: math.fsum, None outside the data
-        assert close(g["change"], e["change"], 2)
-        assert close(g["change_pct"], e["change_pct"], 1)
-    count("last-year rows", len(got))
+        for column in ("segment", "item", "period", "days_in_period", "days_covered", "complete", "span",
+                       "trading_days", "against", "base_period", "base_span", "base_trading_days"):
+            assert g[column] == e[column], column  # oracle: datetime day arithmetic and labels, report_oracle.compare
+        for column in ("amount", "per_trading_day", "base_amount", "base_per_trading_day"):
+            assert close(g[column], e[column], 2), column  # oracle: math.fsum over the span's rows
+        for column in ("change_pct", "change_per_day_pct"):
+            assert close(g[column], e[column], 1), column  # oracle: 100 * (now - base) / base on the fsum values
+    count("comparison rows", len(got))
 
 
-def test_same_iso_week_last_year(database):
-    path, rows = database
-    check_last_year(report(path, "same_period_last_year", zone=ZONE),
-                    oracle.same_period_last_year(rows, ZONE, oracle.week_of, oracle.last_year_of_week))
+@pytest.mark.parametrize("unit", sorted(TOTALS))
+def test_the_latest_period_to_date_against_matched_spans(partial_db, unit):
+    path, rows = partial_db
+    period_of = TOTALS[unit]
+    got = report(path, "compare", zone=ZONE, unit=unit, by_segment=1)
+    check_compare(got, oracle.compare(rows, ZONE, period_of, year_back(period_of), by_segment=True))
+    assert got[0]["complete"] == 0  # oracle: the data ends on Wednesday 2021-02-17, inside every unit's period
 
 
-def test_same_month_and_fiscal_quarter_last_year(fixture_db):
-    path, rows = fixture_db
-    check_last_year(report(path, "same_period_last_year", zone=ZONE, unit="month", item="*"),
-                    oracle.same_period_last_year(rows, ZONE, oracle.month_of, oracle.last_year_of_start, "*"))
-    check_last_year(report(path, "same_period_last_year", zone=ZONE, unit="quarter starting october"),
-                    oracle.same_period_last_year(rows, ZONE, oracle.fiscal_quarter_of(10), oracle.last_year_of_start))
-    check_last_year(report(path, "same_period_last_year", zone=ZONE, unit="half-month"),
-                    oracle.same_period_last_year(rows, ZONE, oracle.half_month_of, oracle.last_year_of_start))
+def test_a_comparison_per_item_and_against_one_base(partial_db):
+    path, rows = partial_db
+    got = report(path, "compare", zone=ZONE, unit="month", item="*")
+    check_compare(got, oracle.compare(rows, ZONE, oracle.month_of, year_back(oracle.month_of), item="*"))
+    only_year = report(path, "compare", zone=ZONE, unit="month", item="*", against="year")
+    assert only_year == [row for row in got if row["against"] == "year"]
 
 
-def test_iso_week_counterparts_across_a_53_week_year(fixture_db):
-    path, _ = fixture_db
-    got = {row["period"]: row for row in report(path, "same_period_last_year", zone=ZONE)}
-    # ISO 2020 has 53 weeks, so 2021-W01 pairs with 2020-W01, 53 weeks back, not with
+def test_matched_spans_on_the_demo_data(demo_db):
+    path, rows = demo_db
+    got = report(path, "compare", zone=ZONE, unit="half-month", stop="2025-12-29")
+    check_compare(got, oracle.compare(rows, ZONE, oracle.half_month_of, year_back(oracle.half_month_of),
+                                      stop=dt.date(2025, 12, 29)))
+    # 2025-12-16..28 against 2024-12-16..28: the same 13 days, Christmas closed in both
+    # (oracle: datetime; demo/generate.py closes every shop on 25 December).
+    year = next(row for row in got if row["against"] == "year")
+    assert (year["span"], year["base_span"]) == ("2025-12-16..2025-12-28", "2024-12-16..2024-12-28")
+    assert year["trading_days"] == year["base_trading_days"] == 12
+
+
+def test_iso_week_bases_across_a_53_week_year(partial_db):
+    path, rows = partial_db
+    # ISO 2020 has 53 weeks, so 2021-W01 compares with 2020-W01, 53 weeks back, not with
     # 2020-W02, 52 weeks back (oracle: date.fromisocalendar(2020, 1, 1) == date(2019, 12, 30)).
-    assert got["2021-W01"]["last_year_period"] == "2020-W01"
-    assert got["2021-W08"]["last_year_period"] == "2020-W08"
-    # 2019 has no week 53 (date.fromisocalendar(2019, 53, 1) raises): no counterpart at all.
-    assert got["2020-W53"]["last_year_period"] is None and got["2020-W53"]["last_year_amount"] is None
-    # A counterpart before the data began is NULL, not 0: there is nothing to compare.
-    assert got["2020-W10"]["last_year_period"] == "2019-W10" and got["2020-W10"]["last_year_amount"] is None
+    got = report(path, "compare", zone=ZONE, stop="2021-01-06")
+    check_compare(got, oracle.compare(rows, ZONE, oracle.week_of, oracle.last_year_of_week,
+                                      stop=dt.date(2021, 1, 6)))
+    year = next(row for row in got if row["against"] == "year")
+    assert (year["period"], year["base_period"], year["base_span"]) == ("2021-W01", "2020-W01",
+                                                                        "2019-12-30..2019-12-31")
+    # 2019 has no week 53 (date.fromisocalendar(2019, 53, 1) raises): no base at all.
+    got = report(path, "compare", zone=ZONE, stop="2021-01-01")
+    year = next(row for row in got if row["against"] == "year")
+    assert year["period"] == "2020-W53" and year["base_period"] is None and year["change_pct"] is None
     with pytest.raises(ValueError):
         dt.date.fromisocalendar(2019, 53, 1)
+
+
+def test_a_base_before_the_data_is_not_compared(partial_db):
+    path, rows = partial_db
+    got = report(path, "compare", zone=ZONE, unit="month", stop="2020-05-10")
+    year = next(row for row in got if row["against"] == "year")
+    # The data begins 2019-12-30, so May 2019 is not covered: NULL, not 0 (common practice).
+    assert year["base_period"] == "2019-05" and year["base_amount"] is None and year["change_pct"] is None
+    check_compare(got, oracle.compare(rows, ZONE, oracle.month_of, year_back(oracle.month_of),
+                                      stop=dt.date(2020, 5, 10)))
+
+
+@pytest.mark.parametrize("name", ["totals", "compare"])
+def test_an_item_that_matches_nothing_names_the_closest_item(partial_db, name):
+    path, _ = partial_db
+    got = report(path, name, zone=ZONE, item="flat te")
+    # One row; the closest name by shared letter pairs, ignoring case (from memory: Dice's coefficient).
+    assert len(got) == 1
+    assert got[0]["item"] == "no item named 'flat te'; the closest item is 'Flat tea'"
+    assert report(path, name, zone=ZONE, item="Winter Sop")[0]["item"] == \
+        "no item named 'Winter Sop'; the closest item is 'Winter soup'"
 
 
 # --- the chart -------------------------------------------------------------------------------
