@@ -12,5 +12,6 @@ int register_statistics_functions(sqlite3* db);
 int register_order_statistics_functions(sqlite3* db);
 int register_report_functions(sqlite3* db);
 int register_export_functions(sqlite3* db);
+int register_season_functions(sqlite3* db);
 
 }  // namespace almanac::sqlite

@@ -30,6 +30,9 @@
 //    most, so the pairs in it are tallied by value in O(1) memory.
 // 4. Zero slopes (runs of equal y) are common and exactly zero in both r and
 //    f, so ranks that fall among them are answered from two counts.
+// 5. Seasons. The seasonal form pairs points of one season only, so every
+//    count and every band is the sum over the seasons, each season a run of
+//    its own in the arrays and sorted on its own; the search is unchanged.
 #include "core/stats/theil_sen.h"
 
 #include <algorithm>
@@ -40,8 +43,8 @@
 #include <stdexcept>
 #include <utility>
 
-#include "core/text/error.h"
 #include "core/exact/exact_sign.h"
+#include "core/text/error.h"
 
 namespace almanac {
 namespace {
@@ -107,11 +110,10 @@ int compare_keys(const Threshold& threshold, Keyed& a, Keyed& b) {
 // which have a strictly greater key (or a greater or equal one, when not
 // strict) — calls on_inversions(element, first, last); a false return stops.
 template <typename OnInversions>
-bool merge_sort(std::vector<Keyed>& items, std::vector<Keyed>& buffer, const Threshold& threshold,
+bool merge_sort(Keyed* items, std::size_t n, std::vector<Keyed>& buffer, const Threshold& threshold,
                 bool strict, OnInversions&& on_inversions) {
-    const std::size_t n = items.size();
     buffer.resize(n);
-    Keyed* from = items.data();
+    Keyed* from = items;
     Keyed* to = buffer.data();
     for (std::size_t width = 1; width < n; width *= 2) {
         for (std::size_t start = 0; start < n; start += 2 * width) {
@@ -132,7 +134,7 @@ bool merge_sort(std::vector<Keyed>& items, std::vector<Keyed>& buffer, const Thr
         }
         std::swap(from, to);
     }
-    if (from != items.data()) std::copy(from, from + n, items.data());
+    if (from != items) std::copy(from, from + n, items);
     return true;
 }
 
@@ -210,36 +212,49 @@ void center(std::vector<Point>& points, double Point::*coordinate) {
     for (Point& p : points) p.*coordinate -= offset;
 }
 
+// A run of points that are paired with each other only: one season (the
+// whole set when there are no seasons).
+struct Group {
+    std::size_t begin;
+    std::size_t end;
+};
+
 class SlopeSelection {
   public:
-    explicit SlopeSelection(std::vector<Point> points) : points_(std::move(points)) {
+    SlopeSelection(std::vector<Point> points, std::vector<Group> groups)
+        : points_(std::move(points)), groups_(std::move(groups)) {
         center(points_, &Point::x);
         center(points_, &Point::y);
-        std::sort(points_.begin(), points_.end(), [](const Point& a, const Point& b) {
-            return a.x < b.x || (a.x == b.x && a.y < b.y);
-        });
-        const Count n = points_.size();
-        Count same_x = 0;
-        for (std::size_t i = 0; i < points_.size();) {
-            std::size_t j = i;
-            while (j < points_.size() && points_[j].x == points_[i].x) {
-                std::size_t k = j;
-                while (k < points_.size() && points_[k].x == points_[j].x &&
-                       points_[k].y == points_[j].y)
-                    ++k;
-                const Count run = k - j;
-                duplicates_ += run * (run - 1) / 2;
-                j = k;
+        for (const Group& group : groups_) {
+            std::sort(points_.begin() + static_cast<std::ptrdiff_t>(group.begin),
+                      points_.begin() + static_cast<std::ptrdiff_t>(group.end),
+                      [](const Point& a, const Point& b) {
+                          return a.x < b.x || (a.x == b.x && a.y < b.y);
+                      });
+            const Count n = group.end - group.begin;
+            Count same_x = 0;
+            for (std::size_t i = group.begin; i < group.end;) {
+                std::size_t j = i;
+                while (j < group.end && points_[j].x == points_[i].x) {
+                    std::size_t k = j;
+                    while (k < group.end && points_[k].x == points_[j].x &&
+                           points_[k].y == points_[j].y)
+                        ++k;
+                    const Count run = k - j;
+                    duplicates_ += run * (run - 1) / 2;
+                    j = k;
+                }
+                const Count tied = j - i;
+                same_x += tied * (tied - 1) / 2;
+                i = j;
             }
-            const Count group = j - i;
-            same_x += group * (group - 1) / 2;
-            i = j;
+            pairs_ += n * (n - 1) / 2 - same_x;
         }
-        pairs_ = n * (n - 1) / 2 - same_x;
     }
 
     Count pairs() const { return pairs_; }
     const std::vector<Point>& points() const { return points_; }
+    const std::vector<Group>& groups() const { return groups_; }
 
     // Pairs whose exact slope is below t.
     Count below(double t) {
@@ -263,20 +278,29 @@ class SlopeSelection {
         // Order by the keys at lo, equal keys by x: then every pair in the
         // band is an inversion of the keys at hi, and nothing else is.
         const Threshold at_lo{lo};
-        std::sort(items_.begin(), items_.end(), [&](Keyed& a, Keyed& b) {
-            const int order = compare_keys(at_lo, a, b);
-            return order < 0 || (order == 0 && a.x < b.x);
-        });
+        for (const Group& group : groups_) {
+            std::sort(items_.begin() + static_cast<std::ptrdiff_t>(group.begin),
+                      items_.begin() + static_cast<std::ptrdiff_t>(group.end),
+                      [&](Keyed& a, Keyed& b) {
+                          const int order = compare_keys(at_lo, a, b);
+                          return order < 0 || (order == 0 && a.x < b.x);
+                      });
+        }
         for (Keyed& item : items_) item = keyed(hi, item.x, item.y);
         Count visited = 0;
-        return merge_sort(items_, buffer_, Threshold{hi}, true,
-                          [&](const Keyed& right, const Keyed* first, const Keyed* last) {
-                              visited += static_cast<Count>(last - first);
-                              if (visited > cap) return false;
-                              for (const Keyed* left = first; left != last; ++left)
-                                  visit(computed_slope(*left, right));
-                              return true;
-                          });
+        for (const Group& group : groups_) {
+            const bool complete = merge_sort(
+                items_.data() + group.begin, group.end - group.begin, buffer_, Threshold{hi}, true,
+                [&](const Keyed& right, const Keyed* first, const Keyed* last) {
+                    visited += static_cast<Count>(last - first);
+                    if (visited > cap) return false;
+                    for (const Keyed* left = first; left != last; ++left)
+                        visit(computed_slope(*left, right));
+                    return true;
+                });
+            if (!complete) return false;
+        }
+        return true;
     }
 
   private:
@@ -289,17 +313,20 @@ class SlopeSelection {
     Count count(double t, bool strict) {
         load(t);
         Count inversions = 0;
-        merge_sort(items_, buffer_, Threshold{t}, strict,
-                   [&](const Keyed&, const Keyed* first, const Keyed* last) {
-                       inversions += static_cast<Count>(last - first);
-                       return true;
-                   });
+        for (const Group& group : groups_) {
+            merge_sort(items_.data() + group.begin, group.end - group.begin, buffer_, Threshold{t},
+                       strict, [&](const Keyed&, const Keyed* first, const Keyed* last) {
+                           inversions += static_cast<Count>(last - first);
+                           return true;
+                       });
+        }
         return inversions;
     }
 
-    std::vector<Point> points_;  // by x, then y
-    Count pairs_ = 0;            // with distinct x
-    Count duplicates_ = 0;       // pairs of identical points
+    std::vector<Point> points_;  // by group, then x, then y
+    std::vector<Group> groups_;
+    Count pairs_ = 0;       // within a group, with distinct x
+    Count duplicates_ = 0;  // pairs of identical points
     std::vector<Keyed> items_;
     std::vector<Keyed> buffer_;
 };
@@ -402,13 +429,15 @@ class MedianSearch {
 };
 
 // Few points: list every slope; this is the definition itself.
-std::pair<double, double> middle_slopes_by_listing(const std::vector<Point>& points, Count k_lo,
+std::pair<double, double> middle_slopes_by_listing(const SlopeSelection& selection, Count k_lo,
                                                    Count k_hi) {
+    const std::vector<Point>& points = selection.points();
     std::vector<double> slopes;
-    for (std::size_t i = 0; i < points.size(); ++i)
-        for (std::size_t j = i + 1; j < points.size(); ++j)
-            if (points[j].x != points[i].x)
-                slopes.push_back((points[j].y - points[i].y) / (points[j].x - points[i].x));
+    for (const Group& group : selection.groups())
+        for (std::size_t i = group.begin; i < group.end; ++i)
+            for (std::size_t j = i + 1; j < group.end; ++j)
+                if (points[j].x != points[i].x)
+                    slopes.push_back((points[j].y - points[i].y) / (points[j].x - points[i].x));
     auto at = slopes.begin() + static_cast<std::ptrdiff_t>(k_lo);
     std::nth_element(slopes.begin(), at, slopes.end());
     const double first = *at;
@@ -418,19 +447,19 @@ std::pair<double, double> middle_slopes_by_listing(const std::vector<Point>& poi
 
 constexpr Count kListingLimit = 2048;  // pairs; a constant, so memory stays O(1) here
 
-}  // namespace
-
-std::optional<double> theil_sen_slope(std::vector<Point> input) {
+std::optional<double> median_slope(std::vector<Point> input, std::vector<Group> groups) {
     for (const Point& p : input)
         if (!std::isfinite(p.x) || !std::isfinite(p.y)) throw Error("expected finite coordinates");
-    SlopeSelection slopes(std::move(input));
+    SlopeSelection slopes(std::move(input), std::move(groups));
     const Count pairs = slopes.pairs();
     if (pairs == 0) return std::nullopt;
 
     const auto& points = slopes.points();
     const auto [y_min, y_max] = std::minmax_element(
         points.begin(), points.end(), [](const Point& a, const Point& b) { return a.y < b.y; });
-    if (std::isinf(points.back().x - points.front().x))
+    const auto [x_min, x_max] = std::minmax_element(
+        points.begin(), points.end(), [](const Point& a, const Point& b) { return a.x < b.x; });
+    if (std::isinf(x_max->x - x_min->x))
         throw Error("the x values differ by more than the largest double, so no slope is finite");
     if (std::isinf(y_max->y - y_min->y))
         throw Error("the y values differ by more than the largest double, so no slope is finite");
@@ -440,7 +469,7 @@ std::optional<double> theil_sen_slope(std::vector<Point> input) {
     const Count k_hi = pairs / 2;
     std::pair<double, double> middle;
     if (pairs <= kListingLimit) {
-        middle = middle_slopes_by_listing(points, k_lo, k_hi);
+        middle = middle_slopes_by_listing(slopes, k_lo, k_hi);
     } else {
         MedianSearch search(slopes);
         const Count negative = slopes.below(0.0);
@@ -464,6 +493,31 @@ std::optional<double> theil_sen_slope(std::vector<Point> input) {
     }
     if (k_lo == k_hi) return middle.first;
     return (middle.first + middle.second) / 2.0;  // numpy.median: mean of the two
+}
+
+}  // namespace
+
+std::optional<double> theil_sen_slope(std::vector<Point> points) {
+    const std::size_t n = points.size();
+    return median_slope(std::move(points), {Group{0, n}});
+}
+
+std::optional<double> seasonal_theil_sen_slope(std::vector<SeasonalPoint> input) {
+    for (const SeasonalPoint& p : input)
+        if (!std::isfinite(p.season)) throw Error("expected a finite season");
+    std::sort(input.begin(), input.end(),
+              [](const SeasonalPoint& a, const SeasonalPoint& b) { return a.season < b.season; });
+    std::vector<Point> points;
+    points.reserve(input.size());
+    std::vector<Group> groups;
+    for (std::size_t i = 0; i < input.size(); ++i) {
+        if (i == 0 || input[i].season != input[i - 1].season) {
+            if (!groups.empty()) groups.back().end = i;
+            groups.push_back(Group{i, input.size()});
+        }
+        points.push_back(Point{input[i].x, input[i].y});
+    }
+    return median_slope(std::move(points), std::move(groups));
 }
 
 }  // namespace almanac

@@ -13,16 +13,18 @@
 #include <optional>
 #include <vector>
 
-namespace almanac {
+#include "core/stats/point.h"
 
-struct Point {
-    double x;
-    double y;
-};
+namespace almanac {
 
 // nullopt when fewer than two distinct x. Coordinates must be finite; throws
 // almanac::Error if two x or two y are so far apart that their difference
 // overflows a double (slopes would then be infinite or undefined).
 std::optional<double> theil_sen_slope(std::vector<Point> points);
+
+// The seasonal form (Hirsch, Slack & Smith 1982): the median of the slopes
+// of the pairs that share a season and have distinct x, with the same
+// meaning of "exact"; nullopt when there is no such pair.
+std::optional<double> seasonal_theil_sen_slope(std::vector<SeasonalPoint> points);
 
 }  // namespace almanac
