@@ -3,8 +3,8 @@
 
 #include <cmath>
 
-#include "core/text/error.h"
 #include "core/exact/scaled_double.h"
+#include "core/text/error.h"
 
 namespace almanac {
 namespace {

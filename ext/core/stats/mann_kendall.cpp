@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/stats/inversion_sort.h"
 #include "core/text/error.h"
 
 namespace almanac {
@@ -43,30 +44,14 @@ Ties ties_of_runs(std::size_t n, Same&& same_as_previous) {
 
 // Sorts y ascending and returns the number of pairs i < j with y_i > y_j.
 Count count_inversions(std::vector<double>& y) {
-    const std::size_t n = y.size();
-    std::vector<double> buffer(n);
-    double* from = y.data();
-    double* to = buffer.data();
+    std::vector<double> buffer;
     Count inversions = 0;
-    for (std::size_t width = 1; width < n; width *= 2) {
-        for (std::size_t start = 0; start < n; start += 2 * width) {
-            const std::size_t middle = std::min(start + width, n);
-            const std::size_t end = std::min(start + 2 * width, n);
-            std::size_t i = start, j = middle, k = start;
-            while (i < middle && j < end) {
-                if (from[j] < from[i]) {
-                    inversions += static_cast<Count>(middle - i);
-                    to[k++] = from[j++];
-                } else {
-                    to[k++] = from[i++];
-                }
-            }
-            while (i < middle) to[k++] = from[i++];
-            while (j < end) to[k++] = from[j++];
-        }
-        std::swap(from, to);
-    }
-    if (from != y.data()) std::copy(from, from + n, y.data());
+    inversion_sort(
+        y.data(), y.size(), buffer, [](double right, double left) { return right < left; },
+        [&](double, const double* first, const double* last) {
+            inversions += static_cast<Count>(last - first);
+            return true;
+        });
     return inversions;
 }
 

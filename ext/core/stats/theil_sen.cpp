@@ -44,6 +44,7 @@
 #include <utility>
 
 #include "core/exact/exact_sign.h"
+#include "core/stats/inversion_sort.h"
 #include "core/text/error.h"
 
 namespace almanac {
@@ -105,37 +106,20 @@ int compare_keys(const Threshold& threshold, Keyed& a, Keyed& b) {
     return exact_sign_of_sum(terms, 4);
 }
 
-// Bottom-up merge sort by the keys at `threshold`. Whenever an element of a
-// right run goes ahead of the rest [first, last) of its left run — all of
-// which have a strictly greater key (or a greater or equal one, when not
-// strict) — calls on_inversions(element, first, last); a false return stops.
+// Merge sort by the keys at `threshold`. Whenever an element of a right run
+// goes ahead of the rest [first, last) of its left run — all of which have a
+// strictly greater key (or a greater or equal one, when not strict) — calls
+// on_inversions(element, first, last); a false return stops.
 template <typename OnInversions>
 bool merge_sort(Keyed* items, std::size_t n, std::vector<Keyed>& buffer, const Threshold& threshold,
                 bool strict, OnInversions&& on_inversions) {
-    buffer.resize(n);
-    Keyed* from = items;
-    Keyed* to = buffer.data();
-    for (std::size_t width = 1; width < n; width *= 2) {
-        for (std::size_t start = 0; start < n; start += 2 * width) {
-            const std::size_t middle = std::min(start + width, n);
-            const std::size_t end = std::min(start + 2 * width, n);
-            std::size_t i = start, j = middle, k = start;
-            while (i < middle && j < end) {
-                const int order = compare_keys(threshold, from[j], from[i]);
-                if (order < 0 || (!strict && order == 0)) {
-                    if (!on_inversions(from[j], from + i, from + middle)) return false;
-                    to[k++] = from[j++];
-                } else {
-                    to[k++] = from[i++];
-                }
-            }
-            while (i < middle) to[k++] = from[i++];
-            while (j < end) to[k++] = from[j++];
-        }
-        std::swap(from, to);
-    }
-    if (from != items) std::copy(from, from + n, items);
-    return true;
+    return inversion_sort(
+        items, n, buffer,
+        [&](Keyed& right, Keyed& left) {
+            const int order = compare_keys(threshold, right, left);
+            return order < 0 || (!strict && order == 0);
+        },
+        on_inversions);
 }
 
 double widen_down(double v) {
