@@ -5,9 +5,9 @@
 #include <cmath>
 #include <cstring>
 
-namespace almanac {
+#include "core/exact/wide_integer.h"
 
-__extension__ typedef unsigned __int128 Uint128;
+namespace almanac {
 
 double RoundedBinary::to_double() const {
     // A normal double is assembled from its bits directly (this runs once per
@@ -52,7 +52,7 @@ RoundedBinary round_top_digits(bool negative, std::uint32_t d2, std::uint32_t d1
     }
     int shift = top_bit + 1 - static_cast<int>(keep);  // >= 13: acc holds at least 65 bits
     std::uint64_t mantissa = static_cast<std::uint64_t>(acc >> shift);
-    bool round_bit = (acc >> (shift - 1)) & 1;
+    bool round_bit = ((acc >> (shift - 1)) & 1) != 0;
     bool below = sticky || (acc & ((Uint128(1) << (shift - 1)) - 1)) != 0;
     if (round_bit && (below || (mantissa & 1))) ++mantissa;
     result.mantissa = mantissa;

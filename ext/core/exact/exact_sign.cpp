@@ -9,10 +9,12 @@
 #include <limits>
 #include <stdexcept>
 
+#include "core/exact/wide_integer.h"
+
 namespace almanac {
 namespace {
 
-__extension__ typedef unsigned __int128 Wide;
+using Wide = Uint128;
 
 // ±mantissa · 2^exponent, exactly the double's value (subnormals included).
 struct Dyadic {

@@ -7,8 +7,6 @@
 
 namespace almanac {
 
-__extension__ typedef unsigned __int128 Uint128;
-
 void ExactSum::throw_not_finite() { throw Error("expected a finite number"); }
 
 namespace {

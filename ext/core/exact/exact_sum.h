@@ -31,6 +31,7 @@
 
 #include "core/exact/correct_rounding.h"
 #include "core/exact/exact_number.h"
+#include "core/exact/wide_integer.h"
 
 namespace almanac {
 
@@ -66,8 +67,6 @@ class ExactSum {
 
     static std::int64_t floor_div32(std::int64_t v) { return v >= 0 ? v / 32 : -((-v + 31) / 32); }
 
-    __extension__ typedef __int128 Int128;
-
     void add_double(double x, std::int64_t shift, bool negate) {
         std::uint64_t bits;
         std::memcpy(&bits, &x, sizeof bits);
@@ -99,7 +98,7 @@ class ExactSum {
         if (d > 72) return widen();  // the term would need more than 125 bits
         Int128 term = Int128(mantissa) << d;
         Int128 sum;
-        if (__builtin_add_overflow(narrow_, negative ? -term : term, &sum)) return widen();
+        if (add_overflows(narrow_, negative ? -term : term, &sum)) return widen();
         narrow_ = sum;
         return true;
     }
