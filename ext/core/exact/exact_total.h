@@ -10,6 +10,7 @@
 #include <optional>
 
 #include "core/exact/exact_sum.h"
+#include "core/exact/wide_integer.h"
 
 namespace almanac {
 
@@ -38,8 +39,6 @@ class ExactTotal {
     std::optional<Value> value();
 
   private:
-    __extension__ typedef __int128 Int128;
-
     void integer_step(std::int64_t v, int sign) {
         // The integers are kept twice: exactly, for the INTEGER result, and as
         // the doubles math.fsum would see, for the REAL one.

@@ -96,6 +96,8 @@ class PortableUint128 {
     friend constexpr bool operator<=(PortableUint128 a, PortableUint128 b) { return !(b < a); }
     friend constexpr bool operator>=(PortableUint128 a, PortableUint128 b) { return !(a < b); }
 
+    PortableUint128& operator+=(PortableUint128 b) { return *this = *this + b; }
+    PortableUint128& operator-=(PortableUint128 b) { return *this = *this - b; }
     PortableUint128& operator*=(PortableUint128 b) { return *this = *this * b; }
 
   private:
@@ -167,6 +169,8 @@ class PortableInt128 {
     friend constexpr bool operator<=(PortableInt128 a, PortableInt128 b) { return !(b < a); }
     friend constexpr bool operator>=(PortableInt128 a, PortableInt128 b) { return !(a < b); }
 
+    PortableInt128& operator+=(PortableInt128 b) { return *this = *this + b; }
+    PortableInt128& operator-=(PortableInt128 b) { return *this = *this - b; }
     PortableInt128& operator*=(PortableInt128 b) { return *this = *this * b; }
 
   private:
