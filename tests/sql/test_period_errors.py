@@ -54,6 +54,9 @@ CASES = [
     ("period_floor(1.7e12, 'day')", F(*T, "1700000000000", "millisecond")),         # REAL ms
     ("period_floor(-1e13, 'day')", F(*T, "-10000000000000")),                       # year out of range
     ("period_floor(1000000, 'day')", F(*T, "1000000")),                             # Julian day in -1975
+    ("period_floor(2025-12-01, 'day')", F(*T, "2012", "quote it")),                 # an unquoted date: 2012
+    ("period_floor(45992, 'day')", F(*T, "45992", "excel")),                        # a spreadsheet serial
+    ("period_serial(20000.5, 'week')", F(*T, "20000.5", "excel", fn="period_serial")),
     # ---- specs (DESIGN "Spec grammar")
     ("period_floor('2026-01-01', 'fortnight')", F(*S, "'fortnight'", "week")),      # unknown unit
     ("period_floor('2026-01-01', '3 fortnights')", F(*S, "'3 fortnights'", "week")),
@@ -175,6 +178,14 @@ EXACT = {
         'period_floor(): argument 1 (t) = 1700000000000: Unix seconds past year 9999 (is it in milliseconds? divide by 1000)',
     "period_floor(1.7e12, 'day')":
         'period_floor(): argument 1 (t) = 1700000000000: Unix seconds past year 9999 (is it in milliseconds? divide by 1000)',
+    # The shell computed 2025-12-01 = 2012 (SQL arithmetic); the hint shows the quoting.
+    "period_floor(2025-12-01, 'day')":
+        "period_floor(): argument 1 (t) = 2012: Julian day 2012 is before year 0000; years 0000 through 9999 are supported; if this was a date, quote it: '2025-12-01'",
+    # 45992 is 2025-12-01 as a spreadsheet serial (from memory: date(1899, 12, 30) + 45992 days).
+    "period_floor(45992, 'day')":
+        "period_floor(): argument 1 (t) = 45992: Julian day 45992 is before year 0000; years 0000 through 9999 are supported; for a spreadsheet serial use to_time(x, 'excel')",
+    "period_floor(1000000, 'day')":
+        "period_floor(): argument 1 (t) = 1000000: Julian day 1000000 is before year 0000; years 0000 through 9999 are supported; if this was a date, quote it: '2025-12-01'",
     "period_floor(-1e13, 'day')":
         'period_floor(): argument 1 (t) = -10000000000000: the Unix time is before year 0000; years 0000 through 9999 are supported',
     "period_floor('2026-01-01', 'fortnight')":

@@ -61,11 +61,22 @@ std::string two_digits(int v) {
 
 Instant from_unix_millis(std::int64_t ms) { return Instant{Millis{ms}}; }
 
-// `described` is only turned into a message on failure: this runs per row.
-template <typename Describe>
-void check_range(Instant t, Describe&& described) {
+// A Julian day before year 0000 is almost never meant as one. An unquoted date
+// in the sqlite3 shell is arithmetic (2025-12-01 is 2012), and a spreadsheet
+// serial day of our era lies between 20,000 (1954) and 80,000 (2119).
+std::string misread_number_hint(double julian_day) {
+    if (julian_day >= 20000 && julian_day <= 80000)
+        return "; for a spreadsheet serial use to_time(x, 'excel')";
+    return "; if this was a date, quote it: '2025-12-01'";
+}
+
+std::string no_hint() { return {}; }
+
+// `described` and `hint` are only turned into a message on failure: this runs per row.
+template <typename Describe, typename Hint = std::string (*)()>
+void check_range(Instant t, Describe&& described, Hint&& hint = no_hint) {
     if (t < earliest_supported_instant())
-        fail(described() + " is before year 0000; years 0000 through 9999 are supported");
+        fail(described() + " is before year 0000; years 0000 through 9999 are supported" + hint());
     if (t >= latest_supported_instant())
         fail(described() + " is after year 9999; years 0000 through 9999 are supported");
 }
@@ -250,7 +261,7 @@ TimeValue parse_time_real(double v) {
             char shown[32];
             std::snprintf(shown, sizeof shown, "%.15g", v);
             return std::string("Julian day ") + shown;
-        });
+        }, [v] { return misread_number_hint(v); });
     } else {
         value.representation = Representation::UnixSeconds;
         double ms = std::floor(v * 1000.0 + 0.5);
