@@ -12,9 +12,14 @@
 //     1970-01-01 00:00 on the (zone's) clock, neighbours differ by 1.
 //  4. period_shift(t, n, spec [, zone]): t moved by n whole periods, in t's
 //     own representation and TEXT form; n is a whole number.
-//  5. valid_time(t): 1 when t is a time value every function accepts, else 0;
+//  5. period_of_serial(serial, spec [, zone]): the inverse of period_serial,
+//     TEXT start of the period with that serial: a bare (local) date for day
+//     and longer units, a date-time for shorter ones, local with ±HH:MM when a
+//     zone is given. serial is a whole number whose period starts in years
+//     0000-9999; NULL gives NULL.
+//  6. valid_time(t): 1 when t is a time value every function accepts, else 0;
 //     NULL for NULL; never raises.
-//  6. almanac_version(): TEXT.
+//  7. almanac_version(): TEXT.
 //  Any NULL argument gives NULL. A time that is not a time value, a spec that
 //  does not parse, an unknown zone, or a result outside years 0000-9999 is an
 //  error naming the function, the argument and the value. The forms without a
@@ -136,6 +141,23 @@ void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
     });
 }
 
+void period_of_serial(sqlite3_context* context, int argc, sqlite3_value** argv) {
+    const char* name = "period_of_serial";
+    run(context, name, [&] {
+        ArgumentRef serial_arg{name, 1, "serial"};
+        ArgumentRef spec_arg{name, 2, "spec"};
+        ArgumentRef zone_arg{name, 3, "zone"};
+        if (sqlite3_value_type(argv[0]) == SQLITE_NULL) return sqlite3_result_null(context);
+        const PeriodCalendar* calendar =
+            cached_calendar(context, 1, spec_arg, argv, 2, argc == 3 ? &zone_arg : nullptr);
+        if (!calendar) return sqlite3_result_null(context);
+        auto [lowest, highest] = calendar->supported_serials();
+        auto serial = read_integer(serial_arg, argv[0], lowest, highest);
+        std::string text = calendar->format_boundary(calendar->period_by_serial(*serial).start);
+        sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+    });
+}
+
 void almanac_version(sqlite3_context* context, int, sqlite3_value**) {
     sqlite3_result_text(context, ALMANAC_VERSION, -1, SQLITE_STATIC);
 }
@@ -165,6 +187,8 @@ int register_period_functions(sqlite3* db) {
     }
     add("period_shift", 3, kPure, nullptr, period_shift);
     add("period_shift", 4, kZoned, nullptr, period_shift);
+    add("period_of_serial", 2, kPure, nullptr, period_of_serial);
+    add("period_of_serial", 3, kZoned, nullptr, period_of_serial);
     add("valid_time", 1, kPure, nullptr, valid_time);
     add("almanac_version", 0, kPure, nullptr, almanac_version);
     return rc;

@@ -133,9 +133,15 @@ def wall_period(spec, wall):
     return anchor + k * step, anchor + (k + 1) * step, k - (EPOCH - anchor) // step
 
 
-def label_of(spec, start_wall, offset=None):
-    """DESIGN.md "Labels", from the period's start reading (and its offset, in a zone)."""
+def label_of(spec, start_wall, offset=None, end_wall=None):
+    """DESIGN.md "Labels", from the period's start reading (and its offset, in a zone).
+    Half-months, months, quarters and years counted `from` a date are labelled with
+    their first and last day, the year of the last one only when it differs
+    (README "Labels": 2026-02-15..03-14)."""
     suffix = "" if offset is None else format_offset(offset)
+    if spec.start_from is not None and spec.unit in ("half-month", "month", "quarter", "year"):
+        first, last = start_wall.date(), (end_wall - dt.timedelta(milliseconds=1)).date()
+        return f"{first.isoformat()}..{last.isoformat()[5:] if last.year == first.year else last.isoformat()}"
     if spec.unit == "second":
         return start_wall.isoformat(" ", "seconds") + suffix
     if spec.sub_day:
@@ -233,9 +239,9 @@ def period_of(spec, ms, clock=None):
     start_wall, end_wall, serial = wall_period(spec, wall)
     start, end = clock.first_instant(start_wall), clock.first_instant(end_wall)
     if spec.sub_day:  # UTC
-        return Period(start, end, serial, label_of(spec, start_wall),
+        return Period(start, end, serial, label_of(spec, start_wall, end_wall=end_wall),
                       start_wall.isoformat(" ", "seconds"), end_wall.isoformat(" ", "seconds"))
-    return Period(start, end, serial, label_of(spec, start_wall),
+    return Period(start, end, serial, label_of(spec, start_wall, end_wall=end_wall),
                   start_wall.date().isoformat(), end_wall.date().isoformat())
 
 

@@ -236,6 +236,28 @@ def test_local_calendar_periods_random_instants(db, name, spec_text, spec):
     compare(db, name, spec_text, spec, instants, "calendar")
 
 
+SERIAL_SPECS = CALENDAR + [("hour", Spec("hour")), ("15 minutes", Spec("minute", 15))]
+
+
+@pytest.mark.parametrize("spec_text,spec", SERIAL_SPECS, ids=[c[0] for c in SERIAL_SPECS])
+@pytest.mark.parametrize("name", ZONES + [None])
+def test_period_of_serial_gives_the_start_of_that_period(db, name, spec_text, spec):
+    rng = random.Random(zlib.crc32(f"serial {name} {spec_text}".encode()))
+    clock = oracle.ZoneClock(name) if name else oracle.UtcClock()
+    low, high = oracle.ms_of(dt.datetime(1900, 1, 2)), oracle.ms_of(dt.datetime(2036, 12, 30))
+    instants = [rng.randrange(low, high) for _ in range(400)]
+    if name:
+        instants += [change for change, _, _ in TRANSITIONS[name]]
+    args = (spec_text, name) if name else (spec_text,)
+    sql = "SELECT period_of_serial(?, ?, ?)" if name else "SELECT period_of_serial(?, ?)"
+    for ms in instants:
+        period = oracle.period_of(spec, ms, clock)
+        # oracle: zoneinfo / datetime — the start of the period with that serial, local, with its
+        # offset for sub-day units in a zone (period_oracle.period_of)
+        assert db.execute(sql, (period.serial, *args)).fetchone()[0] == period.start_text, (ms, period.serial)
+    counts[f"period_of_serial {spec_text} {name}"] = len(instants)
+
+
 ROUND_TRIP_SPECS = ["day", "hour", "15 minutes", "minute", "week", "half-month", "month", "quarter starting july",
                     "year"]
 

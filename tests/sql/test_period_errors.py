@@ -57,6 +57,12 @@ CASES = [
     ("period_floor(2025-12-01, 'day')", F(*T, "2012", "quote it")),                 # an unquoted date: 2012
     ("period_floor(45992, 'day')", F(*T, "45992", "excel")),                        # a spreadsheet serial
     ("period_serial(20000.5, 'week')", F(*T, "20000.5", "excel", fn="period_serial")),
+    # ---- period_of_serial: the serial must name a period of years 0000-9999
+    ("period_of_serial(99999999, 'month')", F(1, "serial", "99999999", "-23640", "96359", fn="period_of_serial")),
+    ("period_of_serial(2.5, 'day')", F(1, "serial", "2.5", "whole number", fn="period_of_serial")),
+    ("period_of_serial('soon', 'day')", F(1, "serial", "'soon'", fn="period_of_serial")),
+    ("period_of_serial(3, 'fortnight')", F(*S, "'fortnight'", "week", fn="period_of_serial")),
+    ("period_of_serial(3, 'day', 'Mars/Base')", F(*Z, "'Mars/Base'", fn="period_of_serial")),
     # ---- specs (DESIGN "Spec grammar")
     ("period_floor('2026-01-01', 'fortnight')", F(*S, "'fortnight'", "week")),      # unknown unit
     ("period_floor('2026-01-01', '3 fortnights')", F(*S, "'3 fortnights'", "week")),
@@ -186,6 +192,9 @@ EXACT = {
         "period_floor(): argument 1 (t) = 45992: Julian day 45992 is before year 0000; years 0000 through 9999 are supported; for a spreadsheet serial use to_time(x, 'excel')",
     "period_floor(1000000, 'day')":
         "period_floor(): argument 1 (t) = 1000000: Julian day 1000000 is before year 0000; years 0000 through 9999 are supported; if this was a date, quote it: '2025-12-01'",
+    # Months 0000-01 .. 9999-12 counted from 1970-01: -1970 * 12 and 8029 * 12 + 11 (plain arithmetic).
+    "period_of_serial(99999999, 'month')":
+        "period_of_serial(): argument 1 (serial) = 99999999: expected a whole number from -23640 to 96359",
     "period_floor(-1e13, 'day')":
         'period_floor(): argument 1 (t) = -10000000000000: the Unix time is before year 0000; years 0000 through 9999 are supported',
     "period_floor('2026-01-01', 'fortnight')":

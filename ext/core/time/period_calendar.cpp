@@ -366,6 +366,12 @@ Period PeriodCalendar::period_by_serial(std::int64_t serial) const {
     return Period{clock_.first_instant_at(start), clock_.first_instant_at(end), serial};
 }
 
+std::pair<std::int64_t, std::int64_t> PeriodCalendar::supported_serials() const {
+    Period first = period_of(earliest_supported_instant());
+    std::int64_t lowest = first.start < earliest_supported_instant() ? first.serial + 1 : first.serial;
+    return {lowest, period_of(latest_supported_instant() - Millis{1}).serial};
+}
+
 LocalTime PeriodCalendar::shift_reading(LocalTime local, std::int64_t n) const {
     std::int64_t k = grid_->index_of(local);
     LocalTime target_start = grid_->boundary(k + n);
@@ -434,6 +440,16 @@ std::string PeriodCalendar::label(const Period& period) const {
     require_supported(local);
     auto day = date::floor<days>(local);
     date::year_month_day ymd{day};
+    bool calendar_named = spec_.unit == PeriodUnit::HalfMonth || spec_.unit == PeriodUnit::Month ||
+                          spec_.unit == PeriodUnit::Quarter || spec_.unit == PeriodUnit::Year;
+    if (spec_.from && calendar_named) {
+        // Counted from a date, such a period is not the calendar month (quarter,
+        // year) its start lies in, and a label like 2026-02 would say it was.
+        auto last = date::floor<days>(clock_.to_local(period.end) - Millis{1});
+        std::string first_text = format_date(day), last_text = format_date(last);
+        bool same_year = date::year_month_day{last}.year() == ymd.year();
+        return first_text + ".." + (same_year ? last_text.substr(5) : last_text);
+    }
     char buffer[48];
     switch (spec_.unit) {
         case PeriodUnit::Second:

@@ -7,6 +7,7 @@
 #include <cstdint>
 #include <memory>
 #include <string>
+#include <utility>
 
 #include "core/time/period_spec.h"
 #include "core/time/time_value.h"
@@ -37,6 +38,8 @@ class PeriodCalendar {
     // A calendar day (bare YYYY-MM-DD) begins at the clock's first instant of that day.
     Instant start_of_day(date::local_days day) const;
     Period period_by_serial(std::int64_t serial) const;
+    // The first and last serial of the periods that start in years 0000 through 9999.
+    std::pair<std::int64_t, std::int64_t> supported_serials() const;
     Period next(const Period& period) const { return period_by_serial(period.serial + 1); }
 
     // t moved by n whole periods. Calendar units keep t's wall-clock offset
@@ -46,7 +49,8 @@ class PeriodCalendar {
     // The same, for a calendar day: the result is a calendar day.
     date::local_days shift_day(date::local_days day, std::int64_t n) const;
 
-    // The period's label for reports (see DESIGN.md "Labels").
+    // The period's label for reports (see DESIGN.md "Labels"). Months, quarters
+    // and years counted `from` a date show their days: 2026-02-15..03-14.
     std::string label(const Period& period) const;
 
     // Results as text: a bare local date for day and longer units, otherwise a
