@@ -5,6 +5,7 @@
 #include <cstdio>
 #include <cstdlib>
 
+#include "core/text/character_position.h"
 #include "core/text/error.h"
 
 namespace almanac::sqlite {
@@ -42,9 +43,18 @@ std::string describe_value(sqlite3_value* value) {
                 shown = shown.substr(0, cut) + "...";
             }
             std::string quoted = "'";
-            for (char c : shown) {
-                if (c == '\'') quoted += '\'';
-                quoted += c;
+            for (std::size_t i = 0; i < shown.size();) {
+                // Bytes that are not UTF-8 are shown as U+FFFD, so a message
+                // about bad input is itself valid text.
+                std::size_t length = utf8_length(shown, i);
+                if (length == 0) {
+                    quoted += "\xEF\xBF\xBD";
+                    ++i;
+                    continue;
+                }
+                if (shown[i] == '\'') quoted += '\'';
+                quoted.append(shown, i, length);
+                i += length;
             }
             return quoted + "'";
         }

@@ -35,9 +35,9 @@
 // results.
 #include <charconv>
 #include <cmath>
+#include <cstdint>
 #include <optional>
 #include <string>
-#include <cstdint>
 #include <string_view>
 
 #include "aggregate_state.h"
@@ -259,10 +259,8 @@ void result_reading(sqlite3_context* context, sqlite3_value* text, LocalTime t, 
         written = format_date(date::floor<date::days>(t));
     } else {
         bool whole_second = date::floor<std::chrono::seconds>(t) == t;
-        written = format_date_time(t,
-                                   whole_second ? TextForm::Precision::Seconds
-                                                : TextForm::Precision::Fraction,
-                                   false);
+        written = format_date_time(
+            t, whole_second ? TextForm::Precision::Seconds : TextForm::Precision::Fraction, false);
     }
     sqlite3_result_text(context, written.data(), int(written.size()), SQLITE_TRANSIENT);
 }
@@ -283,10 +281,12 @@ void to_time(sqlite3_context* context, int argc, sqlite3_value** argv) {
                 if (type == SQLITE_BLOB)
                     raise_argument_error(kTimeText, text, "expected TEXT, not a BLOB");
                 if (type == SQLITE_FLOAT)
-                    raise_argument_error(kTimeText, text,
-                                         "expected TEXT (a REAL is read only with the format excel)");
+                    raise_argument_error(
+                        kTimeText, text,
+                        "expected TEXT (a REAL is read only with the format excel)");
                 const char* raw = reinterpret_cast<const char*>(sqlite3_value_text(text));
-                reading = reader.format.read(std::string_view(raw ? raw : "", sqlite3_value_bytes(text)));
+                reading =
+                    reader.format.read(std::string_view(raw ? raw : "", sqlite3_value_bytes(text)));
             }
         } catch (const Error& error) {
             raise_argument_error(kTimeText, text, error.what());
@@ -305,8 +305,8 @@ void to_time(sqlite3_context* context, int argc, sqlite3_value** argv) {
 
 int register_export_functions(sqlite3* db) {
     constexpr int kPure = SQLITE_UTF8 | SQLITE_DETERMINISTIC | SQLITE_INNOCUOUS;
-    int rc = sqlite3_create_window_function(db, "exact_sum", 1, kPure, nullptr, sum_step,
-                                            sum_final, sum_value, sum_inverse, nullptr);
+    int rc = sqlite3_create_window_function(db, "exact_sum", 1, kPure, nullptr, sum_step, sum_final,
+                                            sum_value, sum_inverse, nullptr);
     for (int args : {1, 2}) {
         if (rc == SQLITE_OK)
             rc = sqlite3_create_function(db, "to_amount", args, kPure, nullptr, to_amount, nullptr,

@@ -22,11 +22,26 @@ constexpr std::array<std::string_view, 6> kGroupingOthers = {
     "'", "\xE2\x80\x99", " ", "\xC2\xA0", "\xE2\x80\x89", "\xE2\x80\xAF"};
 constexpr std::string_view kUnicodeMinus = "\xE2\x88\x92";  // U+2212
 // Currency signs, longest first so "US$" is not read as "$" after "US".
-constexpr std::array<std::string_view, 20> kCurrencySigns = {
-    "NZ$", "HK$", "US$", "Rs.", "A$", "C$", "S$", "R$", "Rs", "$",
-    "\xE2\x82\xAC" /* € */, "\xC2\xA3" /* £ */, "\xC2\xA5" /* ¥ */, "\xE2\x82\xB9" /* ₹ */,
-    "\xE2\x82\xA9" /* ₩ */, "\xE2\x82\xBD" /* ₽ */, "\xE2\x82\xBA" /* ₺ */,
-    "\xE2\x82\xAA" /* ₪ */, "\xE2\x82\xB1" /* ₱ */, "\xE2\x82\xA6" /* ₦ */};
+constexpr std::array<std::string_view, 20> kCurrencySigns = {"NZ$",
+                                                             "HK$",
+                                                             "US$",
+                                                             "Rs.",
+                                                             "A$",
+                                                             "C$",
+                                                             "S$",
+                                                             "R$",
+                                                             "Rs",
+                                                             "$",
+                                                             "\xE2\x82\xAC" /* € */,
+                                                             "\xC2\xA3" /* £ */,
+                                                             "\xC2\xA5" /* ¥ */,
+                                                             "\xE2\x82\xB9" /* ₹ */,
+                                                             "\xE2\x82\xA9" /* ₩ */,
+                                                             "\xE2\x82\xBD" /* ₽ */,
+                                                             "\xE2\x82\xBA" /* ₺ */,
+                                                             "\xE2\x82\xAA" /* ₪ */,
+                                                             "\xE2\x82\xB1" /* ₱ */,
+                                                             "\xE2\x82\xA6" /* ₦ */};
 
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
 bool is_upper(char c) { return c >= 'A' && c <= 'Z'; }
@@ -95,9 +110,8 @@ std::string shown(std::string_view separator) {
 std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     const std::string mark(1, decimal_mark);
     const char other_mark = decimal_mark == '.' ? ',' : '.';
-    const std::string hint = std::string("; if '") + other_mark +
-                             "' is the decimal mark, give '" + other_mark +
-                             "' as decimal_mark";
+    const std::string hint = std::string("; if '") + other_mark + "' is the decimal mark, give '" +
+                             other_mark + "' as decimal_mark";
     std::string_view s = trim(text);
     if (s.empty()) return std::nullopt;
 
@@ -138,8 +152,9 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
         }
         s = trim(s);
     }
-    if (signs > 1) throw Error("expected at most one sign (a minus, or parentheses), found " +
-                               std::to_string(signs));
+    if (signs > 1)
+        throw Error("expected at most one sign (a minus, or parentheses), found " +
+                    std::to_string(signs));
     if (currencies > 1) throw Error("expected at most one currency sign or code");
 
     // What is left must be the number itself; positions in messages count
@@ -172,7 +187,9 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
         }
         pos += here.size();
         std::size_t length = digit_run();
-        if (length == 0) throw Error(at(pos - here.size()) + "expected digits after a separator");
+        if (length == 0)
+            throw Error(at(pos < s.size() ? pos : pos - here.size()) +
+                        "expected digits after a grouping separator");
         groups.push_back(length);
     }
     bool has_fraction = pos < s.size();
@@ -198,22 +215,22 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
         // Thousands: 1-3 digits, then groups of three. Lakhs (Indian
         // English): 1-2 digits, groups of two, and three at the end.
         bool thousands = groups.front() >= 1 && groups.front() <= 3;
-        bool lakhs = separator == "," && groups.front() >= 1 && groups.front() <= 2 &&
-                     groups.back() == 3;
+        bool lakhs =
+            separator == "," && groups.front() >= 1 && groups.front() <= 2 && groups.back() == 3;
         for (std::size_t i = 1; i < groups.size(); ++i) {
             thousands = thousands && groups[i] == 3;
             lakhs = lakhs && (i + 1 == groups.size() || groups[i] == 2);
         }
         if (!thousands && !lakhs)
-            throw Error(at(first_separator) +
-                        "expected groups of three digits between grouping separators "
-                        "(1,234,567.89)" +
-                        (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint
-                                                                                        : ""));
+            throw Error(
+                at(first_separator) +
+                "expected groups of three digits between grouping separators "
+                "(1,234,567.89)" +
+                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint : ""));
         if (s[0] == '0')
-            throw Error(at(0) + "expected no leading zero before a grouping separator" +
-                        (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint
-                                                                                        : ""));
+            throw Error(
+                at(0) + "expected no leading zero before a grouping separator" +
+                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint : ""));
     }
 
     double value = 0;

@@ -16,6 +16,11 @@ std::size_t utf8_length(std::string_view text, std::size_t pos) {
     if (length == 0 || pos + length > text.size()) return 0;
     for (std::size_t i = 1; i < length; ++i)
         if ((byte(pos + i) & 0xC0) != 0x80) return 0;
+    // RFC 3629: no overlong forms, no surrogates, nothing above U+10FFFF.
+    unsigned char second = byte(pos + 1 < text.size() ? pos + 1 : pos);
+    if ((lead == 0xE0 && second < 0xA0) || (lead == 0xED && second > 0x9F) ||
+        (lead == 0xF0 && second < 0x90) || (lead == 0xF4 && second > 0x8F))
+        return 0;
     return length;
 }
 

@@ -44,24 +44,42 @@ std::string date_text(int year, unsigned month, unsigned day) {
 // What a directive reads, for messages.
 std::string expected_for(char directive) {
     switch (directive) {
-        case 'Y': return "%Y (a four-digit year)";
-        case 'y': return "%y (a two-digit year)";
-        case 'm': return "%m (a month number 1-12)";
-        case 'd': return "%d (a day of the month 1-31)";
-        case 'e': return "%e (a day of the month 1-31)";
-        case 'H': return "%H (an hour 0-23)";
-        case 'I': return "%I (an hour 1-12)";
-        case 'M': return "%M (minutes 0-59)";
-        case 'S': return "%S (seconds 0-59)";
-        case 'f': return "%f (digits of a fraction of a second)";
-        case 'p': return "%p (AM or PM)";
-        case 'b': return "%b (a month name such as Mar or March)";
-        case 'B': return "%B (a month name such as Mar or March)";
-        case 'a': return "%a (a weekday name such as Thu or Thursday)";
-        case 'A': return "%A (a weekday name such as Thu or Thursday)";
-        case 'j': return "%j (a day of the year 1-366)";
-        case 'z': return "%z (an offset such as +01:00, +0100 or Z)";
-        default: return "%";
+        case 'Y':
+            return "%Y (a four-digit year)";
+        case 'y':
+            return "%y (a two-digit year)";
+        case 'm':
+            return "%m (a month number 1-12)";
+        case 'd':
+            return "%d (a day of the month 1-31)";
+        case 'e':
+            return "%e (a day of the month 1-31)";
+        case 'H':
+            return "%H (an hour 0-23)";
+        case 'I':
+            return "%I (an hour 1-12)";
+        case 'M':
+            return "%M (minutes 0-59)";
+        case 'S':
+            return "%S (seconds 0-59)";
+        case 'f':
+            return "%f (digits of a fraction of a second)";
+        case 'p':
+            return "%p (AM or PM)";
+        case 'b':
+            return "%b (a month name such as Mar or March)";
+        case 'B':
+            return "%B (a month name such as Mar or March)";
+        case 'a':
+            return "%a (a weekday name such as Thu or Thursday)";
+        case 'A':
+            return "%A (a weekday name such as Thu or Thursday)";
+        case 'j':
+            return "%j (a day of the year 1-366)";
+        case 'z':
+            return "%z (an offset such as +01:00, +0100 or Z)";
+        default:
+            return "%";
     }
 }
 
@@ -131,32 +149,63 @@ TimeFormat TimeFormat::parse(std::string_view format) {
         char d = format[++i];
         Field field;
         switch (d) {
-            case '%': result.steps_.push_back({Field::Literal, '%', 0}); continue;
-            case 'Y': field = Field::Year; break;
-            case 'y': field = Field::TwoDigitYear; break;
-            case 'm': field = Field::Month; break;
+            case '%':
+                result.steps_.push_back({Field::Literal, '%', 0});
+                continue;
+            case 'Y':
+                field = Field::Year;
+                break;
+            case 'y':
+                field = Field::TwoDigitYear;
+                break;
+            case 'm':
+                field = Field::Month;
+                break;
             case 'd':
-            case 'e': field = Field::Day; break;
-            case 'H': field = Field::Hour24; break;
-            case 'I': field = Field::Hour12; break;
-            case 'M': field = Field::Minute; break;
-            case 'S': field = Field::Second; break;
-            case 'f': field = Field::Fraction; break;
-            case 'p': field = Field::AmPm; break;
+            case 'e':
+                field = Field::Day;
+                break;
+            case 'H':
+                field = Field::Hour24;
+                break;
+            case 'I':
+                field = Field::Hour12;
+                break;
+            case 'M':
+                field = Field::Minute;
+                break;
+            case 'S':
+                field = Field::Second;
+                break;
+            case 'f':
+                field = Field::Fraction;
+                break;
+            case 'p':
+                field = Field::AmPm;
+                break;
             case 'b':
-            case 'B': field = Field::MonthName; break;
+            case 'B':
+                field = Field::MonthName;
+                break;
             case 'a':
-            case 'A': field = Field::WeekdayName; break;
-            case 'j': field = Field::DayOfYear; break;
-            case 'z': field = Field::Offset; break;
+            case 'A':
+                field = Field::WeekdayName;
+                break;
+            case 'j':
+                field = Field::DayOfYear;
+                break;
+            case 'z':
+                field = Field::Offset;
+                break;
             default:
-                throw Error("unknown directive at " + character_at(format, i - 1, 1 + utf8_length(format, i)) +
+                throw Error("unknown directive at " +
+                            character_at(format, i - 1, 1 + utf8_length(format, i)) +
                             "; expected one of " + std::string(kDirectives));
         }
         // Two spellings of one field (%d and %e, %b and %B) count as one.
         char key = d == 'e' ? 'd' : d == 'B' ? 'b' : d == 'A' ? 'a' : d;
         if (seen[int(key)])
-            throw Error("%" + std::string(1, d) + " at " + character_at(format, i - 1) +
+            throw Error("%" + std::string(1, d) + " at " + character_at(format, i - 1, 2) +
                         " reads a field the format already reads");
         seen[int(key)] = true;
         result.steps_.push_back({field, 0, d});
@@ -172,8 +221,7 @@ TimeFormat TimeFormat::parse(std::string_view format) {
     if (!has('j') && !month)
         throw Error("the format has no day; expected %m (or %b) with %d, or %j");
     if (has('H') && has('I')) throw Error("the format has both %H and %I; expected one hour");
-    if (has('I') != has('p'))
-        throw Error("%I (a 12-hour clock) and %p (AM or PM) need each other");
+    if (has('I') != has('p')) throw Error("%I (a 12-hour clock) and %p (AM or PM) need each other");
     bool hour = has('H') || has('I');
     if (has('M') && !hour) throw Error("the format has %M without an hour (%H or %I)");
     if (has('S') && !has('M')) throw Error("the format has %S without minutes (%M)");
@@ -219,23 +267,36 @@ TimeReading TimeFormat::read(std::string_view raw) const {
                 if (pos >= text.size() || !is_space(text[pos])) mismatch(text, pos, "a space");
                 while (pos < text.size() && is_space(text[pos])) ++pos;
                 break;
-            case Field::Year: year = number(step, 4, 0, 9999, true); break;
+            case Field::Year:
+                year = number(step, 4, 0, 9999, true);
+                break;
             case Field::TwoDigitYear: {
-                // POSIX's rule, which Python's strptime follows: 69-99 are 1969-1999, 00-68 are 2000-2068.
+                // POSIX's rule, which Python's strptime follows: 69-99 are 1969-1999, 00-68 are
+                // 2000-2068.
                 int yy = number(step, 2, 0, 99, true);
                 year = yy < 69 ? 2000 + yy : 1900 + yy;
                 break;
             }
-            case Field::Month: month = number(step, 2, 1, 12); break;
+            case Field::Month:
+                month = number(step, 2, 1, 12);
+                break;
             case Field::Day:
                 // One space may pad a one-digit day ("Mar  5"), as %e writes it.
                 if (pos + 1 < text.size() && text[pos] == ' ' && is_digit(text[pos + 1])) ++pos;
                 day = number(step, 2, 1, 31);
                 break;
-            case Field::Hour24: hour = number(step, 2, 0, 23); break;
-            case Field::Hour12: hour = number(step, 2, 1, 12); break;
-            case Field::Minute: minute = number(step, 2, 0, 59); break;
-            case Field::Second: second = number(step, 2, 0, 59); break;
+            case Field::Hour24:
+                hour = number(step, 2, 0, 23);
+                break;
+            case Field::Hour12:
+                hour = number(step, 2, 1, 12);
+                break;
+            case Field::Minute:
+                minute = number(step, 2, 0, 59);
+                break;
+            case Field::Second:
+                second = number(step, 2, 0, 59);
+                break;
             case Field::Fraction: {
                 // Up to nanoseconds; rounded half up to the millisecond.
                 std::size_t start = pos;
@@ -311,8 +372,8 @@ TimeReading TimeFormat::read(std::string_view raw) const {
         static constexpr unsigned kDays[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
         unsigned last = kDays[month - 1] + (month == 2 && leap);
         if (unsigned(day) > last)
-            throw Error("no such date: " + std::to_string(year) + "-" + two_digits(unsigned(month)) +
-                        " has " + std::to_string(last) + " days");
+            throw Error("no such date: " + std::to_string(year) + "-" +
+                        two_digits(unsigned(month)) + " has " + std::to_string(last) + " days");
         day_number = day_number_from_civil(year, unsigned(month), unsigned(day));
         if (day_of_year != 0) {
             int actual = int(day_number - day_number_from_civil(year, 1, 1)) + 1;
@@ -355,8 +416,8 @@ LocalTime read_spreadsheet_serial(double serial) {
     std::int64_t ms = std::llround(serial * 86400000.0);
     // Serials below 60 count from 1899-12-31; from 61 on, the false leap day
     // shifts the count so they start from 1899-12-30.
-    std::int32_t epoch = serial < 60.0 ? day_number_from_civil(1899, 12, 31)
-                                       : day_number_from_civil(1899, 12, 30);
+    std::int32_t epoch =
+        serial < 60.0 ? day_number_from_civil(1899, 12, 31) : day_number_from_civil(1899, 12, 30);
     return LocalTime{date::days{epoch}} + Millis{ms};
 }
 
