@@ -26,13 +26,13 @@
 #include <optional>
 #include <string>
 
-#include "core/chart/chart_options.h"
-#include "core/text/error.h"
-#include "core/chart/line_chart.h"
-#include "core/chart/sparkline.h"
-#include "core/chart/axis_kind.h"
 #include "aggregate_state.h"
 #include "arguments.h"
+#include "core/chart/axis_kind.h"
+#include "core/chart/chart_options.h"
+#include "core/chart/line_chart.h"
+#include "core/chart/sparkline.h"
+#include "core/text/error.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
@@ -45,7 +45,9 @@ struct XReading {
 };
 
 // A number (including numeric TEXT, as SQLite reads it) or a time value.
-std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value) {
+// With a zone, time values are placed on its wall clock (see time_axis_value).
+std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
+                               const ZoneClock* zone = nullptr) {
     switch (sqlite3_value_type(value)) {
         case SQLITE_NULL:
             return std::nullopt;
@@ -57,7 +59,9 @@ std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value) {
             if (numeric_text(text ? text : ""))
                 return XReading{XKind::Number, *read_number(arg, value)};
             try {
-                return XReading{XKind::Time, time_axis_value(*read_time(arg, value))};
+                TimeValue time = *read_time(arg, value);
+                return XReading{XKind::Time,
+                                zone ? time_axis_value(time, *zone) : time_axis_value(time)};
             } catch (const SqlError& error) {
                 // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.
                 throw SqlError(std::string(error.what()) +
@@ -137,8 +141,7 @@ std::optional<std::string> read_series(const ArgumentRef& arg, sqlite3_value* va
     }
 }
 
-void read_options(ChartState& state, sqlite3_value* value) {
-    ArgumentRef arg{kChart, 5, "options"};
+void read_options(ChartState& state, const ArgumentRef& arg, sqlite3_value* value) {
     auto text = read_text(arg, value);
     if (!state.options_read) {
         state.options_read = true;
@@ -161,8 +164,10 @@ void read_options(ChartState& state, sqlite3_value* value) {
 
 void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
     guarded(context, [&] {
+        auto& state = aggregate_state<ChartState>(context);
+        if (argc >= 5) read_options(state, {kChart, 5, "options"}, argv[4]);
         ArgumentRef x_arg{kChart, 1, "x"};
-        auto x = read_x(x_arg, argv[0]);
+        auto x = read_x(x_arg, argv[0], state.options.zone ? &*state.options.zone : nullptr);
         auto y = read_number({kChart, 2, "y"}, argv[1]);
         auto series = read_series({kChart, 3, "series"}, argv[2]);
         ChartLayer layer = ChartLayer::Smooth;
@@ -176,8 +181,6 @@ void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
                 }
             }
         }
-        auto& state = aggregate_state<ChartState>(context);
-        if (argc >= 5) read_options(state, argv[4]);
         if (!x || !series) return;
         try {
             state.chart.accept_x_kind(x->kind);

@@ -282,11 +282,22 @@ def test_invalid_utf8_and_control_characters_do_not_break_the_document(db):
 BAD_OPTIONS = [
     ("{title: 1}", "invalid JSON at byte 2: expected a key in double quotes"),
     ('{"title": "a",}', "invalid JSON at byte 15: expected a key in double quotes"),
-    ('{"colour": "red"}', 'unknown key "colour": expected title, width, height or y_caption'),
+    ('{"colour": "red"}', 'unknown key "colour": expected title, width, height, y_caption, series_order, period or zone'),
     ('{"width": "wide"}', 'key "width" = "wide": expected a whole number of pixels from 200 to 10000'),
     ('{"height": 20}', 'key "height" = 20: expected a whole number of pixels from 150 to 10000'),
     ('{"title": 7}', 'key "title" = 7: expected a string'),
     ('[1]', 'expected a JSON object such as {"title": "Sales"}, not an array'),
+    ('{"series_order": "Espresso"}',
+     'key "series_order" = "Espresso": expected an array of series names such as ["Espresso", "Rye"]'),
+    ('{"series_order": ["a", 2]}',
+     'key "series_order" holds 2: expected an array of series names such as ["Espresso", "Rye"]'),
+    ('{"period": "fortnight"}',
+     'key "period" = "fortnight": unknown unit \'fortnight\'; expected [count] unit [starting weekday|month] '
+     '[from YYYY-MM-DD[ HH:MM[:SS]]] with unit one of second, minute, hour, day, week, half-month, month, '
+     'quarter, year, or an ISO 8601 duration such as P1W or PT15M'),
+    ('{"zone": "Mars/Base"}',
+     'key "zone" = "Mars/Base": not in the tz database; expected an IANA time zone name such as '
+     '\'America/Denver\' or \'UTC\''),
 ]
 
 
@@ -465,3 +476,62 @@ def test_sparkline_in_the_shell(shell):
     out = shell("SELECT sparkline(v, k) FROM (SELECT 1 AS k, 0 AS v UNION ALL SELECT 2, 7 "
                 "UNION ALL SELECT 3, 3.5);\n")
     assert out == BLOCKS[0] + BLOCKS[7] + BLOCKS[4] + "\n"  # 3.5 -> 3.5 rounds up to level 4
+
+
+# ---------------------------------------------------------------------------
+# Shared options: series_order, period, zone (DESIGN.md "Reports")
+
+
+def stroke_of(root, series):
+    return next(p.get("stroke") for p in paths(root) if p.get("data-series") == series)
+
+
+def test_series_order_keeps_an_item_s_colour_across_charts_with_different_items(db):
+    order = '{"series_order": ["Rye", "Espresso", "Chai", "Cocoa"]}'
+    first = ET.fromstring(chart(db, [(x, x, s, "smooth", order) for s in ("Rye", "Espresso") for x in range(3)],
+                                "layer", "options"))
+    second = ET.fromstring(chart(db, [(x, x, s, "smooth", order) for s in ("Espresso", "Cocoa", "Zest")
+                                      for x in range(3)], "layer", "options"))
+    without = ET.fromstring(chart(db, [(x, x, s) for s in ("Espresso", "Cocoa") for x in range(3)]))
+    # contract: colours in series_order's order, so Espresso keeps its slot although Rye is absent
+    assert stroke_of(first, "Espresso") == stroke_of(second, "Espresso")
+    assert stroke_of(first, "Rye") != stroke_of(second, "Espresso")
+    # without series_order the sorted rule gives Cocoa the first colour and Espresso the second
+    assert stroke_of(without, "Cocoa") == stroke_of(first, "Rye")
+    assert stroke_of(without, "Espresso") == stroke_of(first, "Espresso")
+    # names not in the list follow it: Zest takes slot 4, after the four listed names
+    assert [name for name, _, _ in legend(second)] == ["Espresso", "Cocoa", "Zest"]
+    assert len({stroke_of(second, s) for s in ("Espresso", "Cocoa", "Zest")}) == 3
+
+
+def test_period_breaks_a_line_over_a_missing_week_only(db):
+    mondays = [datetime.date(2025, 1, 6) + datetime.timedelta(weeks=k) for k in range(6)]
+    present = [m for k, m in enumerate(mondays) if k != 3]  # week 4 has no row (datetime)
+    rows = [(m.isoformat(), 10 + k, "a", "smooth", '{"period": "week"}') for k, m in enumerate(present)]
+    root = ET.fromstring(chart(db, rows, "layer", "options"))
+    runs = subpaths(paths(root)[0].get("d"))
+    # contract: consecutive weeks joined, the gap of one week breaks the line: 3 points, then 2
+    assert [len(run) for run in runs] == [3, 2]
+    plain = ET.fromstring(chart(db, [r[:3] for r in rows]))
+    assert [len(run) for run in subpaths(paths(plain)[0].get("d"))] == [5]  # without period: bridged
+    months = [(f"2025-{m:02d}-01", m, "a", "smooth", '{"period": "month"}') for m in (1, 2, 3, 4, 5)]
+    root = ET.fromstring(chart(db, months, "layer", "options"))
+    assert [len(run) for run in subpaths(paths(root)[0].get("d"))] == [5]  # months of 28-31 days: no break
+
+
+def test_zone_puts_the_calendar_axis_on_local_time(db):
+    # Sales at 01:00-05:00 UTC on 2 March are the evening of 1 March in Denver (zoneinfo).
+    rows = [(f"2026-03-0{d} 0{h}:00:00", h, "a") for d in (2, 3, 4) for h in (1, 3, 5)]
+    denver = '{"zone": "America/Denver"}'
+    utc_root = ET.fromstring(chart(db, rows))
+    zoned_root = ET.fromstring(chart(db, [r + ("smooth", denver) for r in rows], "layer", "options"))
+    def first_label(root):
+        group = next(g for g in root.iter(f"{SVG}g") if g.get("class") == "x-axis")
+        return [t.text for t in group.findall(f"{SVG}text")]
+    from zoneinfo import ZoneInfo
+    local = datetime.datetime(2026, 3, 2, 1, tzinfo=datetime.timezone.utc).astimezone(ZoneInfo("America/Denver"))
+    assert local.day == 1 and local.hour == 18  # oracle: zoneinfo
+    # the UTC axis starts on 2 March; the Denver axis shows 1 March's evening first
+    assert any("2 Mar" in label for label in first_label(utc_root))
+    assert any("1 Mar" in label for label in first_label(zoned_root))
+    assert not any("1 Mar" in label for label in first_label(utc_root))

@@ -12,6 +12,11 @@ double time_axis_value(const TimeValue& value) {
     return static_cast<double>(t.time_since_epoch().count());
 }
 
+double time_axis_value(const TimeValue& value, const ZoneClock& zone) {
+    if (value.is_calendar_day) return time_axis_value(value);
+    return static_cast<double>(zone.to_local(value.instant).time_since_epoch().count());
+}
+
 Instant instant_from_axis_value(double value) {
     return Instant{Millis{static_cast<std::int64_t>(std::llround(value))}};
 }

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "core/time/time_value.h"
+#include "core/time/zone_clock.h"
 
 namespace almanac {
 
@@ -16,6 +17,10 @@ enum class XKind { Number, Time };
 // (exact: every supported instant is below 2^53 ms). A calendar day counts
 // from its UTC midnight, as DESIGN.md reads a bare date without a zone.
 double time_axis_value(const TimeValue& value);
+// The same on a zone's wall clock: an instant is placed at its local reading
+// (as if that reading were UTC), a calendar day at its midnight, so that a
+// UTC calendar axis over these values is the zone's local calendar.
+double time_axis_value(const TimeValue& value, const ZoneClock& zone);
 Instant instant_from_axis_value(double value);
 
 const char* describe_x_kind(XKind kind);  // "a number", "a time value"

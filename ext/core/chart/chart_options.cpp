@@ -27,7 +27,24 @@ int size_option(const std::string& key, const JsonValue& value, int minimum, int
     return static_cast<int>(number);
 }
 
+std::vector<std::string> names_option(const std::string& key, const JsonValue& value) {
+    std::string expected = "expected an array of series names such as [\"Espresso\", \"Rye\"]";
+    if (value.type() != JsonValue::Type::Array)
+        throw Error("key \"" + key + "\" = " + value.describe() + ": " + expected);
+    std::vector<std::string> names;
+    for (const JsonValue& item : value.array()) {
+        if (item.type() != JsonValue::Type::String)
+            throw Error("key \"" + key + "\" holds " + item.describe() + ": " + expected);
+        names.push_back(item.string());
+    }
+    return names;
+}
+
 }  // namespace
+
+const char* known_chart_option_keys() {
+    return "title, width, height, y_caption, series_order, period or zone";
+}
 
 ChartOptions parse_chart_options(std::string_view json) {
     JsonValue document = parse_json(json);
@@ -49,8 +66,29 @@ ChartOptions parse_chart_options(std::string_view json) {
             if (!is_null)
                 options.height =
                     size_option(key, value, ChartOptions::kMinHeight, ChartOptions::kMaxHeight);
+        } else if (key == "series_order") {
+            if (!is_null) options.series_order = names_option(key, value);
+        } else if (key == "period") {
+            if (!is_null) {
+                std::string text = text_option(key, value);
+                try {
+                    options.period = parse_period_spec(text);
+                } catch (const Error& error) {
+                    throw Error("key \"" + key + "\" = " + value.describe() + ": " + error.what());
+                }
+            }
+        } else if (key == "zone") {
+            if (!is_null) {
+                std::string text = text_option(key, value);
+                try {
+                    options.zone = ZoneClock::named(text);
+                } catch (const Error& error) {
+                    throw Error("key \"" + key + "\" = " + value.describe() + ": " + error.what());
+                }
+            }
         } else {
-            throw Error("unknown key \"" + key + "\": expected title, width, height or y_caption");
+            throw Error("unknown key \"" + key + "\": expected " +
+                        std::string(known_chart_option_keys()));
         }
     }
     return options;

@@ -8,9 +8,11 @@
 #include "core/chart/axis_ticks.h"
 #include "core/chart/calendar_ticks.h"
 #include "core/chart/chart_palette.h"
-#include "core/text/error.h"
+#include "core/chart/series_ranking.h"
 #include "core/chart/svg_writer.h"
+#include "core/text/error.h"
 #include "core/text/xml_text.h"
+#include "core/time/period_calendar.h"
 
 namespace almanac {
 
@@ -76,16 +78,11 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
     const double width = options.width, height = options.height;
     const XKind kind = x_kind_.kind().value_or(XKind::Number);
 
-    // Ranks: the place of each series in byte order of its name.
-    std::vector<std::string> names(series_ids_.size());
-    std::vector<std::size_t> rank_of_id(series_ids_.size());
-    {
-        std::size_t rank = 0;
-        for (const auto& [name, id] : series_ids_) {  // std::map iterates in sorted order
-            names[rank] = name;
-            rank_of_id[id] = rank++;
-        }
-    }
+    // Ranks: the place of each series in the legend; its palette slot follows
+    // series_order, then byte order of the name.
+    const SeriesRanking ranking = rank_series(series_ids_, options.series_order);
+    const std::vector<std::string>& names = ranking.names;
+    const std::vector<std::size_t>& rank_of_id = ranking.position_of_id;
 
     // One line per (series, layer) that has rows, raw layers first so the
     // thick smooth lines are drawn over them.
@@ -259,6 +256,15 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
     }
     svg.close();
 
+    // With a period, x values are period starts: two points more than one
+    // period apart have a period without a row between them, and a line
+    // across it would invent values. (x is already on the zone's wall clock.)
+    std::optional<PeriodCalendar> periods;
+    if (options.period) periods.emplace(*options.period, ZoneClock::utc());
+    auto serial_of = [&](double x) {
+        return periods->period_of(instant_from_axis_value(x)).serial;
+    };
+
     // The lines. A missing y ends a subpath; the next value starts a new one
     // ("M"). A value alone between gaps is a zero-length subpath, which round
     // caps draw as a dot, so it does not vanish.
@@ -271,7 +277,17 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
         bool pen_down = false;
         double last_x = 0, last_y = 0;
         std::size_t run = 0;
+        std::int64_t last_serial = 0;
         for (const auto& [x, y] : line.points) {
+            if (y && periods && pen_down) {
+                std::int64_t serial = serial_of(x);
+                if (serial - last_serial > 1) {
+                    if (run == 1) d += "L" + svg_number(last_x) + " " + svg_number(last_y);
+                    pen_down = false;
+                    run = 0;
+                }
+            }
+            if (y && periods) last_serial = serial_of(x);
             if (!y) {
                 if (run == 1) d += "L" + svg_number(last_x) + " " + svg_number(last_y);
                 pen_down = false;
@@ -285,7 +301,7 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
         }
         if (run == 1) d += "L" + svg_number(last_x) + " " + svg_number(last_y);
 
-        SeriesStyle style = series_style(line.rank);
+        SeriesStyle style = series_style(ranking.slots[line.rank]);
         const bool raw = line.layer == ChartLayer::Raw;
         const double stroke_width = raw ? kRawWidth : kSmoothWidth;
         SvgAttributes attributes = {{"class", "line"},
@@ -307,7 +323,7 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
     for (std::size_t rank = 0; rank < names.size(); ++rank) {
         double x = plot_x1 + kMargin + double(rank / per_column) * column_w;
         double y = plot_y0 + kLegendRow * (double(rank % per_column) + 0.5);
-        SeriesStyle style = series_style(rank);
+        SeriesStyle style = series_style(ranking.slots[rank]);
         svg.open("g", {{"class", "legend-entry"}, {"data-series", names[rank]}});
         std::string shown = shorten_utf8(names[rank], legend_chars);
         if (shown != names[rank]) svg.text("title", {}, names[rank]);

@@ -14,8 +14,8 @@
 #include <cstdio>
 #include <vector>
 
-#include "core/time/civil_days.h"
 #include "core/text/error.h"
+#include "core/time/civil_days.h"
 
 namespace almanac {
 namespace {
@@ -368,7 +368,8 @@ Period PeriodCalendar::period_by_serial(std::int64_t serial) const {
 
 std::pair<std::int64_t, std::int64_t> PeriodCalendar::supported_serials() const {
     Period first = period_of(earliest_supported_instant());
-    std::int64_t lowest = first.start < earliest_supported_instant() ? first.serial + 1 : first.serial;
+    std::int64_t lowest =
+        first.start < earliest_supported_instant() ? first.serial + 1 : first.serial;
     return {lowest, period_of(latest_supported_instant() - Millis{1}).serial};
 }
 

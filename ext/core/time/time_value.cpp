@@ -7,8 +7,8 @@
 #include <cstdlib>
 #include <initializer_list>
 
-#include "core/time/civil_days.h"
 #include "core/text/error.h"
+#include "core/time/civil_days.h"
 
 namespace almanac {
 namespace {
@@ -257,11 +257,14 @@ TimeValue parse_time_real(double v) {
         // SQLite rounds a Julian day to the millisecond the same way.
         auto jd_millis = static_cast<std::int64_t>(v * 86400000.0 + 0.5);
         t = from_unix_millis(jd_millis - kUnixEpochJulianMillis);
-        check_range(t, [v] {
-            char shown[32];
-            std::snprintf(shown, sizeof shown, "%.15g", v);
-            return std::string("Julian day ") + shown;
-        }, [v] { return misread_number_hint(v); });
+        check_range(
+            t,
+            [v] {
+                char shown[32];
+                std::snprintf(shown, sizeof shown, "%.15g", v);
+                return std::string("Julian day ") + shown;
+            },
+            [v] { return misread_number_hint(v); });
     } else {
         value.representation = Representation::UnixSeconds;
         double ms = std::floor(v * 1000.0 + 0.5);

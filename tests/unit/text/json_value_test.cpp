@@ -85,7 +85,7 @@ TEST_CASE("chart options read the four keys and refuse anything else") {
     CHECK(defaults.width == ChartOptions{}.width);
 
     CHECK_THROWS_WITH(parse_chart_options(R"({"colour": "red"})"),
-                      "unknown key \"colour\": expected title, width, height or y_caption");
+                      "unknown key \"colour\": expected title, width, height, y_caption, series_order, period or zone");
     CHECK_THROWS_WITH(
         parse_chart_options(R"({"width": "wide"})"),
         "key \"width\" = \"wide\": expected a whole number of pixels from 200 to 10000");

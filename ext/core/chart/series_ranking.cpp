@@ -1,0 +1,40 @@
+// SPDX-License-Identifier: MIT
+#include "core/chart/series_ranking.h"
+
+#include <algorithm>
+#include <string_view>
+
+namespace almanac {
+
+SeriesRanking rank_series(const std::map<std::string, std::uint32_t, std::less<>>& ids,
+                          const std::vector<std::string>& series_order) {
+    // A name listed twice keeps its first place.
+    std::map<std::string_view, std::size_t> listed;
+    for (std::size_t i = 0; i < series_order.size(); ++i) listed.emplace(series_order[i], i);
+
+    struct Entry {
+        std::size_t slot;
+        const std::string* name;
+        std::uint32_t id;
+    };
+    std::vector<Entry> entries;
+    std::size_t unlisted = 0;
+    for (const auto& [name, id] : ids) {  // std::map iterates in sorted order
+        auto found = listed.find(name);
+        std::size_t slot = found != listed.end() ? found->second : series_order.size() + unlisted++;
+        entries.push_back({slot, &name, id});
+    }
+    std::sort(entries.begin(), entries.end(),
+              [](const Entry& a, const Entry& b) { return a.slot < b.slot; });
+
+    SeriesRanking ranking;
+    ranking.position_of_id.resize(ids.size());
+    for (std::size_t position = 0; position < entries.size(); ++position) {
+        ranking.names.push_back(*entries[position].name);
+        ranking.slots.push_back(entries[position].slot);
+        ranking.position_of_id[entries[position].id] = position;
+    }
+    return ranking;
+}
+
+}  // namespace almanac
