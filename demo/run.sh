@@ -9,19 +9,29 @@
 # The same report for a database of your own (a table or view sales(ts, item,
 # qty, amount), see sql/), e.g. from cron; nothing is generated then:
 #   demo/run.sh --db /path/to/sales.db [--zone Europe/Vienna] [--out DIR]
+# A database whose ts holds the zone's wall-clock time, not UTC: add
+# --local-time, and the reports read it through a temporary view that turns
+# each reading into its UTC instant once, with to_time(ts, FORMAT, zone)
+# (FORMAT is --local-format, default '%Y-%m-%d %H:%M:%S'). Never pass a zone
+# for local data without --local-time: every time would be shifted twice.
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 seed=20230102
 own_db=""
 zone=America/Denver
 out=demo/out
+local_time=""
+local_format='%Y-%m-%d %H:%M:%S'
 while [ $# -gt 0 ]; do
   case $1 in
     --seed) seed=$2; shift 2 ;;
     --db) own_db=$(cd "$(dirname "$2")" && pwd)/$(basename "$2"); shift 2 ;;
     --zone) zone=$2; shift 2 ;;
     --out) mkdir -p "$2"; out=$(cd "$2" && pwd); shift 2 ;;
-    *) echo "usage: demo/run.sh [--seed N] | --db FILE [--zone IANA-ZONE] [--out DIR]" >&2; exit 2 ;;
+    --local-time) local_time=1; shift ;;
+    --local-format) local_format=$2; shift 2 ;;
+    *) echo "usage: demo/run.sh [--seed N] | --db FILE [--zone IANA-ZONE] [--out DIR]" \
+            "[--local-time [--local-format FORMAT]]" >&2; exit 2 ;;
   esac
 done
 
@@ -33,10 +43,23 @@ mkdir -p "$out/charts"
 if [ -n "$own_db" ]; then
   db=$own_db
   business="Sales report"
+elif [ -n "$local_time" ]; then
+  echo "demo/run.sh: --local-time reads a database of your own; give it with --db FILE" >&2
+  exit 2
 else
   db="$out/shop.db"
   business="Hollow Oak Bakehouse: sales report"
   /usr/bin/python3 demo/generate.py --out "$db" --seed "$seed"
+fi
+
+# With --local-time, a temporary view named sales (found before main.sales)
+# gives every report UTC instants; all other columns pass through unchanged.
+local_view=()
+if [ -n "$local_time" ]; then
+  quote_sql() { printf "'%s'" "${1//\'/\'\'}"; }
+  columns=$(sqlite3 -batch -init /dev/null "$db" \
+    "SELECT group_concat('\"' || replace(name, '\"', '\"\"') || '\"', ', ') FROM pragma_table_xinfo('sales') WHERE name <> 'ts'")
+  local_view=(-cmd "CREATE TEMP VIEW sales AS SELECT to_time(ts, $(quote_sql "$local_format"), $(quote_sql "$zone")) AS ts${columns:+, $columns} FROM main.sales;")
 fi
 
 # report FILE MODE [name value ...]: one report file through the sqlite3 shell,
@@ -44,7 +67,7 @@ fi
 report() {
   local file=$1 mode=$2
   shift 2
-  local args=(-batch -bail -init /dev/null -cmd ".load build/almanac"
+  local args=(-batch -bail -init /dev/null -cmd ".load build/almanac" "${local_view[@]}"
               -cmd ".parameter set @zone $zone")
   while [ $# -ge 2 ]; do
     args+=(-cmd ".parameter set @$1 \"$2\"")
