@@ -69,3 +69,11 @@ def test_the_same_rows_with_numeric_money_run(report, tmp_path):
     make_database(database, amount_as_text=False)
     result = run_report(database, report)
     assert result.returncode == 0, result.stderr
+
+
+@pytest.mark.parametrize("report", REPORTS, ids=[r.name for r in REPORTS])
+def test_every_report_header_states_the_time_basis_and_points_to_to_amount(report):
+    # The issue: each report header gains a short "Your data" note (time basis, to_time, to_amount).
+    header = report.read_text().split("\nWITH", 1)[0]
+    assert 'Your data (README, "Your data")' in header
+    assert "to_time(text, format, zone)" in header and "to_amount()" in header
