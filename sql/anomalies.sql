@@ -1,0 +1,87 @@
+-- SPDX-License-Identifier: MIT
+-- almanac report: unusual days. Per item and local day, the day's amount
+-- against the typical amount of the same weekday in the surrounding weeks,
+-- listing the days that break the pattern: promotions, closures, a snow day.
+--
+-- The typical level of a day is the median of the same weekday over the 8
+-- weeks before and the 8 weeks after it (the day itself excluded, so a wild
+-- day cannot hide itself), and its spread is their MAD (median absolute
+-- deviation). A Saturday is compared with Saturdays only, so an ordinary
+-- busy Saturday is not a spike. The score is the modified z-score of
+-- Iglewicz & Hoaglin (1993):
+--     score = 0.6745 * (amount - typical) / MAD
+-- and a day is listed when |score| > @threshold (default 3.5, their cut-off).
+-- Days without sales of the item count as 0 from the first to the last day
+-- on which the shop sold anything (so a closed day is a 0, not a gap); a day
+-- is skipped when fewer than 8 same weekdays surround it or their MAD is 0
+-- (the score is not defined; an item sold three months a year has MAD 0 and
+-- median 0 out of season, where a 0 is no news).
+--
+-- Reads a table or view named sales:
+--   sales(ts, item, qty, amount)  as in sql/trend.sql; amounts added with exact_sum.
+--
+-- Parameters (sqlite3 shell: .parameter set @name value; unset ones take the default;
+-- a date needs both kinds of quotes, or the shell computes 2025-01-06 = 2018):
+--   @zone       IANA time zone of the shop's calendar       default 'UTC'
+--   @start      first local day listed, "'YYYY-MM-DD'"     default: the day of the first sale
+--   @stop       local day after the last one listed        default: the day after the last sale
+--   @item       unset: every item; a name: that item only
+--   @threshold  |score| above which a day is listed       default 3.5
+--   The surrounding weeks are read outside [@start, @stop) too, when there are sales there.
+--
+-- Columns, one row per unusual day and item, oldest first:
+--   day      the local day, YYYY-MM-DD
+--   item
+--   amount   the day's amount (0 when the item had no sales)
+--   typical  the median of the same weekday over the 8 weeks either side
+--   score    the modified z-score, rounded to 1 place
+--   kind     'spike' (score > threshold), 'closed' (no sales at all on a day
+--            the item normally sells), or 'drop' (score < -threshold otherwise)
+--
+-- Run:
+--   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
+--           -cmd '.mode column' shop.db < sql/anomalies.sql
+WITH
+settings AS (
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@threshold, 3.5) AS threshold, @item AS item_choice
+),
+daily_sales AS (
+  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
+  FROM sales AS s, settings
+  WHERE settings.item_choice IS NULL OR s.item = settings.item_choice
+  GROUP BY 1, 2
+),
+trading AS (
+  SELECT min(period_floor(s.ts, 'day', settings.zone)) AS first,
+         max(period_end(s.ts, 'day', settings.zone)) AS stop
+  FROM sales AS s, settings
+),
+days AS (
+  SELECT p.serial, p.period_start AS day, period_position(p.period_start, 'day', 'week') AS weekday
+  FROM settings, trading, periods(trading.first, trading.stop, 'day', settings.zone) AS p
+),
+daily AS (
+  SELECT i.item, d.serial, d.day, d.weekday, coalesce(t.amount, 0) AS amount
+  FROM days AS d
+  CROSS JOIN (SELECT DISTINCT item FROM daily_sales) AS i
+  LEFT JOIN daily_sales AS t ON t.serial = d.serial AND t.item = i.item
+),
+scored AS (
+  SELECT item, day, amount,
+         median(amount) OVER same_weekday AS typical,
+         mad(amount) OVER same_weekday AS spread,
+         count(*) OVER same_weekday AS neighbours
+  FROM daily
+  WINDOW same_weekday AS (PARTITION BY item, weekday ORDER BY serial
+                          ROWS BETWEEN 8 PRECEDING AND 8 FOLLOWING EXCLUDE CURRENT ROW)
+)
+SELECT sc.day, sc.item, sc.amount, sc.typical,
+       round(0.6745 * (sc.amount - sc.typical) / sc.spread, 1) AS score,
+       CASE WHEN sc.amount > sc.typical THEN 'spike'
+            WHEN sc.amount = 0 THEN 'closed'
+            ELSE 'drop' END AS kind
+FROM scored AS sc, settings
+WHERE sc.neighbours >= 8 AND sc.spread > 0
+  AND abs(0.6745 * (sc.amount - sc.typical) / sc.spread) > settings.threshold
+  AND sc.day >= coalesce(@start, '0000-01-01') AND sc.day < coalesce(@stop, '9999-12-31')
+ORDER BY sc.day, sc.item;

@@ -1,0 +1,103 @@
+-- SPDX-License-Identifier: MIT
+-- almanac report: the seasonal profile. Per item, when in the week and when
+-- in the year it sells: the weekday index and the month-of-year index.
+--
+-- An index is a period's mean daily amount over the item's overall mean
+-- daily amount, in percent: 100 is an ordinary day, 150 half as much again,
+-- 0 a period in which the item does not sell. Days count from the first to
+-- the last day on which the shop sold anything, a day without sales of the
+-- item as 0 (so an item sold three months a year has nine months at 0), and
+-- every weekday and month is the mean of its days, so a 31-day month does
+-- not outweigh a 28-day one. Months pool the years of the range: with a
+-- strong trend the later years weigh more, so read the month index of a
+-- fast-growing item with the trend table beside it.
+--
+-- Reads a table or view named sales:
+--   sales(ts, item, qty, amount)  as in sql/trend.sql; amounts added with exact_sum.
+--
+-- Parameters (sqlite3 shell: .parameter set @name value; unset ones take the default;
+-- a date needs both kinds of quotes, or the shell computes 2025-01-06 = 2018):
+--   @zone    IANA time zone of the shop's calendar        default 'UTC'
+--   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
+--   @stop    local day after the last one                default: the day after the last sale
+--   @item    unset: every item; a name: that item only
+--
+-- Columns, one row per item, in item order:
+--   item
+--   peak_day         the weekday with the highest index
+--   mon .. sun       weekday index (Monday first), whole percent
+--   peak_month       the month with the highest index
+--   jan .. dec       month-of-year index, whole percent
+--   days             days in the range
+--
+-- Run:
+--   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
+--           -cmd '.mode column' shop.db < sql/seasonal_profile.sql
+WITH
+settings AS (
+  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice
+),
+range AS (
+  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+         coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
+  FROM sales AS s, settings
+),
+daily_sales AS (
+  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
+  FROM sales AS s, settings
+  WHERE settings.item_choice IS NULL OR s.item = settings.item_choice
+  GROUP BY 1, 2
+),
+days AS (
+  SELECT p.serial, period_position(p.period_start, 'day', 'week') AS weekday,
+         period_position(p.period_start, 'month', 'year') AS month
+  FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
+),
+daily AS (
+  SELECT i.item, d.weekday, d.month, coalesce(t.amount, 0) AS amount
+  FROM days AS d
+  CROSS JOIN (SELECT DISTINCT item FROM daily_sales) AS i
+  LEFT JOIN daily_sales AS t ON t.serial = d.serial AND t.item = i.item
+),
+overall AS (
+  SELECT item, avg(amount) AS mean, count(*) AS days FROM daily GROUP BY item
+),
+by_weekday AS (
+  SELECT d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  FROM daily AS d JOIN overall AS o USING (item) GROUP BY d.item, d.weekday
+),
+by_month AS (
+  SELECT d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  FROM daily AS d JOIN overall AS o USING (item) GROUP BY d.item, d.month
+),
+peaks AS (
+  SELECT item,
+         (SELECT position FROM by_weekday AS w WHERE w.item = o.item ORDER BY idx DESC, position LIMIT 1) AS day,
+         (SELECT position FROM by_month AS m WHERE m.item = o.item ORDER BY idx DESC, position LIMIT 1) AS month
+  FROM overall AS o
+)
+SELECT o.item,
+       substr('MonTueWedThuFriSatSun', 3 * p.day - 2, 3) AS peak_day,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 1) AS mon,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 2) AS tue,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 3) AS wed,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 4) AS thu,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 5) AS fri,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 6) AS sat,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 7) AS sun,
+       substr('JanFebMarAprMayJunJulAugSepOctNovDec', 3 * p.month - 2, 3) AS peak_month,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 1) AS jan,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 2) AS feb,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 3) AS mar,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 4) AS apr,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 5) AS may,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 6) AS jun,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 7) AS jul,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 8) AS aug,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 9) AS sep,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 10) AS oct,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 11) AS nov,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 12) AS "dec",
+       o.days
+FROM overall AS o JOIN peaks AS p USING (item)
+ORDER BY o.item;
