@@ -257,18 +257,101 @@ def sparkline_levels(values):
     return levels
 
 
+def kendall_score_by_pairs(points):
+    """Kendall's S and Var(S) of (x, y) points, pair by pair, from the published
+    formulas: S = sum of sgn(dx) sgn(dy); Var(S) with the tau-b tie corrections for
+    x and y (Kendall 1975, the formula scipy.stats.kendalltau cites)."""
+    n = len(points)
+    s = 0
+    for i in range(n):
+        for j in range(i + 1, n):
+            dx = points[j][0] - points[i][0]
+            dy = points[j][1] - points[i][1]
+            s += ((dx > 0) - (dx < 0)) * ((dy > 0) - (dy < 0))
+    if n < 2:
+        return s, 0.0
+
+    def ties(values):
+        counts = defaultdict(int)
+        for v in values:
+            counts[v] += 1
+        t = [c for c in counts.values() if c > 1]
+        return (sum(c * (c - 1) // 2 for c in t), sum(c * (c - 1) * (c - 2) for c in t),
+                sum(c * (c - 1) * (2 * c + 5) for c in t))
+
+    xt, x0, x1 = ties([p[0] for p in points])
+    yt, y0, y1 = ties([p[1] for p in points])
+    pairs = n * (n - 1) // 2
+    if xt == pairs or yt == pairs:
+        return s, 0.0
+    m = n * (n - 1)
+    var = (m * (2 * n + 5) - x1 - y1) / 18 + 2 * xt * yt / m
+    if n > 2:
+        var += x0 * y0 / (9 * m * (n - 2))
+    return s, var
+
+
+def seasonal_kendall_p(rows):
+    """rows: (x, y, season). The seasonal Kendall test (Hirsch, Slack & Smith 1982):
+    S and Var(S) summed over seasons; p = 2(1 - Phi(|z|)), written as math.erfc(|z|/sqrt 2)
+    because 1 - Phi loses every digit in the far tail. None when Var(S) is 0."""
+    seasons = defaultdict(list)
+    for x, y, season in rows:
+        seasons[season].append((x, y))
+    s, var = 0, 0.0
+    for points in seasons.values():
+        part_s, part_var = kendall_score_by_pairs(points)
+        s += part_s
+        var += part_var
+    if var <= 0:
+        return None
+    return math.erfc(abs(s / math.sqrt(var)) / math.sqrt(2))
+
+
+def median_of_slopes(rows):
+    """rows: (x, y, season): the median (statistics.median) of the slopes of the pairs
+    that share a season and have distinct x — the (seasonal) Sen slope by definition."""
+    slopes = [(b[1] - a[1]) / (b[0] - a[0]) for a in rows for b in rows if a[2] == b[2] and b[0] > a[0]]
+    return statistics.median(slopes) if slopes else None
+
+
 def trend(rows, zone, spark_weeks=4, start=None, stop=None):
-    """sql/trend.sql."""
+    """sql/trend.sql: whole ISO weeks of the range; seasonal (ISO week number) Kendall
+    test and Sen slope from 104 weeks on, without the week numbers in which the item
+    never sold; plain ones below; the verdict rule of the file's header."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales, start, stop)
+    first = first + dt.timedelta(days=(7 - first.weekday()) % 7)   # first Monday on or after
+    after = after - dt.timedelta(days=after.weekday())              # last Monday on or before
+    series = weekly_series(rows, zone, first, after)
     result = {}
-    for item, (xs, ys) in weekly_series(rows, zone, start, stop).items():
-        fit = line_fit(xs, ys)
-        verdict = ("rising" if fit["slope"] > 0 else "falling") if abs(fit["slope"]) > 2 * fit["stderr"] \
-            else "no clear trend"
+    for item, (xs, ys) in series.items():
+        weeks = len(xs)
+        seasonal = weeks >= 104
+        week_numbers = [(dt.date(1969, 12, 29) + dt.timedelta(weeks=x)).isocalendar()[1] for x in xs]
+        traded = {w for w, y in zip(week_numbers, ys) if y != 0}
+        if seasonal:
+            used = [(x, y, w) for x, y, w in zip(xs, ys, week_numbers) if w in traded]
+            p = seasonal_kendall_p(used)
+        else:
+            used = [(x, y, 0) for x, y in zip(xs, ys)]
+            p = seasonal_kendall_p(used) if len(xs) >= 3 else None
+        sen = median_of_slopes(used)
+        mean = statistics.fmean(y for _, y, _ in used)
+        ls = statistics.linear_regression(xs, ys)[0]
+        direction = sen if sen else ls
+        if weeks < 10:
+            verdict = "too few periods"
+        elif p is None or p >= 0.05:
+            verdict = "no clear trend"
+        else:
+            verdict = "rising" if direction > 0 else "falling" if direction < 0 else "no clear trend"
         blocks = defaultdict(list)
         for x, y in zip(xs, ys):
             blocks[(x - xs[0]) // spark_weeks].append(y)
         block_means = [statistics.fmean(blocks[b]) for b in sorted(blocks)]
-        result[item] = dict(fit, weeks=len(xs), verdict=verdict, pct_per_year=100 * 52 * fit["slope"] / fit["mean"],
+        result[item] = dict(weeks=weeks, seasonal=seasonal, p=p, sen=sen, mean=mean, ls=ls, verdict=verdict,
+                            pct_per_year=100 * (365.2425 / 7) * sen / mean,
                             shape_levels=sparkline_levels(block_means))
     return result
 

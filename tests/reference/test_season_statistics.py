@@ -23,6 +23,7 @@ import pytest
 import scipy.stats
 
 from conftest import connect
+from report_oracle import seasonal_kendall_p
 
 REL = 1e-9  # p-values: the same formula in a different order of operations
 
@@ -68,51 +69,10 @@ def test_plain_p_equals_scipy_kendalltau_asymptotic_on_2000_groups():
     assert compared == 2000
 
 
-def brute_score(points):
-    """S and Var(S) of one season, pair by pair, from the published formulas."""
-    n = len(points)
-    s = 0
-    for i in range(n):
-        for j in range(i + 1, n):
-            dx = points[j][0] - points[i][0]
-            dy = points[j][1] - points[i][1]
-            s += (dx > 0) - (dx < 0) if dy > 0 else -((dx > 0) - (dx < 0)) if dy < 0 else 0
-    if n < 2:
-        return s, 0.0
-
-    def ties(values):
-        counts = {}
-        for v in values:
-            counts[v] = counts.get(v, 0) + 1
-        t = [c for c in counts.values() if c > 1]
-        return (sum(c * (c - 1) // 2 for c in t), sum(c * (c - 1) * (c - 2) for c in t),
-                sum(c * (c - 1) * (2 * c + 5) for c in t))
-
-    xt, x0, x1 = ties([p[0] for p in points])
-    yt, y0, y1 = ties([p[1] for p in points])
-    pairs = n * (n - 1) // 2
-    if xt == pairs or yt == pairs:
-        return s, 0.0
-    m = n * (n - 1)
-    var = (m * (2 * n + 5) - x1 - y1) / 18 + 2 * xt * yt / m
-    if n > 2:
-        var += x0 * y0 / (9 * m * (n - 2))
-    return s, var
-
-
 def brute_p(rows):
-    """rows: (x, y, season); the seasonal Kendall test (Hirsch, Slack & Smith 1982)."""
-    seasons = {}
-    for x, y, season in rows:
-        seasons.setdefault(season, []).append((x, y))
-    s, var = 0, 0.0
-    for points in seasons.values():
-        ps, pv = brute_score(points)
-        s += ps
-        var += pv
-    if var <= 0:
-        return None
-    return 2 * scipy.stats.norm.sf(abs(s / math.sqrt(var)))  # oracle: scipy.stats.norm
+    """rows: (x, y, season); the brute-force seasonal Kendall test of report_oracle,
+    written from the published formulas (Hirsch, Slack & Smith 1982)."""
+    return seasonal_kendall_p(rows)
 
 
 def seasonal_rows(rng, n, seasons):
