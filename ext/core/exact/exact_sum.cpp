@@ -29,10 +29,12 @@ bool ExactSum::rescale_narrow(std::int64_t exponent) {
 }
 
 bool ExactSum::widen() {
-    wide_ = true;
     Int128 value = narrow_;
-    narrow_ = 0;
     if (value != 0) {
+        // The limbs for both halves are allocated before anything changes: if
+        // memory runs out, the sum is still the 128-bit one, intact.
+        std::int64_t position = narrow_exponent_ + kBitOffset;
+        extend(floor_div32(position), floor_div32(position + 64) + 4);
         bool negative = value < 0;
         Uint128 magnitude = negative ? Uint128(0) - Uint128(value) : Uint128(value);
         auto low = static_cast<std::uint64_t>(magnitude);
@@ -40,6 +42,8 @@ bool ExactSum::widen() {
         if (low) add_bits(low, narrow_exponent_, negative);
         if (high) add_bits(high, narrow_exponent_ + 64, negative);
     }
+    wide_ = true;
+    narrow_ = 0;
     return false;
 }
 
@@ -75,27 +79,30 @@ void ExactSum::add_prod(double a, double b, std::int64_t shift, bool negate) {
 }
 
 void ExactSum::extend(std::int64_t lo, std::int64_t hi) {
-    if (lo_ == hi_) {
-        lo_ = lo;
-        hi_ = hi;
-    } else {
-        lo_ = std::min(lo_, lo);
-        hi_ = std::max(hi_, hi);
-    }
+    // The active range changes only once its limbs exist: an allocation that
+    // fails leaves the sum as it was (found by the allocation-failure test).
+    std::int64_t new_lo = lo_ == hi_ ? lo : std::min(lo_, lo);
+    std::int64_t new_hi = lo_ == hi_ ? hi : std::max(hi_, hi);
     std::int64_t size = static_cast<std::int64_t>(limbs_.size());
-    if (lo_ >= base_ && hi_ <= base_ + size) return;
+    if (new_lo >= base_ && new_hi <= base_ + size) {
+        lo_ = new_lo;
+        hi_ = new_hi;
+        return;
+    }
     // Reallocate around the active range with some room on both sides, so a
     // sum that drifts slowly does not reallocate on every term. Limbs outside
     // the old active range are zero, so only the active ones move.
     constexpr std::int64_t kSlack = 4;
-    std::int64_t new_base = lo_ - kSlack;
-    std::int64_t new_size = (hi_ - lo_) + 2 * kSlack;
+    std::int64_t new_base = new_lo - kSlack;
+    std::int64_t new_size = (new_hi - new_lo) + 2 * kSlack;
     std::vector<std::int64_t> fresh(static_cast<std::size_t>(new_size), 0);
     for (std::int64_t k = std::max(base_, new_base);
          k < std::min(base_ + size, new_base + new_size); ++k)
         fresh[k - new_base] = limbs_[k - base_];
     limbs_.swap(fresh);
     base_ = new_base;
+    lo_ = new_lo;
+    hi_ = new_hi;
 }
 
 void ExactSum::normalize() {

@@ -143,7 +143,23 @@ void SlidingQuantile::rebalance() {
     while (lower_.size() < wanted) push(true, heap_erase<false>(upper_, slots_, 0));
 }
 
+namespace {
+
+// Room for one more element, taken before anything changes: with every
+// allocation done up front, running out of memory leaves the window intact
+// (found by the allocation-failure test: a half-done insert broke xFinal).
+template <typename Vector>
+void make_room(Vector& v) {
+    if (v.size() == v.capacity()) v.reserve(v.capacity() < 8 ? 8 : 2 * v.capacity());
+}
+
+}  // namespace
+
 void SlidingQuantile::insert(double value) {
+    if (free_slots_.empty()) make_room(slots_);
+    make_room(lower_);
+    make_room(upper_);
+    arrivals_.push_back(0);  // the deque's one allocation; its id is set below
     Id id;
     if (!free_slots_.empty()) {
         id = free_slots_.back();
@@ -152,16 +168,19 @@ void SlidingQuantile::insert(double value) {
         id = static_cast<Id>(slots_.size());
         slots_.push_back({});
     }
+    arrivals_.back() = id;
     // At or below the lower heap's top it belongs to the lower part; the
     // rebalance then restores the sizes without breaking lower <= upper.
     const bool lower_heap = lower_.empty() || value <= lower_.front().value;
     push(lower_heap, Entry{value, id});
-    arrivals_.push_back(id);
     rebalance();
 }
 
 bool SlidingQuantile::remove(double value) {
     if (arrivals_.empty()) return false;
+    make_room(free_slots_);
+    make_room(lower_);  // the rebalance moves one value from heap to heap
+    make_room(upper_);
     Id id = arrivals_.front();
     if (value_of(id) == value) {
         arrivals_.pop_front();
