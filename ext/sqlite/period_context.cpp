@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "period_context.h"
 
+#include <new>
+
 #include "core/text/error.h"
 
 namespace almanac::sqlite {
@@ -55,9 +57,9 @@ const PeriodCalendar* cached_calendar(sqlite3_context* context, int spec_index,
         if (zone) sqlite3_set_auxdata(context, zone_index, fresh, nullptr);
         return kept;
     }
-    thread_local std::optional<PeriodCalendar> scratch;
-    scratch.emplace(make_calendar(spec_arg, spec, zone_arg, zone));
-    return &*scratch;
+    // Within the call that set it, SQLite hands auxdata back whatever the
+    // argument; it has not kept it only when it ran out of memory.
+    throw std::bad_alloc();
 }
 
 Instant place_on_time_line(const TimeValue& value, const PeriodCalendar& calendar) {

@@ -164,7 +164,9 @@ void almanac_version(sqlite3_context* context, int, sqlite3_value**) {
 
 void valid_time(sqlite3_context* context, int, sqlite3_value** argv) {
     if (sqlite3_value_type(argv[0]) == SQLITE_NULL) return sqlite3_result_null(context);
-    sqlite3_result_int(context, is_valid_time(argv[0]) ? 1 : 0);
+    // Never raises for bad input, but running out of memory while reading it
+    // must still reach SQLite as SQLITE_NOMEM, not as an exception.
+    guarded(context, [&] { sqlite3_result_int(context, is_valid_time(argv[0]) ? 1 : 0); });
 }
 
 }  // namespace
