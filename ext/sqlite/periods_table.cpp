@@ -14,8 +14,8 @@
 #include <memory>
 #include <optional>
 
-#include "core/text/error.h"
 #include "arguments.h"
+#include "core/text/error.h"
 #include "period_context.h"
 #include "registration.h"
 
@@ -131,9 +131,8 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     for (int argument = 0; argument < 3; ++argument) {
         if (!given[argument]) {
             return set_error(cursor->base.pVtab,
-                             std::string(kName) + "(): argument " + std::to_string(argument + 1) +
-                                 " (" + names[argument] +
-                                 ") is missing: expected periods(start, stop, spec [, zone])");
+                             std::string(kName) + "(): " + names[argument] +
+                                 " is missing; expected periods(start, stop, spec [, zone])");
         }
     }
     try {
