@@ -35,7 +35,9 @@ def run_shell(sql, database=":memory:", mode=None):
     """Runs SQL in the real sqlite3 shell with `.load`; returns stdout, raises on error."""
     module = MODULE[:-3] if MODULE.endswith(".so") else MODULE
     script = f".load {module}\n" + (f".mode {mode}\n" if mode else "") + sql
-    result = subprocess.run(["sqlite3", "-bail", database], input=script, capture_output=True,
+    # tests/hardening/stages.sh runs the shell under valgrind this way.
+    prefix = os.environ.get("ALMANAC_SHELL_PREFIX", "").split()
+    result = subprocess.run(prefix + ["sqlite3", "-bail", database], input=script, capture_output=True,
                             text=True, timeout=600)
     if result.returncode != 0:
         raise RuntimeError(f"sqlite3 shell failed: {result.stderr}")
