@@ -36,6 +36,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstdint>
+#include <new>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -221,9 +222,9 @@ const TimeReader& cached_reader(sqlite3_context* context, sqlite3_value** argv, 
         if (zoned) sqlite3_set_auxdata(context, 2, fresh, nullptr);
         return *kept;
     }
-    thread_local std::optional<TimeReader> scratch;
-    scratch.emplace(make_reader(argv[1], zoned ? argv[2] : nullptr));
-    return *scratch;
+    // Within the call that set it, SQLite hands auxdata back whatever the
+    // argument; it has not kept it only when it ran out of memory.
+    throw std::bad_alloc();
 }
 
 // A serial day number from an INTEGER, a REAL, or TEXT that spells a number.

@@ -28,6 +28,7 @@
 // that names it (period_position gives one).
 #include <algorithm>
 #include <deque>
+#include <new>
 #include <optional>
 #include <vector>
 
@@ -102,9 +103,9 @@ const PeriodPosition& cached_position(sqlite3_context* context, sqlite3_value** 
         for (int i = 2; i < argc; ++i) sqlite3_set_auxdata(context, i, fresh, nullptr);
         return *kept;
     }
-    thread_local std::optional<PeriodPosition> scratch;
-    scratch.emplace(make_position(argv, argc));
-    return *scratch;
+    // Within the call that set it, SQLite hands auxdata back whatever the
+    // argument; it has not kept it only when it ran out of memory.
+    throw std::bad_alloc();
 }
 
 void period_position(sqlite3_context* context, int argc, sqlite3_value** argv) {

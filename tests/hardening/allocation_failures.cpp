@@ -131,6 +131,16 @@ std::vector<std::string> queries() {
         "SELECT sparkline(amount, ts) FROM sales GROUP BY item",
         "SELECT svg_line_chart(ts, amount, item, 'raw', '{\"title\":\"Sales <daily>\"}') FROM "
         "sales",
+        "SELECT period_of_serial(period_serial(ts, 'week', 'America/Denver'), 'week', "
+        "'America/Denver'), period_position(ts, 'day', 'week') FROM sales",
+        "SELECT to_time(strftime('%d/%m/%Y %H:%M', ts), '%d/%m/%Y %H:%M', 'Europe/London'), "
+        "to_time('45000.25', 'excel'), to_amount(printf('$%,.2f', amount * 1000)) FROM sales",
+        "SELECT exact_sum(amount) OVER (ORDER BY ts ROWS 5 PRECEDING), exact_sum(qty) OVER "
+        "(PARTITION BY item) FROM sales",
+        "SELECT mann_kendall_p(amount, julianday(ts)), mann_kendall_p(amount, julianday(ts), "
+        "strftime('%w', ts)), theil_sen_slope(amount, julianday(ts), strftime('%w', ts)), "
+        "mad(amount) FROM sales",
+        "SELECT mad(amount) OVER (ORDER BY ts ROWS 6 PRECEDING) FROM sales",
     };
 }
 

@@ -46,6 +46,11 @@ const char* const kQueries[] = {
     "SELECT item, sparkline(amount, ts) FROM sales GROUP BY item",
     "SELECT svg_line_chart(period_floor(ts, 'day', 'America/Denver'), amount, item, 'smooth', "
     "'{\"title\":\"Daily\"}') FROM sales",
+    "SELECT to_time(strftime('%d/%m/%Y %H:%M', ts), '%d/%m/%Y %H:%M', 'America/Santiago'), "
+    "period_of_serial(period_serial(ts, 'day', 'Asia/Kathmandu'), 'day', 'Asia/Kathmandu'), "
+    "period_position(ts, 'hour', 'day', 'Europe/London') FROM sales",
+    "SELECT item, exact_sum(amount), mad(amount), mann_kendall_p(amount, julianday(ts), "
+    "strftime('%w', ts)) FROM sales GROUP BY item",
 };
 constexpr std::size_t kQueryCount = sizeof kQueries / sizeof kQueries[0];
 
