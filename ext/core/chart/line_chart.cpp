@@ -5,8 +5,7 @@
 #include <cctype>
 #include <cmath>
 
-#include "core/chart/axis_ticks.h"
-#include "core/chart/calendar_ticks.h"
+#include "core/chart/chart_frame.h"
 #include "core/chart/chart_palette.h"
 #include "core/chart/series_ranking.h"
 #include "core/chart/svg_writer.h"
@@ -46,25 +45,9 @@ void LineChart::add(double x, std::optional<double> y, std::string_view series, 
 
 namespace {
 
-// Layout constants, in pixels. Text widths are estimated (no font metrics in
-// a SQL function): 0.6 em per character fits DejaVu Sans, the usual
-// sans-serif on Linux, and errs wide for most others.
-constexpr double kFont = 12;
-constexpr double kCharWidth = 0.6 * kFont;
-constexpr double kTitleFont = 15;
-constexpr double kMargin = 12;
-constexpr double kLegendRow = 18;
-constexpr double kSwatch = 26;
 constexpr double kRawWidth = 1.25;
 constexpr double kRawOpacity = 0.45;
 constexpr double kSmoothWidth = 2.75;
-constexpr std::size_t kLegendChars = 32;
-
-constexpr const char* kInk = "#333333";
-constexpr const char* kAxis = "#666666";
-constexpr const char* kGrid = "#e3e3e3";
-
-double text_width(std::string_view text) { return double(utf8_length(text)) * kCharWidth; }
 
 struct Line {
     std::size_t rank;
@@ -75,7 +58,6 @@ struct Line {
 }  // namespace
 
 std::string LineChart::render_svg(const ChartOptions& options) const {
-    const double width = options.width, height = options.height;
     const XKind kind = x_kind_.kind().value_or(XKind::Number);
 
     // Ranks: the place of each series in the legend; its palette slot follows
@@ -107,154 +89,27 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
     }
 
     // Data ranges.
-    double x_min = 0, x_max = 0, y_min = 0, y_max = 1;
+    ChartExtent extent;
+    extent.kind = kind;
     bool any_x = false, any_y = false;
     for (const Point& p : points_) {
-        x_min = any_x ? std::min(x_min, p.x) : p.x;
-        x_max = any_x ? std::max(x_max, p.x) : p.x;
+        extent.x_min = any_x ? std::min(extent.x_min, p.x) : p.x;
+        extent.x_max = any_x ? std::max(extent.x_max, p.x) : p.x;
         any_x = true;
         if (!p.has_y) continue;
-        y_min = any_y ? std::min(y_min, p.y) : p.y;
-        y_max = any_y ? std::max(y_max, p.y) : p.y;
+        extent.y_min = any_y ? std::min(extent.y_min, p.y) : p.y;
+        extent.y_max = any_y ? std::max(extent.y_max, p.y) : p.y;
         any_y = true;
     }
-    if (!any_y) y_min = 0, y_max = 1;
+    if (!any_y) extent.y_min = 0, extent.y_max = 1;
+    constexpr double kDay = 86400000.0;
+    extent.whole_days = std::all_of(points_.begin(), points_.end(),
+                                    [&](const Point& p) { return std::fmod(p.x, kDay) == 0; });
 
-    // Vertical layout: title, plot, two lines of x labels.
-    const bool has_title = !options.title.empty();
-    const double top = kMargin + (has_title ? kTitleFont + 14 : 4);
-    const double bottom = kMargin + 2 * kFont + 14;
-    const double plot_h = std::max(40.0, height - top - bottom);
-
-    AxisScale y_scale = numeric_scale(y_min, y_max, std::max(2, int(plot_h / 45)), true);
-    double y_label_w = 0;
-    for (const auto& tick : y_scale.ticks) y_label_w = std::max(y_label_w, text_width(tick.label));
-
-    // Horizontal layout: caption, y labels, plot, legend columns.
-    const bool has_caption = !options.y_caption.empty();
-    const double left = kMargin + (has_caption ? kFont + 10 : 0) + y_label_w + 8;
-    const std::size_t per_column = std::max<std::size_t>(1, std::size_t(plot_h / kLegendRow));
-    const std::size_t columns = names.empty() ? 0 : (names.size() + per_column - 1) / per_column;
-    std::size_t legend_chars = kLegendChars;
-    std::size_t longest = 0;
-    for (const auto& name : names) longest = std::max(longest, utf8_length(name));
-    legend_chars = std::min(legend_chars, longest);
-    auto legend_width = [&](std::size_t chars) {
-        return double(columns) * (kSwatch + 6 + double(chars + 1) * kCharWidth + 10);
-    };
-    // Long names give way to the plot: the legend takes at most 40% of the width.
-    while (legend_chars > 6 && legend_width(legend_chars) > 0.4 * width) --legend_chars;
-    const double legend_w = columns ? legend_width(legend_chars) : 0;
-    const double right = kMargin + legend_w;
-    const double plot_w = std::max(40.0, width - left - right);
-    const double plot_x0 = left, plot_x1 = left + plot_w;
-    const double plot_y0 = top, plot_y1 = top + plot_h;
-
-    AxisScale x_scale;
-    if (kind == XKind::Time) {
-        constexpr double kDay = 86400000.0;
-        bool whole_days = std::all_of(points_.begin(), points_.end(),
-                                      [&](const Point& p) { return std::fmod(p.x, kDay) == 0; });
-        x_scale = calendar_scale(instant_from_axis_value(x_min), instant_from_axis_value(x_max),
-                                 std::max(2, int(plot_w / 64)), whole_days);
-    } else {
-        // Fewer ticks until the widest label fits its share of the axis.
-        for (int target = std::max(2, int(plot_w / 80));; --target) {
-            x_scale = numeric_scale(x_min, x_max, target, false);
-            double widest = 0;
-            for (const auto& tick : x_scale.ticks)
-                widest = std::max(widest, text_width(tick.label));
-            double share = plot_w / double(std::max<std::size_t>(1, x_scale.ticks.size()));
-            if (widest + 12 <= share || target <= 1) break;
-        }
-    }
-
-    auto px = [&](double x) {
-        return plot_x0 + axis_fraction(x, x_scale.low, x_scale.high) * plot_w;
-    };
-    auto py = [&](double y) {
-        return plot_y1 - axis_fraction(y, y_scale.low, y_scale.high) * plot_h;
-    };
-
-    SvgWriter svg(width, height,
-                  {{"font-family", "DejaVu Sans, Verdana, Arial, sans-serif"},
-                   {"font-size", svg_number(kFont)},
-                   {"role", "img"}});
-    svg.text("title", {}, has_title ? options.title : "Line chart");
-    svg.empty("rect",
-              {{"width", svg_number(width)}, {"height", svg_number(height)}, {"fill", "#ffffff"}});
-    if (has_title)
-        svg.text("text",
-                 {{"class", "chart-title"},
-                  {"x", svg_number(plot_x0)},
-                  {"y", svg_number(kMargin + kTitleFont)},
-                  {"font-size", svg_number(kTitleFont)},
-                  {"font-weight", "bold"},
-                  {"fill", kInk}},
-                 options.title);
-
-    // Grid under everything.
-    svg.open("g", {{"class", "grid"}, {"stroke", kGrid}, {"stroke-width", "1"}});
-    for (const auto& tick : y_scale.ticks)
-        svg.empty("line", {{"x1", svg_number(plot_x0)},
-                           {"x2", svg_number(plot_x1)},
-                           {"y1", svg_number(py(tick.value))},
-                           {"y2", svg_number(py(tick.value))}});
-    for (const auto& tick : x_scale.ticks)
-        svg.empty("line", {{"x1", svg_number(px(tick.value))},
-                           {"x2", svg_number(px(tick.value))},
-                           {"y1", svg_number(plot_y0)},
-                           {"y2", svg_number(plot_y1)}});
-    svg.close();
-
-    // Y axis: labels right-aligned beside the ticks, the caption turned up the side.
-    svg.open("g", {{"class", "y-axis"}, {"fill", kInk}});
-    svg.empty("line", {{"x1", svg_number(plot_x0)},
-                       {"x2", svg_number(plot_x0)},
-                       {"y1", svg_number(plot_y0)},
-                       {"y2", svg_number(plot_y1)},
-                       {"stroke", kAxis}});
-    for (const auto& tick : y_scale.ticks)
-        svg.text("text",
-                 {{"x", svg_number(plot_x0 - 6)},
-                  {"y", svg_number(py(tick.value) + kFont * 0.35)},
-                  {"text-anchor", "end"}},
-                 tick.label);
-    if (has_caption) {
-        double cx = kMargin + kFont * 0.8, cy = (plot_y0 + plot_y1) / 2;
-        svg.text("text",
-                 {{"class", "y-caption"},
-                  {"x", svg_number(cx)},
-                  {"y", svg_number(cy)},
-                  {"text-anchor", "middle"},
-                  {"transform", "rotate(-90 " + svg_number(cx) + " " + svg_number(cy) + ")"}},
-                 options.y_caption);
-    }
-    svg.close();
-
-    // X axis: labels centred under the ticks, context (year, day) on a second line.
-    svg.open("g", {{"class", "x-axis"}, {"fill", kInk}, {"text-anchor", "middle"}});
-    svg.empty("line", {{"x1", svg_number(plot_x0)},
-                       {"x2", svg_number(plot_x1)},
-                       {"y1", svg_number(plot_y1)},
-                       {"y2", svg_number(plot_y1)},
-                       {"stroke", kAxis}});
-    for (const auto& tick : x_scale.ticks) {
-        double x = px(tick.value);
-        svg.empty("line", {{"x1", svg_number(x)},
-                           {"x2", svg_number(x)},
-                           {"y1", svg_number(plot_y1)},
-                           {"y2", svg_number(plot_y1 + 4)},
-                           {"stroke", kAxis}});
-        svg.text("text", {{"x", svg_number(x)}, {"y", svg_number(plot_y1 + 6 + kFont)}},
-                 tick.label);
-        if (!tick.context.empty())
-            svg.text(
-                "text",
-                {{"x", svg_number(x)}, {"y", svg_number(plot_y1 + 8 + 2 * kFont)}, {"fill", kAxis}},
-                tick.context);
-    }
-    svg.close();
+    const ChartLayout layout = lay_out_chart(options, names, extent);
+    auto px = [&](double x) { return layout.px(x); };
+    auto py = [&](double y) { return layout.py(y); };
+    SvgWriter svg = draw_chart_frame(layout, options, "Line chart");
 
     // With a period, x values are period starts: two points more than one
     // period apart have a period without a row between them, and a line
@@ -318,28 +173,7 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
     svg.close();
 
     // Legend: one entry per series, in colour order, drawn as the smooth line.
-    svg.open("g", {{"class", "legend"}, {"fill", kInk}});
-    const double column_w = columns ? legend_w / double(columns) : 0;
-    for (std::size_t rank = 0; rank < names.size(); ++rank) {
-        double x = plot_x1 + kMargin + double(rank / per_column) * column_w;
-        double y = plot_y0 + kLegendRow * (double(rank % per_column) + 0.5);
-        SeriesStyle style = series_style(ranking.slots[rank]);
-        svg.open("g", {{"class", "legend-entry"}, {"data-series", names[rank]}});
-        std::string shown = shorten_utf8(names[rank], legend_chars);
-        if (shown != names[rank]) svg.text("title", {}, names[rank]);
-        SvgAttributes swatch = {
-            {"x1", svg_number(x)},      {"x2", svg_number(x + kSwatch)},
-            {"y1", svg_number(y)},      {"y2", svg_number(y)},
-            {"stroke", style.colour},   {"stroke-width", svg_number(kSmoothWidth)},
-            {"stroke-linecap", "round"}};
-        std::string dashes = dash_array(style, kSmoothWidth);
-        if (!dashes.empty()) swatch.push_back({"stroke-dasharray", dashes});
-        svg.empty("line", swatch);
-        svg.text("text", {{"x", svg_number(x + kSwatch + 6)}, {"y", svg_number(y + kFont * 0.35)}},
-                 shown);
-        svg.close();
-    }
-    svg.close();
+    draw_chart_legend(svg, layout, ranking, LegendSwatch::Line, kSmoothWidth);
     return svg.finish();
 }
 
