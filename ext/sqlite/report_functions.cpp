@@ -19,9 +19,21 @@
 //    same for every row. Returns TEXT: an SVG document with one path per
 //    (series, layer), a legend entry per series. Rows with a NULL x or NULL
 //    series are skipped; no rows left → NULL.
+//    series_order (colours in that order first), period (a spec: a line
+//    breaks over a period without a row) and zone (the calendar axis in that
+//    zone's local time).
 //    Raises: bad x/y/series/layer/options (invalid JSON, unknown key, wrong
 //    type, out of range, options differing between rows); x mixing numbers
 //    and time values; more than 64 series or 200,000 rows.
+// 3. svg_bar_chart(x, y, series [, options]) — aggregate. x a number, a time
+//    value, or a category (other TEXT; TEXT that begins like YYYY-MM-DD must
+//    be a valid time value); y a number (NULL: no bar); series and options as
+//    for svg_line_chart. Returns TEXT: an SVG document with one rect per row
+//    with a y, the bars of one x side by side in legend order, a zero
+//    baseline; time x on a calendar axis, each bar inside its period (the
+//    period option's, else the smallest step between x values). Rows with a
+//    NULL x or series are skipped; no rows left → NULL. Raises as
+//    svg_line_chart.
 #include <memory>
 #include <optional>
 #include <string>
@@ -29,6 +41,7 @@
 #include "aggregate_state.h"
 #include "arguments.h"
 #include "core/chart/axis_kind.h"
+#include "core/chart/bar_chart.h"
 #include "core/chart/chart_options.h"
 #include "core/chart/line_chart.h"
 #include "core/chart/sparkline.h"
@@ -46,8 +59,10 @@ struct XReading {
 
 // A number (including numeric TEXT, as SQLite reads it) or a time value.
 // With a zone, time values are placed on its wall clock (see time_axis_value).
+// With categories, TEXT that is neither a number nor a time value is a
+// category (the caller reads its text).
 std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
-                               const ZoneClock* zone = nullptr) {
+                               const ZoneClock* zone = nullptr, bool categories = false) {
     switch (sqlite3_value_type(value)) {
         case SQLITE_NULL:
             return std::nullopt;
@@ -58,12 +73,16 @@ std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
             if (numeric_text(text ? text : ""))
                 return XReading{XKind::Number, *read_number(arg, value)};
+            if (categories && !looks_like_a_date(text ? text : "") && !is_valid_time(value))
+                return XReading{XKind::Category, 0};
             try {
                 TimeValue time = *read_time(arg, value);
                 return XReading{XKind::Time,
                                 zone ? time_axis_value(time, *zone) : time_axis_value(time)};
             } catch (const SqlError& error) {
                 // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.
+                // (A bar chart takes labels as categories; its error is the date's own.)
+                if (categories) throw;
                 throw SqlError(std::string(error.what()) +
                                "; x orders the rows, so for periods give period_floor() or "
                                "period_serial(), not period_label()");
@@ -119,11 +138,16 @@ void sparkline_final(sqlite3_context* context) {
 
 constexpr const char* kChart = "svg_line_chart";
 
-struct ChartState {
-    LineChart chart;
+// The options of one chart: read on the first row, the same on every other.
+struct ChartSettings {
     bool options_read = false;
     std::optional<std::string> options_text;  // as given on the first row
     ChartOptions options;
+};
+
+struct ChartState {
+    LineChart chart;
+    ChartSettings settings;
 };
 
 std::optional<std::string> read_series(const ArgumentRef& arg, sqlite3_value* value) {
@@ -141,7 +165,7 @@ std::optional<std::string> read_series(const ArgumentRef& arg, sqlite3_value* va
     }
 }
 
-void read_options(ChartState& state, const ArgumentRef& arg, sqlite3_value* value) {
+void read_options(ChartSettings& state, const ArgumentRef& arg, sqlite3_value* value) {
     auto text = read_text(arg, value);
     if (!state.options_read) {
         state.options_read = true;
@@ -165,9 +189,10 @@ void read_options(ChartState& state, const ArgumentRef& arg, sqlite3_value* valu
 void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
     guarded(context, [&] {
         auto& state = aggregate_state<ChartState>(context);
-        if (argc >= 5) read_options(state, {kChart, 5, "options"}, argv[4]);
+        if (argc >= 5) read_options(state.settings, {kChart, 5, "options"}, argv[4]);
+        const ChartOptions& options = state.settings.options;
         ArgumentRef x_arg{kChart, 1, "x"};
-        auto x = read_x(x_arg, argv[0], state.options.zone ? &*state.options.zone : nullptr);
+        auto x = read_x(x_arg, argv[0], options.zone ? &*options.zone : nullptr);
         auto y = read_number({kChart, 2, "y"}, argv[1]);
         auto series = read_series({kChart, 3, "series"}, argv[2]);
         ChartLayer layer = ChartLayer::Smooth;
@@ -202,7 +227,57 @@ void chart_final(sqlite3_context* context) {
             sqlite3_result_null(context);
             return;
         }
-        std::string svg = state->chart.render_svg(state->options);
+        std::string svg = state->chart.render_svg(state->settings.options);
+        sqlite3_result_text(context, svg.data(), int(svg.size()), SQLITE_TRANSIENT);
+    });
+}
+
+// ---------------------------------------------------------------------------
+// svg_bar_chart(x, y, series [, options])
+
+constexpr const char* kBarChart = "svg_bar_chart";
+
+struct BarChartState {
+    BarChart chart;
+    ChartSettings settings;
+};
+
+void bar_chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
+    guarded(context, [&] {
+        auto& state = aggregate_state<BarChartState>(context);
+        if (argc >= 4) read_options(state.settings, {kBarChart, 4, "options"}, argv[3]);
+        const ChartOptions& options = state.settings.options;
+        ArgumentRef x_arg{kBarChart, 1, "x"};
+        auto x = read_x(x_arg, argv[0], options.zone ? &*options.zone : nullptr, true);
+        auto y = read_number({kBarChart, 2, "y"}, argv[1]);
+        auto series = read_series({kBarChart, 3, "series"}, argv[2]);
+        if (!x || !series) return;
+        try {
+            state.chart.accept_x_kind(x->kind);
+        } catch (const Error& error) {
+            raise_argument_error(x_arg, argv[0], error.what());
+        }
+        try {
+            if (x->kind == XKind::Category) {
+                auto category = read_text(x_arg, argv[0]);
+                state.chart.add_category(*category, y, *series);
+            } else {
+                state.chart.add(x->value, y, *series);
+            }
+        } catch (const Error& error) {
+            raise_function_error(kBarChart, error.what());
+        }
+    });
+}
+
+void bar_chart_final(sqlite3_context* context) {
+    guarded(context, [&] {
+        auto state = take_state<BarChartState>(context);
+        if (!state || state->chart.bar_count() == 0) {
+            sqlite3_result_null(context);
+            return;
+        }
+        std::string svg = state->chart.render_svg(state->settings.options);
         sqlite3_result_text(context, svg.data(), int(svg.size()), SQLITE_TRANSIENT);
     });
 }
@@ -216,6 +291,9 @@ int register_report_functions(sqlite3* db) {
     for (int argc = 3; argc <= 5 && rc == SQLITE_OK; ++argc)
         rc = sqlite3_create_function(db, kChart, argc, flags, nullptr, nullptr, chart_step,
                                      chart_final);
+    for (int argc = 3; argc <= 4 && rc == SQLITE_OK; ++argc)
+        rc = sqlite3_create_function(db, kBarChart, argc, flags, nullptr, nullptr, bar_chart_step,
+                                     bar_chart_final);
     return rc;
 }
 

@@ -240,7 +240,7 @@ def test_mixed_x_kinds_are_an_error(db):
     # The rows arrive in rowid order; the second x is the number 5.
     assert str(error.value) == (
         "svg_line_chart(): argument 1 (x) = 5: expected a time value like the earlier x values of this "
-        "group; one axis cannot mix numbers and time values")  # common brief: one message shape
+        "group; one axis cannot mix numbers, time values and categories")  # common brief: one message shape
     with pytest.raises(sqlite3.OperationalError) as error:
         db.execute("SELECT sparkline(y, x) FROM (SELECT 1 AS x, 1 AS y UNION ALL SELECT '2024-01-01', 2)")
     assert "sparkline(): argument 2 (x) = '2024-01-01': expected a number like the earlier" in str(error.value)

@@ -21,8 +21,22 @@ Instant instant_from_axis_value(double value) {
     return Instant{Millis{static_cast<std::int64_t>(std::llround(value))}};
 }
 
+bool looks_like_a_date(std::string_view text) {
+    auto digit = [&](std::size_t i) { return i < text.size() && text[i] >= '0' && text[i] <= '9'; };
+    return digit(0) && digit(1) && digit(2) && digit(3) && text.size() > 4 && text[4] == '-' &&
+           digit(5) && digit(6) && text.size() > 7 && text[7] == '-';
+}
+
 const char* describe_x_kind(XKind kind) {
-    return kind == XKind::Number ? "a number" : "a time value";
+    switch (kind) {
+        case XKind::Number:
+            return "a number";
+        case XKind::Time:
+            return "a time value";
+        case XKind::Category:
+            break;
+    }
+    return "a category (TEXT that is neither a number nor a time value)";
 }
 
 void XKindGuard::accept(XKind kind) {
@@ -32,8 +46,8 @@ void XKindGuard::accept(XKind kind) {
     }
     if (*kind_ != kind)
         throw Error(std::string("expected ") + describe_x_kind(*kind_) +
-                    " like the earlier x values of this group; one axis cannot mix numbers "
-                    "and time values");
+                    " like the earlier x values of this group; one axis cannot mix numbers, "
+                    "time values and categories");
 }
 
 }  // namespace almanac

@@ -1,17 +1,19 @@
 // SPDX-License-Identifier: MIT
 // The x value of a chart or sparkline: a plain number, or a time value
-// (TEXT that is not a number) read as an instant. One chart takes one kind.
+// (TEXT that is not a number) read as an instant; a bar chart also takes
+// categories (other TEXT). One chart takes one kind.
 #pragma once
 
 #include <optional>
 #include <string>
+#include <string_view>
 
 #include "core/time/time_value.h"
 #include "core/time/zone_clock.h"
 
 namespace almanac {
 
-enum class XKind { Number, Time };
+enum class XKind { Number, Time, Category };
 
 // A time value on the x axis: milliseconds since 1970-01-01 UTC, as a double
 // (exact: every supported instant is below 2^53 ms). A calendar day counts
@@ -23,7 +25,11 @@ double time_axis_value(const TimeValue& value);
 double time_axis_value(const TimeValue& value, const ZoneClock& zone);
 Instant instant_from_axis_value(double value);
 
-const char* describe_x_kind(XKind kind);  // "a number", "a time value"
+// TEXT that begins like YYYY-MM-DD: meant as a date, so a bar chart reports
+// it when it does not read as one rather than taking it for a category.
+bool looks_like_a_date(std::string_view text);
+
+const char* describe_x_kind(XKind kind);  // "a number", "a time value", "a category"
 
 // Remembers the kind of the first x value and refuses the other kind later:
 // a chart cannot put numbers and dates on one axis.

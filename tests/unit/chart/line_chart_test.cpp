@@ -60,7 +60,7 @@ TEST_CASE("x kinds cannot mix in one chart") {
     CHECK_NOTHROW(chart.accept_x_kind(XKind::Time));
     CHECK_THROWS_WITH(chart.accept_x_kind(XKind::Number),
                       "expected a time value like the earlier x values of this group; one axis "
-                      "cannot mix numbers and time values");
+                      "cannot mix numbers, time values and categories");
 }
 
 TEST_CASE("a missing value splits a line into subpaths; a lone value is a dot") {
