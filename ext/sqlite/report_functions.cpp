@@ -220,10 +220,12 @@ void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
     });
 }
 
+// Both charts end alike: the SVG document, or NULL when no row had a place.
+template <typename State>
 void chart_final(sqlite3_context* context) {
     guarded(context, [&] {
-        auto state = take_state<ChartState>(context);
-        if (!state || state->chart.point_count() == 0) {
+        auto state = take_state<State>(context);
+        if (!state || state->chart.empty()) {
             sqlite3_result_null(context);
             return;
         }
@@ -270,18 +272,6 @@ void bar_chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
     });
 }
 
-void bar_chart_final(sqlite3_context* context) {
-    guarded(context, [&] {
-        auto state = take_state<BarChartState>(context);
-        if (!state || state->chart.bar_count() == 0) {
-            sqlite3_result_null(context);
-            return;
-        }
-        std::string svg = state->chart.render_svg(state->settings.options);
-        sqlite3_result_text(context, svg.data(), int(svg.size()), SQLITE_TRANSIENT);
-    });
-}
-
 }  // namespace
 
 int register_report_functions(sqlite3* db) {
@@ -290,10 +280,10 @@ int register_report_functions(sqlite3* db) {
                                      sparkline_final);
     for (int argc = 3; argc <= 5 && rc == SQLITE_OK; ++argc)
         rc = sqlite3_create_function(db, kChart, argc, flags, nullptr, nullptr, chart_step,
-                                     chart_final);
+                                     chart_final<ChartState>);
     for (int argc = 3; argc <= 4 && rc == SQLITE_OK; ++argc)
         rc = sqlite3_create_function(db, kBarChart, argc, flags, nullptr, nullptr, bar_chart_step,
-                                     bar_chart_final);
+                                     chart_final<BarChartState>);
     return rc;
 }
 

@@ -22,19 +22,8 @@ constexpr double kOutlineWidth = 1.25;
 }  // namespace
 
 std::uint32_t BarChart::series_id(std::string_view series) {
-    if (bars_.size() >= limits_.max_points)
-        throw Error("more than " + std::to_string(limits_.max_points) +
-                    " bars; a chart holds at most " + std::to_string(limits_.max_points) +
-                    " rows: aggregate first (e.g. one row per series and period)");
-    auto found = series_ids_.find(series);
-    if (found == series_ids_.end()) {
-        if (series_ids_.size() >= limits_.max_series)
-            throw Error("more than " + std::to_string(limits_.max_series) +
-                        " series; a chart holds at most " + std::to_string(limits_.max_series) +
-                        " (8 colours x 8 dash patterns): chart the top items only");
-        found = series_ids_.emplace(std::string(series), std::uint32_t(series_ids_.size())).first;
-    }
-    return found->second;
+    check_row_limit(bars_.size(), limits_.max_points);
+    return series_id_of(series_ids_, series, limits_.max_series);
 }
 
 void BarChart::add(double x, std::optional<double> y, std::string_view series) {

@@ -35,6 +35,7 @@ class BarChart {
     void add_category(std::string_view category, std::optional<double> y, std::string_view series);
 
     std::size_t bar_count() const { return bars_.size(); }
+    bool empty() const { return bars_.empty(); }
 
     std::string render_svg(const ChartOptions& options) const;
 

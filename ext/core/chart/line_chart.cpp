@@ -28,19 +28,9 @@ const char* chart_layer_name(ChartLayer layer) {
 }
 
 void LineChart::add(double x, std::optional<double> y, std::string_view series, ChartLayer layer) {
-    if (points_.size() >= limits_.max_points)
-        throw Error("more than " + std::to_string(limits_.max_points) +
-                    " points; a chart holds at most " + std::to_string(limits_.max_points) +
-                    " rows: aggregate first (e.g. one row per series and day)");
-    auto found = series_ids_.find(series);
-    if (found == series_ids_.end()) {
-        if (series_ids_.size() >= limits_.max_series)
-            throw Error("more than " + std::to_string(limits_.max_series) +
-                        " series; a chart holds at most " + std::to_string(limits_.max_series) +
-                        " (8 colours x 8 dash patterns): chart the top items only");
-        found = series_ids_.emplace(std::string(series), std::uint32_t(series_ids_.size())).first;
-    }
-    points_.push_back({x, y.value_or(0.0), y.has_value(), layer, found->second});
+    check_row_limit(points_.size(), limits_.max_points);
+    std::uint32_t id = series_id_of(series_ids_, series, limits_.max_series);
+    points_.push_back({x, y.value_or(0.0), y.has_value(), layer, id});
 }
 
 namespace {

@@ -14,8 +14,8 @@
 #include <string_view>
 #include <vector>
 
-#include "core/chart/chart_options.h"
 #include "core/chart/axis_kind.h"
+#include "core/chart/chart_options.h"
 
 namespace almanac {
 
@@ -44,6 +44,7 @@ class LineChart {
     void add(double x, std::optional<double> y, std::string_view series, ChartLayer layer);
 
     std::size_t point_count() const { return points_.size(); }
+    bool empty() const { return points_.empty(); }
     std::size_t series_count() const { return series_ids_.size(); }
 
     std::string render_svg(const ChartOptions& options) const;

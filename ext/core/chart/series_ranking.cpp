@@ -4,7 +4,27 @@
 #include <algorithm>
 #include <string_view>
 
+#include "core/text/error.h"
+
 namespace almanac {
+
+std::uint32_t series_id_of(std::map<std::string, std::uint32_t, std::less<>>& ids,
+                           std::string_view series, std::size_t max_series) {
+    auto found = ids.find(series);
+    if (found != ids.end()) return found->second;
+    if (ids.size() >= max_series)
+        throw Error("more than " + std::to_string(max_series) + " series; a chart holds at most " +
+                    std::to_string(max_series) +
+                    " (8 colours x 8 dash patterns): chart the top items only");
+    return ids.emplace(std::string(series), std::uint32_t(ids.size())).first->second;
+}
+
+void check_row_limit(std::size_t rows, std::size_t max_rows) {
+    if (rows >= max_rows)
+        throw Error("more than " + std::to_string(max_rows) + " points; a chart holds at most " +
+                    std::to_string(max_rows) +
+                    " rows: aggregate first (e.g. one row per series and day)");
+}
 
 SeriesRanking rank_series(const std::map<std::string, std::uint32_t, std::less<>>& ids,
                           const std::vector<std::string>& series_order) {

@@ -11,6 +11,7 @@
 #include <functional>
 #include <map>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace almanac {
@@ -22,6 +23,14 @@ struct SeriesRanking {
     // Legend position of the series with id i (ids count in order of first appearance).
     std::vector<std::size_t> position_of_id;
 };
+
+// The id of `series` (ids count in order of first appearance), registered on
+// first sight; throws almanac::Error when that would exceed max_series.
+std::uint32_t series_id_of(std::map<std::string, std::uint32_t, std::less<>>& ids,
+                           std::string_view series, std::size_t max_series);
+
+// Throws almanac::Error when a chart already holds max_rows rows.
+void check_row_limit(std::size_t rows, std::size_t max_rows);
 
 SeriesRanking rank_series(const std::map<std::string, std::uint32_t, std::less<>>& ids,
                           const std::vector<std::string>& series_order);
