@@ -158,3 +158,16 @@ def test_no_crash_on_long_formats_invalid_utf8_and_nul_bytes():
         db.execute("SELECT to_amount(?)", ("1\x00000",)).fetchone()
     print(f"\nhostile calls: {outcomes}")
     assert outcomes["error"] > 0
+
+
+def test_a_format_that_changes_from_row_to_row_is_read_per_row():
+    # The format is cached per statement only while it is a constant; a column of
+    # formats must still be honoured row by row. oracle: datetime.strptime.
+    import datetime as dt
+    rows = [("05.03.2026 14:20", "%d.%m.%Y %H:%M"), ("03/05/2026 2:20 PM", "%m/%d/%Y %I:%M %p"),
+            ("2026-064 14:20", "%Y-%j %H:%M")]
+    db = connect()
+    db.execute("CREATE TABLE t(n INTEGER PRIMARY KEY, text TEXT, format TEXT)")
+    db.executemany("INSERT INTO t(text, format) VALUES (?, ?)", rows)
+    got = [r[0] for r in db.execute("SELECT to_time(text, format) FROM t ORDER BY n")]
+    assert got == [dt.datetime.strptime(t, f).strftime("%Y-%m-%d %H:%M:%S") for t, f in rows]
