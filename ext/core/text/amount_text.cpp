@@ -4,7 +4,6 @@
 #include <array>
 #include <charconv>
 #include <string>
-#include <vector>
 
 #include "core/text/character_position.h"
 #include "core/text/error.h"
@@ -110,8 +109,11 @@ std::string shown(std::string_view separator) {
 std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     const std::string mark(1, decimal_mark);
     const char other_mark = decimal_mark == '.' ? ',' : '.';
-    const std::string hint = std::string("; if '") + other_mark + "' is the decimal mark, give '" +
-                             other_mark + "' as decimal_mark";
+    // Built only for a message: this runs once per row.
+    auto hint = [&]() {
+        return std::string("; if '") + other_mark + "' is the decimal mark, give '" + other_mark +
+               "' as decimal_mark";
+    };
     std::string_view s = trim(text);
     if (s.empty()) return std::nullopt;
 
@@ -119,7 +121,9 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     // ("-$12.00", "$-12.00", "(12,00 €)", "12.00-"), counting each kind.
     int signs = 0, currencies = 0;
     bool negative = false, parentheses = false;
-    for (bool changed = true; changed && !s.empty();) {
+    // Most amounts are bare numbers: nothing to peel when both ends are digits.
+    bool bare = is_digit(s.front()) && is_digit(s.back());
+    for (bool changed = !bare; changed && !s.empty();) {
         changed = true;
         if (!parentheses && s.size() >= 2 && s.front() == '(' && s.back() == ')') {
             parentheses = negative = true;
@@ -164,7 +168,11 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     if (s.empty()) throw Error("expected digits");
 
     std::string digits;  // the number without separators, as from_chars reads it
-    std::vector<std::size_t> groups;
+    // Digit groups between separators, checked as they come (no list kept):
+    // thousands need every group after the first to be 3 long; lakhs need
+    // every group between the first and the last to be 2 long.
+    std::size_t first_group = 0, last_group = 0, group_count = 0;
+    bool threes = true, twos_between = true;
     std::string_view separator;
     std::size_t pos = 0, first_separator = 0;
     auto digit_run = [&]() {
@@ -172,7 +180,8 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
         while (pos < s.size() && is_digit(s[pos])) digits += s[pos++];
         return pos - start;
     };
-    groups.push_back(digit_run());
+    first_group = last_group = digit_run();
+    group_count = 1;
     while (pos < s.size() && s[pos] != decimal_mark) {
         std::string_view here = separator_at(s, pos, decimal_mark);
         if (here.empty())
@@ -190,11 +199,14 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
         if (length == 0)
             throw Error(at(pos < s.size() ? pos : pos - here.size()) +
                         "expected digits after a grouping separator");
-        groups.push_back(length);
+        if (group_count >= 2) twos_between = twos_between && last_group == 2;
+        threes = threes && length == 3;
+        last_group = length;
+        ++group_count;
     }
     bool has_fraction = pos < s.size();
     if (has_fraction) {
-        digits += groups.front() == 0 && groups.size() == 1 ? "0." : ".";
+        digits += first_group == 0 && group_count == 1 ? "0." : ".";
         ++pos;
         std::size_t length = digit_run();
         if (pos < s.size()) {
@@ -202,35 +214,31 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
             if (s[pos] == decimal_mark)
                 throw Error(at(pos) + "expected one decimal mark '" + mark + "', found a second");
             throw Error(at(pos) + "expected only digits after the decimal mark '" + mark + "'" +
-                        (looks_swapped ? hint : ""));
+                        (looks_swapped ? hint() : ""));
         }
         if (length == 0) throw Error("expected digits after the decimal mark '" + mark + "'");
-        if (groups.front() == 0 && groups.size() > 1)
+        if (first_group == 0 && group_count > 1)
             throw Error(at(0) + "expected digits before a grouping separator");
-    } else if (groups.front() == 0) {
+    } else if (first_group == 0) {
         throw Error(at(0) + "expected digits");
     }
 
-    if (groups.size() > 1) {
+    if (group_count > 1) {
         // Thousands: 1-3 digits, then groups of three. Lakhs (Indian
         // English): 1-2 digits, groups of two, and three at the end.
-        bool thousands = groups.front() >= 1 && groups.front() <= 3;
-        bool lakhs =
-            separator == "," && groups.front() >= 1 && groups.front() <= 2 && groups.back() == 3;
-        for (std::size_t i = 1; i < groups.size(); ++i) {
-            thousands = thousands && groups[i] == 3;
-            lakhs = lakhs && (i + 1 == groups.size() || groups[i] == 2);
-        }
+        bool thousands = first_group >= 1 && first_group <= 3 && threes;
+        bool lakhs = separator == "," && first_group >= 1 && first_group <= 2 && last_group == 3 &&
+                     twos_between;
         if (!thousands && !lakhs)
             throw Error(
                 at(first_separator) +
                 "expected groups of three digits between grouping separators "
                 "(1,234,567.89)" +
-                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint : ""));
+                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint() : ""));
         if (s[0] == '0')
             throw Error(
                 at(0) + "expected no leading zero before a grouping separator" +
-                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint : ""));
+                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint() : ""));
     }
 
     double value = 0;
