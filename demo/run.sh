@@ -111,6 +111,17 @@ report sql/noise_ranking.sql column
 section "Weekday profile (sql/weekday_profile.sql)"
 report sql/weekday_profile.sql column
 
+# Seasons and unusual days (sql/seasonal_profile.sql, sql/anomalies.sql).
+section "Seasonal profile: weekday and month-of-year index per item, 100 = an ordinary day (sql/seasonal_profile.sql)"
+report sql/seasonal_profile.sql column
+anomalies_list=$(report sql/anomalies.sql list)   # day|item|amount|typical|score|kind, for the charts too
+recent_start=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "$db" \
+  "SELECT period_shift(max(period_floor(ts, 'week', '$zone')), -12, 'week') FROM sales")
+section "Unusual days of the last 13 weeks, against the same weekday of the 8 weeks either side (sql/anomalies.sql)"
+report sql/anomalies.sql column start "'$recent_start'"
+printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6 { n[$6]++ } END {
+  printf "Over the whole range: %d spike, %d drop, %d closed (item-days)\n", n["spike"], n["drop"], n["closed"] }'
+
 # Charts: the top three items together, then one chart for each of the twelve largest.
 report sql/daily_chart.sql list > "$out/chart_top_items.svg"
 items=$(sqlite3 -batch -init /dev/null "$db" \
@@ -119,8 +130,10 @@ declare -a chart_files=()
 declare -a chart_items=()
 while IFS= read -r item; do
   slug=$(printf '%s' "$item" | tr '[:upper:]' '[:lower:]' | tr -c 'a-z0-9' '-' | sed 's/-*$//')
+  # The item's unusual days (sql/anomalies.sql) are marked on its chart.
+  marks=$(printf '%s\n' "$anomalies_list" | awk -F'|' -v item="$item" '$2 == item { print $1 }' | paste -sd, -)
   report sql/daily_chart.sql list item "$item" title "$item: amount per day and 7-day moving mean" \
-    height 300 > "$out/charts/$slug.svg"
+    height 300 marks "$marks" > "$out/charts/$slug.svg"
   chart_files+=("$out/charts/$slug.svg")
   chart_items+=("$item")
 done <<< "$items"
@@ -161,6 +174,14 @@ HEAD
   html_table "Fiscal quarters (fiscal year from October)" "" sql/totals.sql unit "quarter starting october"
   html_table "Weekday profile" "Mean and median of a day with sales; index 100 = the average such day." \
     sql/weekday_profile.sql
+  html_table "Seasonal profile" \
+    "Mean day of each weekday and each month over the item's mean day, in percent: 100 is an ordinary day, 0 a period without sales." \
+    sql/seasonal_profile.sql
+  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n<table>\n' \
+    "A day's amount against the median of the same weekday over the 8 weeks before and after (the day excluded); listed when the modified z-score 0.6745 &times; (amount &minus; typical) / MAD is beyond &plusmn;3.5. Each item's chart below marks its unusual days." \
+    "$(printf '%s\n' "$anomalies_list" | grep -c '|') item-days: show the list"
+  report sql/anomalies.sql html
+  printf '</table>\n</details>\n'
   printf '<h2>Each item</h2>\n'
   for i in "${!chart_files[@]}"; do
     printf '<h3>%s</h3>\n<div class="chart">\n' "$(printf '%s' "${chart_items[$i]}" | escape_html)"

@@ -15,7 +15,13 @@
 -- on which the shop sold anything (so a closed day is a 0, not a gap); a day
 -- is skipped when fewer than 8 same weekdays surround it or their MAD is 0
 -- (the score is not defined; an item sold three months a year has MAD 0 and
--- median 0 out of season, where a 0 is no news).
+-- median 0 out of season, where a 0 is no news). A day without sales of an
+-- item is listed only when the item sold within the 3 days before it and
+-- within the 3 days after it: otherwise its season has ended or not begun,
+-- or the item is gone — a change, not an unusual day. (At the end of the
+-- range, where only earlier weeks surround a day, the first days after a
+-- season would otherwise all be "closed"; the price is that a closure in the
+-- last 3 days of the data is not listed yet.)
 --
 -- Reads a table or view named sales:
 --   sales(ts, item, qty, amount)  as in sql/trend.sql; amounts added with exact_sum.
@@ -77,7 +83,11 @@ scored AS (
   SELECT item, day, amount,
          median(amount) OVER same_weekday AS typical,
          mad(amount) OVER same_weekday AS spread,
-         count(*) OVER same_weekday AS neighbours
+         count(*) OVER same_weekday AS neighbours,
+         max(amount <> 0) OVER (PARTITION BY item ORDER BY serial
+                                ROWS BETWEEN 3 PRECEDING AND 1 PRECEDING) AS sold_before,
+         max(amount <> 0) OVER (PARTITION BY item ORDER BY serial
+                                ROWS BETWEEN 1 FOLLOWING AND 3 FOLLOWING) AS sold_after
   FROM daily
   WINDOW same_weekday AS (PARTITION BY item, weekday ORDER BY serial
                           ROWS BETWEEN 8 PRECEDING AND 8 FOLLOWING EXCLUDE CURRENT ROW)
@@ -88,7 +98,7 @@ SELECT sc.day, sc.item, sc.amount, sc.typical,
             WHEN sc.amount = 0 THEN 'closed'
             ELSE 'drop' END AS kind
 FROM scored AS sc, settings
-WHERE sc.neighbours >= 8 AND sc.spread > 0
+WHERE sc.neighbours >= 8 AND sc.spread > 0 AND (sc.amount <> 0 OR (sc.sold_before AND sc.sold_after))
   AND abs(0.6745 * (sc.amount - sc.typical) / sc.spread) > settings.threshold
   AND sc.day >= coalesce(@start, '0000-01-01') AND sc.day < coalesce(@stop, '9999-12-31')
 ORDER BY sc.day, sc.item;

@@ -34,6 +34,11 @@
 --   @top     how many items, the largest amount first    default 3
 --   @title   the chart's title                           default 'Amount per day and 7-day moving mean'
 --   @width, @height  size in pixels                      default 960 x 400
+--   @marks   with @item: local days to mark, comma-separated 'YYYY-MM-DD,YYYY-MM-DD'
+--            (the days sql/anomalies.sql lists for that item), each drawn as a
+--            thick stroke from 0 to the day's amount (a dot at 0 for a closed
+--            day) in a series named 'unusual day'
+--            default: none
 --
 -- What is drawn: every local day of the range for each item, a day without
 -- sales (a closed day) as 0, because that is what the till took. The smooth
@@ -76,15 +81,22 @@ daily AS (
   CROSS JOIN chosen AS c
   LEFT JOIN daily_sales AS t ON t.serial = p.serial AND t.item = c.item
 )
-SELECT item, serial, day, 'raw' AS layer, amount AS value FROM daily
+SELECT item, serial, day, 'raw' AS layer, amount AS value, 0 AS step FROM daily
 UNION ALL
 SELECT item, serial, day, 'smooth',
        moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
-                                    RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING)
-FROM daily;
+                                    RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING), 0
+FROM daily
+UNION ALL
+-- A marked day: 0, the day's amount, then no value, which ends the stroke.
+SELECT 'unusual day', d.serial, d.day, 'smooth', CASE s.step WHEN 1 THEN 0 WHEN 2 THEN d.amount END, s.step
+FROM daily AS d
+JOIN json_each('["' || replace(coalesce(@marks, ''), ',', '","') || '"]') AS m ON m.value = d.day
+CROSS JOIN (SELECT 1 AS step UNION ALL SELECT 2 UNION ALL SELECT 3) AS s
+WHERE @item IS NOT NULL;
 
 SELECT svg_line_chart(day, value, item, layer,
                       json_object('title', coalesce(@title, 'Amount per day and 7-day moving mean'),
                                   'y_caption', 'amount per day',
                                   'width', coalesce(@width, 960), 'height', coalesce(@height, 400)))
-FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial);
+FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step);

@@ -124,6 +124,9 @@ def test_every_planted_day_is_listed_and_no_ordinary_saturday_is_a_spike(shop):
                 assert (item, day) not in listed
             else:
                 assert listed[(item, day)]["kind"] == "closed", (item, day)
+    # Out of its season the autumn item is never "closed", not even in the last weeks of the
+    # range, where only earlier (in-season) weeks surround a December day.
+    assert [key for key in listed if key[0] == "Autumn only" and key[1].month not in (9, 10, 11)] == []
     planted = SPIKES | DROPS | ITEM_CLOSED | {(i, d) for d in SHOP_CLOSED for i in TRUTH}
     saturdays = [key for key in listed
                  if key[1].isoweekday() == 6 and key not in planted and listed[key]["kind"] == "spike"]
