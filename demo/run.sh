@@ -131,9 +131,10 @@ declare -a chart_items=()
 while IFS= read -r item; do
   slug=$(printf '%s' "$item" | tr '[:upper:]' '[:lower:]' | tr -c 'a-z0-9' '-' | sed 's/-*$//')
   # The item's unusual days (sql/anomalies.sql) are marked on its chart.
+  # In two layers of quotes, or one date alone would be read as arithmetic (2024-10-09 = 2005).
   marks=$(printf '%s\n' "$anomalies_list" | awk -F'|' -v item="$item" '$2 == item { print $1 }' | paste -sd, -)
   report sql/daily_chart.sql list item "$item" title "$item: amount per day and 7-day moving mean" \
-    height 300 marks "$marks" > "$out/charts/$slug.svg"
+    height 300 marks "'$marks'" > "$out/charts/$slug.svg"
   chart_files+=("$out/charts/$slug.svg")
   chart_items+=("$item")
 done <<< "$items"
