@@ -171,3 +171,14 @@ def test_a_format_that_changes_from_row_to_row_is_read_per_row():
     db.executemany("INSERT INTO t(text, format) VALUES (?, ?)", rows)
     got = [r[0] for r in db.execute("SELECT to_time(text, format) FROM t ORDER BY n")]
     assert got == [dt.datetime.strptime(t, f).strftime("%Y-%m-%d %H:%M:%S") for t, f in rows]
+
+
+def test_forms_without_a_zone_can_be_indexed_and_the_zoned_form_cannot():
+    # DESIGN.md: deterministic without a zone; with a zone the result depends on the
+    # tz database, as SQLite's own 'localtime' does, so SQLite refuses it in an index.
+    db = connect()
+    db.execute("CREATE TABLE pos(sold TEXT, total TEXT)")
+    db.execute("CREATE INDEX by_time ON pos(to_time(sold, '%d.%m.%Y %H:%M'))")
+    db.execute("CREATE INDEX by_amount ON pos(to_amount(total, ','))")
+    with pytest.raises(sqlite3.OperationalError, match="non-deterministic functions prohibited"):
+        db.execute("CREATE INDEX by_local ON pos(to_time(sold, '%d.%m.%Y %H:%M', 'Europe/Berlin'))")
