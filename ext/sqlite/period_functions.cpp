@@ -25,6 +25,7 @@
 //  error naming the function, the argument and the value. The forms without a
 //  zone are deterministic; the zoned forms are not (a tz database update can
 //  change their results).
+#include "almanac_version.h"
 #include "arguments.h"
 #include "core/text/error.h"
 #include "period_context.h"

@@ -1,4 +1,5 @@
 # SPDX-License-Identifier: MIT
+# ctest-labels: heavy browser
 """Charts as a real browser shows them: Debian's chromium, headless, renders a
 page with an inline chart to PNG; the test decodes the PNG itself (zlib from
 the standard library, following the PNG specification, ISO/IEC 15948 / W3C

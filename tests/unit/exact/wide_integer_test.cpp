@@ -12,23 +12,6 @@ using almanac::PortableUint128;
 namespace {
 constexpr std::uint64_t kAllOnes = ~std::uint64_t(0);
 
-// Halves that sit on every carry and sign boundary, then seeded random ones.
-std::vector<std::uint64_t> interesting_halves() {
-    std::vector<std::uint64_t> halves = {0,
-                                         1,
-                                         2,
-                                         0xffffffffu,
-                                         0x100000000u,
-                                         std::uint64_t(1) << 52,
-                                         (std::uint64_t(1) << 53) - 1,
-                                         std::uint64_t(1) << 63,
-                                         (std::uint64_t(1) << 63) - 1,
-                                         kAllOnes - 1,
-                                         kAllOnes};
-    std::mt19937_64 random(20261202);
-    for (int i = 0; i < 24; ++i) halves.push_back(random());
-    return halves;
-}
 }  // namespace
 
 TEST_CASE("the portable 128-bit product of two 64-bit numbers is exact at the extremes") {
@@ -57,6 +40,26 @@ TEST_CASE("the portable signed form knows when a sum leaves its range") {
 }
 
 #if defined(__SIZEOF_INT128__)
+namespace {
+// Halves that sit on every carry and sign boundary, then seeded random ones.
+std::vector<std::uint64_t> interesting_halves() {
+    std::vector<std::uint64_t> halves = {0,
+                                         1,
+                                         2,
+                                         0xffffffffu,
+                                         0x100000000u,
+                                         std::uint64_t(1) << 52,
+                                         (std::uint64_t(1) << 53) - 1,
+                                         std::uint64_t(1) << 63,
+                                         (std::uint64_t(1) << 63) - 1,
+                                         kAllOnes - 1,
+                                         kAllOnes};
+    std::mt19937_64 random(20261202);
+    for (int i = 0; i < 24; ++i) halves.push_back(random());
+    return halves;
+}
+}  // namespace
+
 TEST_CASE("the portable 128-bit integers give the native __int128 results bit for bit") {
     // oracle: GCC's native unsigned __int128 and __int128 on this 64-bit target
     // (__builtin_add_overflow for the signed sums).
