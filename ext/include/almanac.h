@@ -5,6 +5,9 @@
 
 #include <sqlite3.h>
 
+// ALMANAC_VERSION and ALMANAC_VERSION_NUMBER, the version compiled against.
+#include "almanac_version.h"
+
 #ifdef __cplusplus
 extern "C" {
 #endif
