@@ -2,11 +2,11 @@
 #include "arguments.h"
 
 #include <cmath>
-#include <cstdio>
-#include <cstdlib>
 
 #include "core/text/character_position.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
+#include "core/text/utf8.h"
 
 namespace almanac::sqlite {
 
@@ -17,15 +17,8 @@ std::string describe_value(sqlite3_value* value) {
         case SQLITE_INTEGER:
             return std::to_string(sqlite3_value_int64(value));
         case SQLITE_FLOAT: {
-            // The shortest form that reads back as the same double, as a
-            // user would have typed it: 0.9, not 0.90000000000000002.
-            double number = sqlite3_value_double(value);
-            char buffer[40];
-            for (int digits = 15; digits <= 17; ++digits) {
-                std::snprintf(buffer, sizeof buffer, "%.*g", digits, number);
-                if (std::strtod(buffer, nullptr) == number) break;
-            }
-            return buffer;
+            // As a user would have typed it: 0.9, not 0.90000000000000002.
+            return readable_double(sqlite3_value_double(value));
         }
         case SQLITE_BLOB: {
             int bytes = sqlite3_value_bytes(value);
@@ -38,9 +31,7 @@ std::string describe_value(sqlite3_value* value) {
             if (shown.size() > kLongest) {
                 // Cut at a character boundary: half a UTF-8 sequence would
                 // make the whole message invalid text.
-                std::size_t cut = kLongest;
-                while (cut > 0 && (static_cast<unsigned char>(shown[cut]) & 0xC0) == 0x80) --cut;
-                shown = shown.substr(0, cut) + "...";
+                shown = std::string(utf8_prefix(shown, kLongest)) + "...";
             }
             std::string quoted = "'";
             for (std::size_t i = 0; i < shown.size();) {

@@ -10,6 +10,7 @@
 #include <stdexcept>
 #include <string>
 
+#include "core/text/number_text.h"
 #include "core/time/time_value.h"
 #include "sqlite_api.h"
 

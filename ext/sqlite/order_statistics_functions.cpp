@@ -21,33 +21,21 @@
 // number (' 12.5' yes, '1,234.50' no); other TEXT, BLOBs and infinities
 // raise "fn(): argument N (name) = <value>: expected ...".
 #include <algorithm>
-#include <cstdio>
-#include <cstdlib>
 #include <deque>
 #include <memory>
 #include <optional>
 #include <string>
 #include <vector>
 
-#include "core/text/error.h"
-#include "core/stats/order_statistics.h"
-#include "core/stats/theil_sen.h"
 #include "aggregate_state.h"
 #include "arguments.h"
+#include "core/stats/order_statistics.h"
+#include "core/stats/theil_sen.h"
+#include "core/text/error.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
 namespace {
-
-// The shortest text that reads back as the same double, for messages.
-std::string shortest(double value) {
-    char buffer[40];
-    for (int digits = 1; digits <= 17; ++digits) {
-        std::snprintf(buffer, sizeof buffer, "%.*g", digits, value);
-        if (std::strtod(buffer, nullptr) == value) break;
-    }
-    return buffer;
-}
 
 // ---- median, percentile_cont ----------------------------------------------
 
@@ -96,7 +84,7 @@ void percentile_step(sqlite3_context* context, int, sqlite3_value** argv) {
                 raise_argument_error(kPercentileP, argv[1],
                                      "expected the same p on every row of the group (the first "
                                      "row's was " +
-                                         shortest(state.values->p()) + ")");
+                                         readable_double(state.values->p()) + ")");
             }
         }
         if (x && p) state.values->insert(*x);

@@ -62,10 +62,6 @@ const PeriodCalendar* cached_calendar(sqlite3_context* context, int spec_index,
     throw std::bad_alloc();
 }
 
-Instant place_on_time_line(const TimeValue& value, const PeriodCalendar& calendar) {
-    return value.is_calendar_day ? calendar.start_of_day(value.day) : value.instant;
-}
-
 void result_boundary(sqlite3_context* context, const TimeValue& like, Instant t,
                      const PeriodCalendar& calendar) {
     if (!in_supported_range(t)) throw Error("the result falls outside years 0000 through 9999");

@@ -8,8 +8,8 @@
 #include <optional>
 #include <string>
 
-#include "core/time/period_calendar.h"
 #include "arguments.h"
+#include "core/time/period_calendar.h"
 
 namespace almanac::sqlite {
 
@@ -24,9 +24,6 @@ PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
 const PeriodCalendar* cached_calendar(sqlite3_context* context, int spec_index,
                                       const ArgumentRef& spec_arg, sqlite3_value** argv,
                                       int zone_index, const ArgumentRef* zone_arg);
-
-// A calendar day begins at the clock's first instant of that day.
-Instant place_on_time_line(const TimeValue& value, const PeriodCalendar& calendar);
 
 // Sets the result to t in the representation `like` was given in. TEXT
 // follows the calendar's writing rule (bare dates for calendar units).

@@ -71,7 +71,7 @@ void answer_period_question(sqlite3_context* context, int argc, sqlite3_value** 
         const PeriodCalendar* calendar =
             cached_calendar(context, 1, spec_arg, argv, 2, argc == 3 ? &zone_arg : nullptr);
         if (!calendar) return sqlite3_result_null(context);
-        Instant instant = place_on_time_line(*t, *calendar);
+        Instant instant = calendar->place_on_time_line(*t);
         switch (function->question) {
             case Question::Floor:
                 return result_boundary(context, *t, calendar->floor(instant), *calendar);
@@ -88,21 +88,6 @@ void answer_period_question(sqlite3_context* context, int argc, sqlite3_value** 
     });
 }
 
-// TEXT in the caller's own form: a date stays a date; a date-time keeps its
-// precision, its separator and its kind of suffix.
-std::string write_like(const TimeValue& like, Instant t, const PeriodCalendar& calendar) {
-    const TextForm& form = like.form;
-    std::chrono::seconds offset{0};
-    if (form.suffix == TextForm::Suffix::Offset) {
-        offset = calendar.clock().is_utc() ? form.offset : calendar.clock().offset_at(t);
-    }
-    LocalTime reading{(t + offset).time_since_epoch()};
-    std::string text = format_date_time(reading, form.precision, form.t_separator);
-    if (form.suffix == TextForm::Suffix::Z) text += 'Z';
-    if (form.suffix == TextForm::Suffix::Offset) text += format_offset(offset);
-    return text;
-}
-
 void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
     const char* name = "period_shift";
     run(context, name, [&] {
@@ -117,22 +102,22 @@ void period_shift(sqlite3_context* context, int argc, sqlite3_value** argv) {
         const PeriodCalendar* calendar =
             cached_calendar(context, 2, spec_arg, argv, 3, argc == 4 ? &zone_arg : nullptr);
         if (!calendar) return sqlite3_result_null(context);
-        if (t->is_calendar_day) {
+        if (t->is_calendar_day()) {
             if (calendar->spec().is_sub_day()) {
                 raise_argument_error(t_arg, argv[0],
                                      "a bare date cannot move by sub-day periods; give a date-time "
                                      "such as 'YYYY-MM-DD 00:00'");
             }
-            std::string text = format_date(calendar->shift_day(t->day, *n));
+            std::string text = format_date(calendar->shift_day(t->day(), *n));
             return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()),
                                        SQLITE_TRANSIENT);
         }
-        Instant moved = calendar->shift(t->instant, *n);
+        Instant moved = calendar->shift(t->instant(), *n);
         if (!in_supported_range(moved))
             throw Error("the result falls outside years 0000 through 9999");
         switch (t->representation) {
             case Representation::Text: {
-                std::string text = write_like(*t, moved, *calendar);
+                std::string text = calendar->format_like(t->form, moved);
                 return sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()),
                                            SQLITE_TRANSIENT);
             }

@@ -148,8 +148,8 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
             make_calendar(spec_arg, given[2], given[3] ? &zone_arg : nullptr, given[3]));
         if (!start || !stop) return SQLITE_OK;
         cursor->like = *start;
-        Instant first = place_on_time_line(*start, *cursor->calendar);
-        cursor->stop = place_on_time_line(*stop, *cursor->calendar);
+        Instant first = cursor->calendar->place_on_time_line(*start);
+        cursor->stop = cursor->calendar->place_on_time_line(*stop);
         if (first >= cursor->stop) return SQLITE_OK;
         cursor->current = cursor->calendar->period_of(first);
         cursor->done = false;

@@ -37,13 +37,13 @@
 #include <optional>
 #include <string>
 
-#include "core/text/error.h"
+#include "aggregate_state.h"
+#include "arguments.h"
 #include "core/exact/exact_sum.h"
 #include "core/stats/exponential_weights.h"
 #include "core/stats/moment_sums.h"
+#include "core/text/error.h"
 #include "core/time/period_spec.h"
-#include "aggregate_state.h"
-#include "arguments.h"
 #include "registration.h"
 
 namespace almanac::sqlite {
@@ -329,12 +329,8 @@ ExponentialWeights::Position read_position(const EwmaState& ewma, sqlite3_value*
         auto t = read_time(kEwmaT, value);
         if (!t) return {};
         present = true;
-        std::int64_t ms =
-            t->is_calendar_day
-                ? date::sys_days(t->day.time_since_epoch()).time_since_epoch().count() *
-                      std::int64_t(86400000)
-                : t->instant.time_since_epoch().count();
-        return ExponentialWeights::position(ms, ewma.half_life_ms);
+        return ExponentialWeights::position(t->utc_instant().time_since_epoch().count(),
+                                            ewma.half_life_ms);
     }
     if (sqlite3_value_type(value) == SQLITE_TEXT) {
         const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));

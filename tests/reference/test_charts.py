@@ -310,6 +310,25 @@ def test_bad_options_are_errors_naming_the_argument(db, options, expected):
     assert str(error.value) == f"svg_line_chart(): argument 5 (options) = {quoted}: {expected}"
 
 
+def test_a_long_option_value_is_cut_at_a_character_boundary_in_the_message(db):
+    # Regression: the JSON value was cut at byte 40 in the middle of an "é",
+    # the message was not UTF-8 and Python raised UnicodeDecodeError instead.
+    # Bytes: '{"width":  "' is 12, so the argument's own 60-byte cut also
+    # falls inside an "é" (bytes 59-60).
+    value = "a" * 39 + "\u00e9" * 20
+    options = '{"width":  "' + value + '"}'
+    with pytest.raises(sqlite3.OperationalError) as error:
+        db.execute("SELECT svg_line_chart(1, 2, 'a', 'raw', ?)", (options,)).fetchone()
+    # common brief: fn(): argument N (name) = <value>: <what was expected>; a shown
+    # value is shortened to whole characters followed by "..." (ext/sqlite/arguments.h,
+    # 60 bytes for an argument, 40 for a JSON string).
+    shown_argument = options.encode()[:59].decode()
+    assert options.encode()[:60].decode(errors="replace") != shown_argument  # the cut is mid-"é"
+    assert str(error.value) == (
+        f"svg_line_chart(): argument 5 (options) = '{shown_argument}...': "
+        f'key "width" = "{"a" * 39}...": expected a whole number of pixels from 200 to 10000')
+
+
 def test_options_must_be_the_same_on_every_row(db):
     with pytest.raises(sqlite3.OperationalError) as error:
         db.execute("SELECT svg_line_chart(x, 1, 'a', 'raw', o) FROM (SELECT 1 AS x, '{}' AS o "

@@ -8,8 +8,7 @@
 namespace almanac {
 
 double time_axis_value(const TimeValue& value) {
-    Instant t = value.is_calendar_day ? Instant{value.day.time_since_epoch()} : value.instant;
-    return static_cast<double>(t.time_since_epoch().count());
+    return static_cast<double>(value.utc_instant().time_since_epoch().count());
 }
 
 double time_axis_value(const TimeValue& value, const ZoneClock& zone) {

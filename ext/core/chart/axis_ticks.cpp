@@ -3,8 +3,9 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <limits>
+
+#include "core/text/number_text.h"
 
 namespace almanac {
 
@@ -20,16 +21,13 @@ double round_step(double range, int max_intervals) {
 }
 
 std::string tick_label(double value, double step) {
-    char buffer[64];
     if (std::fabs(value) < step * 1e-9) value = 0;  // -0 and 1e-17 are zero
     if (std::fabs(value) >= 1e15 || step < 1e-6 || step >= 1e15) {
         int digits = 1 + std::max(0, int(std::ceil(std::log10(std::fabs(value) / step + 1))));
-        std::snprintf(buffer, sizeof buffer, "%.*g", std::min(digits, 17), value);
-        return buffer;
+        return general_double(value, std::min(digits, 17));
     }
     int decimals = std::max(0, -int(std::floor(std::log10(step) + 1e-9)));
-    std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
-    std::string text = buffer;
+    std::string text = fixed_double(value, decimals);
     if (text == "-0" || text.find_first_not_of("-0.") == std::string::npos)
         text = text.substr(text[0] == '-');
     return text;

@@ -2,9 +2,9 @@
 #include "core/chart/calendar_ticks.h"
 
 #include <algorithm>
-#include <cstdio>
 
 #include "core/text/error.h"
+#include "core/text/number_text.h"
 #include "core/time/period_calendar.h"
 #include "core/time/period_spec.h"
 #include "core/time/zone_clock.h"
@@ -78,12 +78,10 @@ void label_ticks(AxisScale& scale, const std::vector<Instant>& instants, LabelKi
     Civil previous{};
     for (Instant t : instants) {
         Civil c = civil(t);
-        char buffer[32];
         AxisTick tick{to_axis(t), "", ""};
         switch (kind) {
             case LabelKind::Clock:
-                std::snprintf(buffer, sizeof buffer, "%02u:%02u", c.hour, c.minute);
-                tick.label = buffer;
+                tick.label = padded(c.hour, 2) + ":" + padded(c.minute, 2);
                 if (first || c.day != previous.day || c.month != previous.month ||
                     c.year != previous.year)
                     tick.context = day_month(c) + " " + std::to_string(c.year);

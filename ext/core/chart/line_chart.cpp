@@ -2,22 +2,21 @@
 #include "core/chart/line_chart.h"
 
 #include <algorithm>
-#include <cctype>
 #include <cmath>
 
 #include "core/chart/chart_frame.h"
 #include "core/chart/chart_palette.h"
 #include "core/chart/series_ranking.h"
 #include "core/chart/svg_writer.h"
+#include "core/text/ascii.h"
 #include "core/text/error.h"
-#include "core/text/xml_text.h"
+#include "core/text/utf8.h"
 #include "core/time/period_calendar.h"
 
 namespace almanac {
 
 ChartLayer parse_chart_layer(std::string_view text) {
-    std::string word;
-    for (char c : text) word += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+    std::string word = ascii_lowercase(text);
     if (word == "raw") return ChartLayer::Raw;
     if (word == "smooth") return ChartLayer::Smooth;
     throw Error("expected 'raw' (thin, light) or 'smooth' (thick)");

@@ -2,8 +2,8 @@
 #include "core/chart/svg_writer.h"
 
 #include <cmath>
-#include <cstdio>
 
+#include "core/text/number_text.h"
 #include "core/text/xml_text.h"
 
 namespace almanac {
@@ -11,9 +11,7 @@ namespace almanac {
 std::string svg_number(double value) {
     double rounded = std::round(value * 100.0) / 100.0;
     if (rounded == 0.0) rounded = 0.0;  // no "-0"
-    char buffer[64];
-    std::snprintf(buffer, sizeof buffer, "%.2f", rounded);
-    std::string text = buffer;
+    std::string text = fixed_double(rounded, 2);
     while (text.back() == '0') text.pop_back();
     if (text.back() == '.') text.pop_back();
     return text;

@@ -9,14 +9,6 @@ namespace almanac {
 
 void ExactSum::throw_not_finite() { throw Error("expected a finite number"); }
 
-namespace {
-std::int64_t floor_div(std::int64_t a, std::int64_t b) {
-    std::int64_t q = a / b;
-    if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
-    return q;
-}
-}  // namespace
-
 bool ExactSum::rescale_narrow(std::int64_t exponent) {
     std::int64_t up = narrow_exponent_ - exponent;
     // The rescaled sum must stay below 2^125, with room for the term.

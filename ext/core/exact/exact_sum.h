@@ -31,6 +31,7 @@
 
 #include "core/exact/correct_rounding.h"
 #include "core/exact/exact_number.h"
+#include "core/exact/floor_division.h"
 #include "core/exact/wide_integer.h"
 
 namespace almanac {
@@ -64,8 +65,6 @@ class ExactSum {
     // or below the last bit of a product of two subnormals (2^-2148).
     static constexpr std::int64_t kBitOffset = 2176;
     static constexpr std::uint32_t kNormalizeEvery = 1u << 29;
-
-    static std::int64_t floor_div32(std::int64_t v) { return v >= 0 ? v / 32 : -((-v + 31) / 32); }
 
     void add_double(double x, std::int64_t shift, bool negate) {
         std::uint64_t bits;
@@ -109,7 +108,7 @@ class ExactSum {
     // Adds ±magnitude * 2^bit_exponent.
     void add_bits(std::uint64_t magnitude, std::int64_t bit_exponent, bool negative) {
         std::int64_t position = bit_exponent + kBitOffset;
-        std::int64_t k = floor_div32(position);
+        std::int64_t k = floor_div_by<32>(position);
         unsigned s = static_cast<unsigned>(position - 32 * k);
         // Three 32-bit digits of magnitude << s (at most 64 + 31 bits).
         std::uint64_t low = magnitude << s;

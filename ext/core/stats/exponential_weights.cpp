@@ -3,6 +3,7 @@
 
 #include <cmath>
 
+#include "core/exact/floor_division.h"
 #include "core/exact/scaled_double.h"
 #include "core/text/error.h"
 
@@ -15,12 +16,6 @@ constexpr std::int64_t kBlockHalfLives = 64;  // two 32-bit limbs of shift
 // block, so even 2^63 rows of the largest double (< 2^1024) move the mean by
 // less than 2^-1153, far below the smallest subnormal double (2^-1074).
 constexpr std::int64_t kReachBlocks = 36;
-
-std::int64_t floor_div(std::int64_t a, std::int64_t b) {
-    std::int64_t q = a / b;
-    if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
-    return q;
-}
 
 }  // namespace
 

@@ -1,12 +1,12 @@
 // SPDX-License-Identifier: MIT
 #include "core/text/json_value.h"
 
-#include <charconv>
 #include <cmath>
 #include <cstdint>
-#include <cstdio>
 
 #include "core/text/error.h"
+#include "core/text/number_text.h"
+#include "core/text/utf8.h"
 
 namespace almanac {
 
@@ -60,15 +60,15 @@ std::string JsonValue::describe() const {
             return "null";
         case Type::Boolean:
             return boolean_ ? "true" : "false";
-        case Type::Number: {
-            char buffer[40];
-            std::snprintf(buffer, sizeof buffer, "%.17g", number_);
-            return buffer;
-        }
+        case Type::Number:
+            return readable_double(number_);
         case Type::String: {
             constexpr std::size_t kLongest = 40;
-            std::string shown =
-                string_.size() > kLongest ? string_.substr(0, kLongest) + "..." : string_;
+            // Cut at a character boundary: half a UTF-8 sequence would make
+            // the whole message invalid text.
+            std::string shown = string_.size() > kLongest
+                                    ? std::string(utf8_prefix(string_, kLongest)) + "..."
+                                    : string_;
             return "\"" + shown + "\"";
         }
         case Type::Array:
@@ -222,45 +222,11 @@ class Parser {
         return value;
     }
 
-    static void append_utf8(std::string& out, std::uint32_t c) {
-        if (c < 0x80) {
-            out += char(c);
-        } else if (c < 0x800) {
-            out += char(0xC0 | (c >> 6));
-            out += char(0x80 | (c & 0x3F));
-        } else if (c < 0x10000) {
-            out += char(0xE0 | (c >> 12));
-            out += char(0x80 | ((c >> 6) & 0x3F));
-            out += char(0x80 | (c & 0x3F));
-        } else {
-            out += char(0xF0 | (c >> 18));
-            out += char(0x80 | ((c >> 12) & 0x3F));
-            out += char(0x80 | ((c >> 6) & 0x3F));
-            out += char(0x80 | (c & 0x3F));
-        }
-    }
-
     // Copies one well-formed UTF-8 sequence; JSON text must be Unicode.
     void copy_utf8(std::string& out) {
-        auto byte = [&](std::size_t k) { return static_cast<unsigned char>(text_[k]); };
-        unsigned char lead = byte(pos_);
-        std::size_t length = lead < 0x80             ? 1
-                             : (lead & 0xE0) == 0xC0 ? 2
-                             : (lead & 0xF0) == 0xE0 ? 3
-                             : (lead & 0xF8) == 0xF0 ? 4
-                                                     : 0;
-        if (length == 0 || pos_ + length > text_.size()) fail("expected UTF-8 text");
-        std::uint32_t c = length == 1   ? lead
-                          : length == 2 ? (lead & 0x1F)
-                          : length == 3 ? (lead & 0x0F)
-                                        : (lead & 0x07);
-        for (std::size_t k = 1; k < length; ++k) {
-            if ((byte(pos_ + k) & 0xC0) != 0x80) fail("expected UTF-8 text");
-            c = (c << 6) | (byte(pos_ + k) & 0x3F);
-        }
-        static const std::uint32_t minimum[] = {0, 0, 0x80, 0x800, 0x10000};
-        if (c < minimum[length] || c > 0x10FFFF || (c >= 0xD800 && c <= 0xDFFF))
-            fail("expected UTF-8 text");
+        std::uint32_t c;
+        std::size_t length = utf8_decode(text_, pos_, c);
+        if (length == 0) fail("expected UTF-8 text");
         out.append(text_.substr(pos_, length));
         pos_ += length;
     }
@@ -322,7 +288,7 @@ class Parser {
                             fail("expected a low surrogate (\\uDC00-\\uDFFF) after a high one");
                         unit = 0x10000 + ((unit - 0xD800) << 10) + (low - 0xDC00);
                     }
-                    append_utf8(out, unit);
+                    utf8_append(out, unit);
                     break;
                 }
                 default:
@@ -355,14 +321,12 @@ class Parser {
             if (peek() == '+' || peek() == '-') ++pos_;
             if (digits() == 0) fail("expected a digit in the exponent");
         }
-        double value = 0;
-        // from_chars ignores the C locale, unlike strtod.
-        auto result = std::from_chars(text_.data() + start, text_.data() + pos_, value);
-        if (result.ec != std::errc() || !std::isfinite(value)) {
+        auto value = parse_decimal(text_.substr(start, pos_ - start));
+        if (!value || !std::isfinite(*value)) {
             pos_ = start;
             fail("expected a number within the range of a double");
         }
-        return value;
+        return *value;
     }
 
     std::string_view text_;

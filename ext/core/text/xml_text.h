@@ -16,11 +16,4 @@ namespace almanac {
 // must not make the whole document unreadable.
 std::string xml_escape(std::string_view text);
 
-// The first `max_code_points` code points of valid UTF-8 text (cut only on a
-// code point boundary), followed by U+2026 when something was cut.
-std::string shorten_utf8(std::string_view text, std::size_t max_code_points);
-
-// Number of code points in UTF-8 text (an invalid byte counts as one).
-std::size_t utf8_length(std::string_view text);
-
 }  // namespace almanac

@@ -11,10 +11,11 @@
 #include "core/time/period_calendar.h"
 
 #include <algorithm>
-#include <cstdio>
 #include <vector>
 
+#include "core/exact/floor_division.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
 #include "core/time/civil_days.h"
 
 namespace almanac {
@@ -24,18 +25,6 @@ using namespace std::chrono;
 using date::days;
 
 constexpr std::int64_t kMillisPerDay = 86400000;
-
-std::int64_t floor_div(std::int64_t a, std::int64_t b) {
-    std::int64_t q = a / b;
-    if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
-    return q;
-}
-
-template <std::int64_t divisor>
-std::int64_t floor_div_by(std::int64_t a) {
-    std::int64_t q = a / divisor;
-    return (a % divisor != 0 && a < 0) ? q - 1 : q;
-}
 
 std::int64_t month_index(date::year_month_day ymd) {
     return std::int64_t(int(ymd.year())) * 12 + (unsigned(ymd.month()) - 1);
@@ -358,6 +347,10 @@ Instant PeriodCalendar::start_of_day(date::local_days day) const {
     return clock_.first_instant_at(LocalTime{day.time_since_epoch()});
 }
 
+Instant PeriodCalendar::place_on_time_line(const TimeValue& value) const {
+    return value.is_calendar_day() ? start_of_day(value.day()) : value.instant();
+}
+
 Period PeriodCalendar::period_by_serial(std::int64_t serial) const {
     if (sub_day_) return sub_day_->period_by_serial(serial);
     std::int64_t k = serial + grid_->epoch_index();
@@ -431,10 +424,79 @@ char* PeriodCalendar::write_boundary(Instant t, char* out) const {
     return std::copy(text.begin(), text.end(), out);
 }
 
+std::string PeriodCalendar::format_like(const TextForm& like, Instant t) const {
+    std::chrono::seconds offset{0};
+    if (like.suffix == TextForm::Suffix::Offset) {
+        offset = clock_.is_utc() ? like.offset : clock_.offset_at(t);
+    }
+    LocalTime reading{(t + offset).time_since_epoch()};
+    std::string text = format_date_time(reading, like.precision, like.t_separator);
+    if (like.suffix == TextForm::Suffix::Z) text += 'Z';
+    if (like.suffix == TextForm::Suffix::Offset) text += format_offset(offset);
+    return text;
+}
+
 std::string PeriodCalendar::format_boundary(Instant t) const {
     char buffer[kBoundaryTextSize];
     return std::string(buffer, write_boundary(t, buffer));
 }
+
+namespace {
+
+// Years are written with at least four digits; a fiscal year that ends after
+// 9999 takes a fifth.
+std::string year_text(int year) {
+    return year >= 0 && year < 10000 ? padded(unsigned(year), 4) : std::to_string(year);
+}
+
+std::string two_digits(unsigned v) { return padded(v, 2); }
+
+// ISO 8601 week date: the week belongs to the year of its Thursday.
+std::string iso_week_label(date::local_days monday) {
+    auto thursday = monday + days{3};
+    date::year iso_year = date::year_month_day{thursday}.year();
+    date::local_days first_thursday{
+        date::year_month_weekday{iso_year / date::January / date::Thursday[1]}};
+    unsigned week = unsigned((thursday - first_thursday).count() / 7) + 1;
+    return year_text(int(iso_year)) + "-W" + two_digits(week);
+}
+
+// The days it covers, so a reader needs no rule: 2026-02 (1-15), 2026-02 (16-28).
+std::string half_month_label(date::year_month_day start) {
+    std::string month = year_text(int(start.year())) + "-" + two_digits(unsigned(start.month()));
+    if (unsigned(start.day()) < 16) return month + " (1-15)";
+    return month + " (16-" + two_digits(last_day(start.year() / start.month())) + ")";
+}
+
+std::string month_label(date::year_month_day start) {
+    return year_text(int(start.year())) + "-" + two_digits(unsigned(start.month()));
+}
+
+// Quarters and years: 2026, 2026-Q1; fiscal ones are named for the calendar
+// year in which they end: FY2027, FY2027-Q1 for a year starting in July 2026.
+std::string year_or_quarter_label(date::year_month_day start, const PeriodSpec& spec) {
+    unsigned month = unsigned(start.month());
+    if (!spec.is_fiscal()) {
+        std::string year = year_text(int(start.year()));
+        if (spec.unit == PeriodUnit::Year) return year;
+        return year + "-Q" + std::to_string((month - 1) / 3 + 1);
+    }
+    unsigned first_month = unsigned(spec.year_start);
+    std::string year = "FY" + year_text(int(start.year()) + (month >= first_month ? 1 : 0));
+    if (spec.unit == PeriodUnit::Year) return year;
+    return year + "-Q" + std::to_string(((month + 12 - first_month) % 12) / 3 + 1);
+}
+
+// Counted from a date, a month (quarter, year) is not the calendar month its
+// start lies in, and a label like 2026-02 would say it was: name its days,
+// 2026-02-15..03-14 (the year again only when it changes).
+std::string span_label(date::local_days first, date::local_days last) {
+    std::string first_text = format_date(first), last_text = format_date(last);
+    bool same_year = date::year_month_day{last}.year() == date::year_month_day{first}.year();
+    return first_text + ".." + (same_year ? last_text.substr(5) : last_text);
+}
+
+}  // namespace
 
 std::string PeriodCalendar::label(const Period& period) const {
     LocalTime local = clock_.to_local(period.start);
@@ -443,15 +505,8 @@ std::string PeriodCalendar::label(const Period& period) const {
     date::year_month_day ymd{day};
     bool calendar_named = spec_.unit == PeriodUnit::HalfMonth || spec_.unit == PeriodUnit::Month ||
                           spec_.unit == PeriodUnit::Quarter || spec_.unit == PeriodUnit::Year;
-    if (spec_.from && calendar_named) {
-        // Counted from a date, such a period is not the calendar month (quarter,
-        // year) its start lies in, and a label like 2026-02 would say it was.
-        auto last = date::floor<days>(clock_.to_local(period.end) - Millis{1});
-        std::string first_text = format_date(day), last_text = format_date(last);
-        bool same_year = date::year_month_day{last}.year() == ymd.year();
-        return first_text + ".." + (same_year ? last_text.substr(5) : last_text);
-    }
-    char buffer[48];
+    if (spec_.from && calendar_named)
+        return span_label(day, date::floor<days>(clock_.to_local(period.end) - Millis{1}));
     switch (spec_.unit) {
         case PeriodUnit::Second:
         case PeriodUnit::Minute:
@@ -463,57 +518,17 @@ std::string PeriodCalendar::label(const Period& period) const {
             return text;
         }
         case PeriodUnit::Week:
-            if (spec_.count == 1 && spec_.week_start == date::Monday) {
-                // ISO 8601 week date: the week belongs to the year of its Thursday.
-                auto thursday = day + days{3};
-                date::year iso_year = date::year_month_day{thursday}.year();
-                date::local_days first_thursday{
-                    date::year_month_weekday{iso_year / date::January / date::Thursday[1]}};
-                int week = int((thursday - first_thursday).count() / 7) + 1;
-                std::snprintf(buffer, sizeof buffer, "%04d-W%02d", int(iso_year), week);
-                return buffer;
-            }
+            if (spec_.count == 1 && spec_.week_start == date::Monday) return iso_week_label(day);
             return format_date(day);
         case PeriodUnit::Day:
             return format_date(day);
-        case PeriodUnit::HalfMonth: {
-            auto ym = ymd.year() / ymd.month();
-            if (unsigned(ymd.day()) < 16) {
-                std::snprintf(buffer, sizeof buffer, "%04d-%02u (1-15)", int(ymd.year()),
-                              unsigned(ymd.month()));
-            } else {
-                std::snprintf(buffer, sizeof buffer, "%04d-%02u (16-%02u)", int(ymd.year()),
-                              unsigned(ymd.month()), last_day(ym));
-            }
-            return buffer;
-        }
+        case PeriodUnit::HalfMonth:
+            return half_month_label(ymd);
         case PeriodUnit::Month:
-            std::snprintf(buffer, sizeof buffer, "%04d-%02u", int(ymd.year()),
-                          unsigned(ymd.month()));
-            return buffer;
+            return month_label(ymd);
         case PeriodUnit::Quarter:
-        case PeriodUnit::Year: {
-            unsigned month = unsigned(ymd.month());
-            if (!spec_.is_fiscal()) {
-                if (spec_.unit == PeriodUnit::Year) {
-                    std::snprintf(buffer, sizeof buffer, "%04d", int(ymd.year()));
-                } else {
-                    std::snprintf(buffer, sizeof buffer, "%04d-Q%u", int(ymd.year()),
-                                  (month - 1) / 3 + 1);
-                }
-                return buffer;
-            }
-            // A fiscal year is named for the calendar year in which it ends.
-            unsigned start = unsigned(spec_.year_start);
-            int fiscal_year = int(ymd.year()) + (month >= start ? 1 : 0);
-            if (spec_.unit == PeriodUnit::Year) {
-                std::snprintf(buffer, sizeof buffer, "FY%04d", fiscal_year);
-            } else {
-                std::snprintf(buffer, sizeof buffer, "FY%04d-Q%u", fiscal_year,
-                              ((month + 12 - start) % 12) / 3 + 1);
-            }
-            return buffer;
-        }
+        case PeriodUnit::Year:
+            return year_or_quarter_label(ymd, spec_);
     }
     return format_date(day);
 }

@@ -37,6 +37,9 @@ class PeriodCalendar {
     Instant floor(Instant t) const;
     // A calendar day (bare YYYY-MM-DD) begins at the clock's first instant of that day.
     Instant start_of_day(date::local_days day) const;
+    // A parsed time value as an instant: a calendar day at its start on this
+    // calendar's clock, any other value as it is.
+    Instant place_on_time_line(const TimeValue& value) const;
     Period period_by_serial(std::int64_t serial) const;
     // The first and last serial of the periods that start in years 0000 through 9999.
     std::pair<std::int64_t, std::int64_t> supported_serials() const;
@@ -59,6 +62,10 @@ class PeriodCalendar {
     // The same text written at out (room for kBoundaryTextSize bytes); returns its end.
     static constexpr std::size_t kBoundaryTextSize = 40;
     char* write_boundary(Instant t, char* out) const;
+    // t as TEXT in the form `like` was written in: a date-time keeps its
+    // precision, its separator and its kind of suffix (Z, or an offset: the
+    // written one on UTC, the zone's at t otherwise).
+    std::string format_like(const TextForm& like, Instant t) const;
     // Whether format_boundary writes bare dates (calendar units whose
     // boundaries fall at midnight) or date-times.
     bool writes_dates() const { return writes_dates_; }

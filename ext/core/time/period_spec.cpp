@@ -2,10 +2,12 @@
 #include "core/time/period_spec.h"
 
 #include <array>
-#include <cctype>
 #include <vector>
 
+#include "core/text/ascii.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
+#include "core/text/utf8.h"
 
 namespace almanac {
 namespace {
@@ -25,15 +27,7 @@ constexpr std::array<const char*, 12> kMonths = {"january",   "february", "march
 
 [[noreturn]] void fail(const std::string& reason) { throw Error(reason); }
 
-std::string lower(std::string_view text) {
-    std::string out(text);
-    for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-    return out;
-}
-
-bool is_space(char c) { return std::isspace(static_cast<unsigned char>(c)) != 0; }
-bool is_digit(char c) { return c >= '0' && c <= '9'; }
-bool is_letter(char c) { return (c >= 'a' && c <= 'z') || c == '-'; }
+bool is_letter(char c) { return is_ascii_lower(c) || c == '-'; }
 
 std::optional<PeriodUnit> unit_named(const std::string& word) {
     static const std::array<std::pair<const char*, PeriodUnit>, 9> units = {{
@@ -92,7 +86,7 @@ const char* unit_word(PeriodUnit unit) {
 
 std::int64_t parse_count(const std::string& digits) {
     if (digits.size() > 7) fail("count " + digits + " is too large; counts run 1 to 1000000");
-    std::int64_t count = std::stoll(digits);
+    std::int64_t count = parse_int64(digits).value_or(0);
     if (count == 0) fail("count 0: the count must be a positive whole number");
     if (count > kLargestCount) fail("count " + digits + " is too large; counts run 1 to 1000000");
     return count;
@@ -109,7 +103,7 @@ PeriodSpec parse_iso_duration(const std::string& text, std::string_view as_writt
         ++pos;
     }
     std::size_t digits_start = pos;
-    while (pos < text.size() && is_digit(text[pos])) ++pos;
+    while (pos < text.size() && is_ascii_digit(text[pos])) ++pos;
     if (pos == digits_start) fail(expected);
     std::string digits = text.substr(digits_start, pos - digits_start);
     if (pos + 1 != text.size()) {
@@ -166,10 +160,10 @@ LocalTime parse_from_moment(std::string_view text) {
         fail(expected);
     }
     if (value.representation != Representation::Text) fail(expected);
-    if (value.is_calendar_day) return LocalTime{value.day.time_since_epoch()};
+    if (value.is_calendar_day()) return LocalTime{value.day().time_since_epoch()};
     if (value.form.suffix != TextForm::Suffix::None)
         fail(std::string(expected) + ", without a zone offset (the zone argument gives the zone)");
-    return LocalTime{value.instant.time_since_epoch()};
+    return LocalTime{value.instant().time_since_epoch()};
 }
 
 }  // namespace
@@ -241,18 +235,20 @@ std::string PeriodSpec::describe() const {
 }
 
 PeriodSpec parse_period_spec(std::string_view raw) {
-    std::string text = lower(raw);
+    std::string text = ascii_lowercase(raw);
     // Trim.
     std::size_t first = 0, last = text.size();
-    while (first < last && is_space(text[first])) ++first;
-    while (last > first && is_space(text[last - 1])) --last;
+    while (first < last && is_ascii_space(text[first])) ++first;
+    while (last > first && is_ascii_space(text[last - 1])) --last;
     text = text.substr(first, last - first);
     if (text.empty()) fail("the spec is empty; " + std::string(kGrammar));
 
-    if (text[0] == 'p' && text.size() > 1 && (is_digit(text[1]) || text[1] == 't')) {
+    if (text[0] == 'p' && text.size() > 1 && (is_ascii_digit(text[1]) || text[1] == 't')) {
         std::string_view as_written = raw;
-        while (!as_written.empty() && is_space(as_written.front())) as_written.remove_prefix(1);
-        while (!as_written.empty() && is_space(as_written.back())) as_written.remove_suffix(1);
+        while (!as_written.empty() && is_ascii_space(as_written.front()))
+            as_written.remove_prefix(1);
+        while (!as_written.empty() && is_ascii_space(as_written.back()))
+            as_written.remove_suffix(1);
         return parse_iso_duration(text, as_written);
     }
 
@@ -275,11 +271,11 @@ PeriodSpec parse_period_spec(std::string_view raw) {
     // Tokens: numbers and words; spaces are optional between them.
     std::vector<std::string> tokens;
     for (std::size_t i = 0; i < text.size();) {
-        if (is_space(text[i])) {
+        if (is_ascii_space(text[i])) {
             ++i;
-        } else if (is_digit(text[i])) {
+        } else if (is_ascii_digit(text[i])) {
             std::size_t j = i;
-            while (j < text.size() && is_digit(text[j])) ++j;
+            while (j < text.size() && is_ascii_digit(text[j])) ++j;
             tokens.push_back(text.substr(i, j - i));
             i = j;
         } else if (is_letter(text[i])) {
@@ -289,10 +285,7 @@ PeriodSpec parse_period_spec(std::string_view raw) {
             i = j;
         } else {
             // Quote the whole character: half a UTF-8 sequence is not text.
-            std::size_t length = 1;
-            while (i + length < text.size() &&
-                   (static_cast<unsigned char>(text[i + length]) & 0xC0) == 0x80)
-                ++length;
+            std::size_t length = utf8_character_bytes(text, i);
             fail("unexpected character '" + text.substr(i, length) + "'; " + kGrammar);
         }
     }
@@ -307,7 +300,7 @@ PeriodSpec parse_period_spec(std::string_view raw) {
     PeriodSpec spec;
     std::size_t pos = 0;
     bool counted = false;
-    if (pos < tokens.size() && is_digit(tokens[pos][0])) {
+    if (pos < tokens.size() && is_ascii_digit(tokens[pos][0])) {
         spec.count = parse_count(tokens[pos]);
         counted = true;
         ++pos;

@@ -3,11 +3,11 @@
 #include "core/time/time_value.h"
 
 #include <cmath>
-#include <cstdio>
-#include <cstdlib>
 #include <initializer_list>
 
+#include "core/text/ascii.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
 #include "core/time/civil_days.h"
 
 namespace almanac {
@@ -23,18 +23,13 @@ constexpr const char* kExpectedForms =
 constexpr std::int64_t kUnixEpochJulianMillis = 210866760000000LL;
 constexpr double kLargestJulianDay = 5373484.5;
 
-bool is_digit(char c) { return c >= '0' && c <= '9'; }
-bool is_space(char c) {
-    return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\f' || c == '\v';
-}
-
 // Reads exactly n digits at text[pos], advancing pos.
 bool read_digits(std::string_view text, std::size_t& pos, int n, int& out) {
     if (pos + n > text.size()) return false;
     int value = 0;
     for (int i = 0; i < n; ++i) {
         char c = text[pos + i];
-        if (!is_digit(c)) return false;
+        if (!is_ascii_digit(c)) return false;
         value = value * 10 + (c - '0');
     }
     pos += n;
@@ -46,18 +41,12 @@ inline std::string_view trim(std::string_view text) {
     // Spaces are all at or below ' '; most texts start and end with neither.
     auto above_space = [](char c) { return static_cast<unsigned char>(c) > ' '; };
     if (text.empty() || (above_space(text.front()) && above_space(text.back()))) return text;
-    while (!text.empty() && is_space(text.front())) text.remove_prefix(1);
-    while (!text.empty() && is_space(text.back())) text.remove_suffix(1);
-    return text;
+    return trim_ascii_space(text);
 }
 
 [[noreturn]] void fail(const std::string& reason) { throw Error(reason); }
 
-std::string two_digits(int v) {
-    char buffer[8];
-    std::snprintf(buffer, sizeof buffer, "%02d", v);
-    return buffer;
-}
+std::string two_digits(int v) { return padded(static_cast<unsigned>(v), 2); }
 
 Instant from_unix_millis(std::int64_t ms) { return Instant{Millis{ms}}; }
 
@@ -96,31 +85,6 @@ bool in_supported_range(Instant t) {
 }
 bool in_supported_range(LocalTime t) { return in_supported_range(Instant{t.time_since_epoch()}); }
 
-std::optional<double> numeric_text(std::string_view text) {
-    text = trim(text);
-    if (text.empty()) return std::nullopt;
-    // The shape SQLite itself treats as a number: sign, digits, point, exponent.
-    std::size_t pos = 0;
-    if (text[pos] == '+' || text[pos] == '-') ++pos;
-    std::size_t mantissa_digits = 0;
-    while (pos < text.size() && is_digit(text[pos])) ++pos, ++mantissa_digits;
-    if (pos < text.size() && text[pos] == '.') {
-        ++pos;
-        while (pos < text.size() && is_digit(text[pos])) ++pos, ++mantissa_digits;
-    }
-    if (mantissa_digits == 0) return std::nullopt;
-    if (pos < text.size() && (text[pos] == 'e' || text[pos] == 'E')) {
-        ++pos;
-        if (pos < text.size() && (text[pos] == '+' || text[pos] == '-')) ++pos;
-        std::size_t exponent_digits = 0;
-        while (pos < text.size() && is_digit(text[pos])) ++pos, ++exponent_digits;
-        if (exponent_digits == 0) return std::nullopt;
-    }
-    if (pos != text.size()) return std::nullopt;
-    std::string copy(text);
-    return std::strtod(copy.c_str(), nullptr);
-}
-
 TimeValue parse_time_text(std::string_view raw) {
     std::string_view text = trim(raw);
     // A date never reads as a number; skip the number test for the common case.
@@ -129,7 +93,7 @@ TimeValue parse_time_text(std::string_view raw) {
         // An integer-looking text behaves as the INTEGER it spells.
         bool integral = text.find_first_of(".eE") == std::string_view::npos;
         if (integral && std::fabs(*number) < 9.2e18) {
-            return parse_time_integer(std::strtoll(std::string(text).c_str(), nullptr, 10));
+            if (auto whole = parse_int64(text)) return parse_time_integer(*whole);
         }
         return parse_time_real(*number);
     }
@@ -141,7 +105,7 @@ TimeValue parse_time_text(std::string_view raw) {
     auto digit = [&](std::size_t i) { return unsigned(text[i]) - '0'; };
     auto digits_at = [&](std::initializer_list<std::size_t> places) {
         for (std::size_t i : places)
-            if (!is_digit(text[i])) return false;
+            if (!is_ascii_digit(text[i])) return false;
         return true;
     };
     if (text.size() < 10 || text[4] != '-' || text[7] != '-' ||
@@ -162,8 +126,7 @@ TimeValue parse_time_text(std::string_view raw) {
     }
     date::local_days day{date::days{day_number_from_civil(y, unsigned(mo), unsigned(d))}};
     if (pos == text.size()) {
-        value.is_calendar_day = true;
-        value.day = day;
+        value.when = day;
         value.form.precision = TextForm::Precision::Date;
         return value;
     }
@@ -172,8 +135,8 @@ TimeValue parse_time_text(std::string_view raw) {
     if (text[pos] == 'T' || text[pos] == 't') {
         value.form.t_separator = true;
         ++pos;
-    } else if (is_space(text[pos])) {
-        while (pos < text.size() && is_space(text[pos])) ++pos;
+    } else if (is_ascii_space(text[pos])) {
+        while (pos < text.size() && is_ascii_space(text[pos])) ++pos;
     } else {
         fail(kExpectedForms);
     }
@@ -197,7 +160,7 @@ TimeValue parse_time_text(std::string_view raw) {
             ++pos;
             std::size_t start = pos;
             double scale = 0.1, fraction = 0;
-            while (pos < text.size() && is_digit(text[pos])) {
+            while (pos < text.size() && is_ascii_digit(text[pos])) {
                 fraction += (text[pos] - '0') * scale;
                 scale /= 10;
                 ++pos;
@@ -211,7 +174,7 @@ TimeValue parse_time_text(std::string_view raw) {
     if (mi > 59) fail("minute " + two_digits(mi) + " does not exist; minutes run 00 to 59");
     if (s > 59) fail("second " + two_digits(s) + " does not exist; seconds run 00 to 59");
 
-    while (pos < text.size() && is_space(text[pos])) ++pos;
+    while (pos < text.size() && is_ascii_space(text[pos])) ++pos;
     std::chrono::seconds offset{0};
     if (pos < text.size()) {
         char c = text[pos];
@@ -243,8 +206,9 @@ TimeValue parse_time_text(std::string_view raw) {
     }
     auto local = LocalTime{day.time_since_epoch()} + hours{h} + minutes{mi} + seconds{s} +
                  Millis{fraction_millis};
-    value.instant = Instant{local.time_since_epoch()} - offset;
-    check_range(value.instant, [] { return std::string("the time"); });
+    Instant instant = Instant{local.time_since_epoch()} - offset;
+    check_range(instant, [] { return std::string("the time"); });
+    value.when = instant;
     return value;
 }
 
@@ -257,14 +221,8 @@ TimeValue parse_time_real(double v) {
         // SQLite rounds a Julian day to the millisecond the same way.
         auto jd_millis = static_cast<std::int64_t>(v * 86400000.0 + 0.5);
         t = from_unix_millis(jd_millis - kUnixEpochJulianMillis);
-        check_range(
-            t,
-            [v] {
-                char shown[32];
-                std::snprintf(shown, sizeof shown, "%.15g", v);
-                return std::string("Julian day ") + shown;
-            },
-            [v] { return misread_number_hint(v); });
+        check_range(t, [v] { return "Julian day " + readable_double(v); },
+                    [v] { return misread_number_hint(v); });
     } else {
         value.representation = Representation::UnixSeconds;
         double ms = std::floor(v * 1000.0 + 0.5);
@@ -276,7 +234,7 @@ TimeValue parse_time_real(double v) {
             fail("Unix seconds past year 9999 (is it in milliseconds? divide by 1000)");
         check_range(t, [] { return std::string("the Unix time"); });
     }
-    value.instant = t;
+    value.when = t;
     return value;
 }
 
@@ -292,8 +250,13 @@ TimeValue parse_time_integer(std::int64_t v) {
     if (v >= 253402300800LL)
         fail("Unix seconds past year 9999 (is it in milliseconds? divide by 1000)");
     if (v < -62167219200LL) fail("Unix seconds before year 0000");
-    value.instant = from_unix_millis(v * 1000);
+    value.when = from_unix_millis(v * 1000);
     return value;
+}
+
+Instant TimeValue::utc_instant() const {
+    if (is_calendar_day()) return Instant{day().time_since_epoch()};
+    return instant();
 }
 
 double to_julian_day(Instant t) {
@@ -306,35 +269,14 @@ std::int64_t to_unix_seconds_integer(Instant t) {
     return date::floor<seconds>(t).time_since_epoch().count();
 }
 
-namespace {
-// Writes n digits of v at out, two at a time; faster than snprintf, which
-// matters because it runs once per row.
-constexpr char kDigitPairs[] =
-    "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
-    "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
-    "8081828384858687888990919293949596979899";
-char* put_digits(char* out, unsigned v, int n) {
-    int i = n;
-    while (i >= 2) {
-        i -= 2;
-        const char* pair = kDigitPairs + 2 * (v % 100);
-        out[i] = pair[0];
-        out[i + 1] = pair[1];
-        v /= 100;
-    }
-    if (i == 1) out[0] = static_cast<char>('0' + v % 10);
-    return out + n;
-}
-}  // namespace
-
 char* write_date(char* out, date::local_days day) {
     CivilDate civil =
         civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
-    out = put_digits(out, static_cast<unsigned>(civil.year), 4);
+    out = write_padded(out, static_cast<unsigned>(civil.year), 4);
     *out++ = '-';
-    out = put_digits(out, civil.month, 2);
+    out = write_padded(out, civil.month, 2);
     *out++ = '-';
-    return put_digits(out, civil.day, 2);
+    return write_padded(out, civil.day, 2);
 }
 
 std::string format_date(date::local_days day) {
@@ -350,16 +292,16 @@ std::string format_date_time(LocalTime t, TextForm::Precision precision, bool t_
     char buffer[16];
     char* out = buffer;
     *out++ = t_separator ? 'T' : ' ';
-    out = put_digits(out, unsigned(time_of_day.hours().count()), 2);
+    out = write_padded(out, unsigned(time_of_day.hours().count()), 2);
     *out++ = ':';
-    out = put_digits(out, unsigned(time_of_day.minutes().count()), 2);
+    out = write_padded(out, unsigned(time_of_day.minutes().count()), 2);
     if (precision != TextForm::Precision::Minutes) {
         *out++ = ':';
-        out = put_digits(out, unsigned(time_of_day.seconds().count()), 2);
+        out = write_padded(out, unsigned(time_of_day.seconds().count()), 2);
     }
     if (precision == TextForm::Precision::Fraction) {
         *out++ = '.';
-        out = put_digits(out, unsigned(time_of_day.subseconds().count()), 3);
+        out = write_padded(out, unsigned(time_of_day.subseconds().count()), 3);
     }
     text.append(buffer, out);
     return text;
@@ -371,14 +313,14 @@ std::string format_offset(std::chrono::seconds offset) {
     char* out = buffer;
     *out++ = total < 0 ? '-' : '+';
     unsigned magnitude = static_cast<unsigned>(total < 0 ? -total : total);
-    out = put_digits(out, magnitude / 3600, 2);
+    out = write_padded(out, magnitude / 3600, 2);
     *out++ = ':';
-    out = put_digits(out, magnitude / 60 % 60, 2);
+    out = write_padded(out, magnitude / 60 % 60, 2);
     // Offsets of whole minutes are the rule; historic local mean times have
     // seconds, which ±HH:MM cannot carry, so they are written ±HH:MM:SS.
     if (magnitude % 60 != 0) {
         *out++ = ':';
-        out = put_digits(out, magnitude % 60, 2);
+        out = write_padded(out, magnitude % 60, 2);
     }
     return std::string(buffer, out);
 }

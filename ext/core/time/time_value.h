@@ -17,6 +17,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <variant>
 
 namespace almanac {
 
@@ -42,14 +43,21 @@ struct TextForm {
 };
 
 struct TimeValue {
+    // A bare YYYY-MM-DD is a calendar day: it is placed in a zone only when
+    // the caller has one. Every other value is an instant.
+    std::variant<date::local_days, Instant> when;
     Representation representation = Representation::Text;
     bool integer_input = false;  // an INTEGER Unix time gives INTEGER results
     TextForm form;
-    // A bare YYYY-MM-DD is a calendar day: it is placed in a zone only when
-    // the caller has one. Every other value is an instant.
-    bool is_calendar_day = false;
-    date::local_days day{};  // when is_calendar_day
-    Instant instant{};       // otherwise
+
+    bool is_calendar_day() const { return std::holds_alternative<date::local_days>(when); }
+    // The calendar day; only when is_calendar_day().
+    date::local_days day() const { return std::get<date::local_days>(when); }
+    // The instant; only when !is_calendar_day().
+    Instant instant() const { return std::get<Instant>(when); }
+    // The instant, a calendar day taken at its UTC midnight: how a bare date
+    // reads where no zone is given (README "Time values").
+    Instant utc_instant() const;
 };
 
 // Parsers throw almanac::Error saying what was expected. They accept exactly
@@ -57,10 +65,6 @@ struct TimeValue {
 TimeValue parse_time_text(std::string_view text);
 TimeValue parse_time_real(double value);
 TimeValue parse_time_integer(std::int64_t value);
-
-// SQLite reads numeric TEXT as a number; so do we. Returns the number when
-// the whole text (surrounding spaces allowed) is a decimal number.
-std::optional<double> numeric_text(std::string_view text);
 
 // Limits of the supported calendar, years 0000 through 9999.
 Instant earliest_supported_instant();

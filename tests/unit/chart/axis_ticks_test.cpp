@@ -21,8 +21,8 @@ std::vector<std::string> contexts(const AxisScale& scale) {
     for (const auto& tick : scale.ticks) out.push_back(tick.context);
     return out;
 }
-Instant at(const char* text) { return parse_time_text(text).instant; }
-Instant day(const char* text) { return Instant{parse_time_text(text).day.time_since_epoch()}; }
+Instant at(const char* text) { return parse_time_text(text).instant(); }
+Instant day(const char* text) { return parse_time_text(text).utc_instant(); }
 }  // namespace
 
 TEST_CASE("steps are 1, 2 or 5 times a power of ten") {

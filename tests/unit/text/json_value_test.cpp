@@ -5,6 +5,7 @@
 
 #include "core/chart/chart_options.h"
 #include "core/text/error.h"
+#include "core/text/utf8.h"
 
 using namespace almanac;
 
@@ -98,4 +99,13 @@ TEST_CASE("chart options read the four keys and refuse anything else") {
     CHECK_THROWS_WITH(parse_chart_options(R"(["title"])"),
                       "expected a JSON object such as {\"title\": \"Sales\"}, not an array");
     CHECK_THROWS_AS(parse_chart_options("{title: 1}"), Error);
+}
+
+TEST_CASE("a long string in a message is cut between characters, never inside one") {
+    // Regression: the cut at byte 40 split an "é" (2 bytes, RFC 3629) and the message
+    // was not UTF-8. 39 ASCII letters put the "é" across bytes 39-40.
+    std::string value = std::string(39, 'a') + "\xC3\xA9\xC3\xA9";
+    std::string shown = JsonValue::from_string(value).describe();
+    CHECK(shown == "\"" + std::string(39, 'a') + "...\"");
+    CHECK(is_valid_utf8(shown));
 }

@@ -36,13 +36,6 @@ TEST_CASE("newlines and tabs survive inside attribute values") {
     CHECK(xml_escape("a\nb\tc\rd") == "a&#10;b&#9;c&#13;d");
 }
 
-TEST_CASE("shortening cuts on code point boundaries") {
-    CHECK(shorten_utf8("abcdef", 3) == "abc\xE2\x80\xA6");
-    CHECK(shorten_utf8("abc", 3) == "abc");
-    CHECK(shorten_utf8("\xC3\xA9\xC3\xA9\xC3\xA9", 2) == "\xC3\xA9\xC3\xA9\xE2\x80\xA6");
-    CHECK(utf8_length("\xC3\xA9t\xC3\xA9") == 3);
-}
-
 TEST_CASE("the SVG writer escapes every attribute and text node") {
     SvgWriter svg(100, 50);
     svg.text("text", {{"data-series", "<b>\"x\"</b>"}}, "<script>alert(1)</script>");

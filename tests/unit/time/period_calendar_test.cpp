@@ -10,7 +10,7 @@ using namespace almanac;
 namespace {
 Instant at(const char* text) {
     auto value = parse_time_text(text);
-    return value.is_calendar_day ? Instant{value.day.time_since_epoch()} : value.instant;
+    return value.utc_instant();
 }
 PeriodCalendar utc(const char* spec) {
     return PeriodCalendar(parse_period_spec(spec), ZoneClock::utc());
@@ -100,7 +100,7 @@ TEST_CASE("from anchors give billing cycles that clamp in short months") {
 TEST_CASE("shifting by months clamps to the month's last day") {
     auto month = utc("month");
     auto shift_day = [&](const PeriodCalendar& calendar, const char* day, std::int64_t n) {
-        return format_date(calendar.shift_day(parse_time_text(day).day, n));
+        return format_date(calendar.shift_day(parse_time_text(day).day(), n));
     };
     // Month-end clamping (common practice): Jan 31 + 1 month is the end of February.
     CHECK(shift_day(month, "2024-01-31", 1) == "2024-02-29");

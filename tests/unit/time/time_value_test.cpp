@@ -9,17 +9,17 @@ using namespace almanac;
 
 TEST_CASE("a bare date is a calendar day, not an instant") {
     auto value = parse_time_text("2026-03-05");
-    CHECK(value.is_calendar_day);
-    CHECK(format_date(value.day) == "2026-03-05");
+    CHECK(value.is_calendar_day());
+    CHECK(format_date(value.day()) == "2026-03-05");
 }
 
 TEST_CASE("the Julian day of J2000.0 is 2000-01-01 12:00 UTC") {
     // J2000.0 epoch = JD 2451545.0 (from memory; CHECKS.md).
     auto value = parse_time_real(2451545.0);
     CHECK(value.representation == Representation::JulianDay);
-    CHECK(format_date_time(LocalTime{value.instant.time_since_epoch()},
+    CHECK(format_date_time(LocalTime{value.instant().time_since_epoch()},
                            TextForm::Precision::Seconds, false) == "2000-01-01 12:00:00");
-    CHECK(to_julian_day(value.instant) == 2451545.0);
+    CHECK(to_julian_day(value.instant()) == 2451545.0);
 }
 
 TEST_CASE("impossible dates are errors, not normalised") {
@@ -36,7 +36,7 @@ TEST_CASE("numbers follow SQLite's auto rule") {
     CHECK(parse_time_integer(-1).representation == Representation::UnixSeconds);
     CHECK(parse_time_integer(-1).integer_input);
     // -1 Unix seconds is 1969-12-31 23:59:59 (DESIGN.md).
-    CHECK(format_date_time(LocalTime{parse_time_integer(-1).instant.time_since_epoch()},
+    CHECK(format_date_time(LocalTime{parse_time_integer(-1).instant().time_since_epoch()},
                            TextForm::Precision::Seconds, false) == "1969-12-31 23:59:59");
 }
 
@@ -50,13 +50,11 @@ TEST_CASE("text forms: T, fractions, Z and offsets") {
     CHECK(value.form.t_separator);
     CHECK(value.form.precision == TextForm::Precision::Fraction);
     CHECK(value.form.suffix == TextForm::Suffix::Offset);
-    CHECK(format_date_time(LocalTime{value.instant.time_since_epoch()},
+    CHECK(format_date_time(LocalTime{value.instant().time_since_epoch()},
                            TextForm::Precision::Fraction, false) == "2026-03-05 04:30:00.125");
     CHECK(parse_time_text("2026-03-05 10:00Z").form.suffix == TextForm::Suffix::Z);
     CHECK_THROWS_AS(parse_time_text("2026-03-05 24:00"), Error);
     CHECK_THROWS_AS(parse_time_text("2026-03-05 10:60"), Error);
     CHECK_THROWS_AS(parse_time_text("2026-03-05 10:00 +15:00"), Error);
     CHECK_THROWS_AS(parse_time_text("2026-03-05 10"), Error);
-    CHECK(numeric_text(" 12.5 ") == 12.5);
-    CHECK_FALSE(numeric_text("1,234.50"));
 }
