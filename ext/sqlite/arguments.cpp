@@ -37,7 +37,7 @@ std::string describe_value(sqlite3_value* value) {
             for (std::size_t i = 0; i < shown.size();) {
                 // Bytes that are not UTF-8 are shown as U+FFFD, so a message
                 // about bad input is itself valid text.
-                std::size_t length = utf8_length(shown, i);
+                std::size_t length = utf8_sequence_length(shown, i);
                 if (length == 0) {
                     quoted += "\xEF\xBF\xBD";
                     ++i;

@@ -33,7 +33,6 @@
 // All arithmetic lives in the core (exact_total.h, amount_text.h,
 // time_format.h, local_reading.h); this file reads arguments and writes
 // results.
-#include <charconv>
 #include <cmath>
 #include <cstdint>
 #include <new>
@@ -45,7 +44,9 @@
 #include "arguments.h"
 #include "core/exact/exact_total.h"
 #include "core/text/amount_text.h"
+#include "core/text/ascii.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
 #include "core/time/local_reading.h"
 #include "core/time/time_format.h"
 #include "core/time/time_value.h"
@@ -62,11 +63,9 @@ constexpr ArgumentRef kSumX{"exact_sum", 1, "x"};
 // The whole-number TEXT that SQLite's own sum() counts as an INTEGER ('12',
 // ' -3 '); false for anything with a point or an exponent, or out of range.
 bool whole_number_text(std::string_view text, std::int64_t& out) {
-    while (!text.empty() && (text.front() == ' ' || text.front() == '\t')) text.remove_prefix(1);
-    while (!text.empty() && (text.back() == ' ' || text.back() == '\t')) text.remove_suffix(1);
-    if (!text.empty() && text.front() == '+') text.remove_prefix(1);
-    auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), out);
-    return error == std::errc() && end == text.data() + text.size();
+    auto whole = parse_int64(trim_ascii_space(text));
+    if (whole) out = *whole;
+    return whole.has_value();
 }
 
 // Adds (or removes) one row's x; NULL is skipped.
@@ -235,14 +234,9 @@ double read_serial(sqlite3_value* text) {
             return sqlite3_value_double(text);
         case SQLITE_TEXT: {
             const char* raw = reinterpret_cast<const char*>(sqlite3_value_text(text));
-            std::string_view written(raw ? raw : "", sqlite3_value_bytes(text));
-            while (!written.empty() && written.front() == ' ') written.remove_prefix(1);
-            while (!written.empty() && written.back() == ' ') written.remove_suffix(1);
-            double serial = 0;
-            auto [end, error] =
-                std::from_chars(written.data(), written.data() + written.size(), serial);
-            if (!written.empty() && error == std::errc() && end == written.data() + written.size())
-                return serial;
+            if (auto serial =
+                    numeric_text({raw ? raw : "", std::size_t(sqlite3_value_bytes(text))}))
+                return *serial;
             raise_argument_error(kTimeText, text,
                                  "expected a serial day number such as 46086.6, because the "
                                  "format is excel");

@@ -116,7 +116,7 @@ void period_position(sqlite3_context* context, int argc, sqlite3_value** argv) {
             if (sqlite3_value_type(argv[i]) == SQLITE_NULL) return sqlite3_result_null(context);
         const PeriodPosition& position = cached_position(context, argv, argc);
         try {
-            const Instant instant = place_on_time_line(*t, position.cycle_calendar());
+            const Instant instant = position.cycle_calendar().place_on_time_line(*t);
             sqlite3_result_int64(context, position.position(instant));
         } catch (const Error& error) {
             raise_argument_error(kPositionT, argv[0], error.what());

@@ -2,11 +2,14 @@
 #include "core/text/amount_text.h"
 
 #include <array>
-#include <charconv>
+#include <cmath>
 #include <string>
 
+#include "core/text/ascii.h"
 #include "core/text/character_position.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
+#include "core/text/utf8.h"
 
 namespace almanac {
 namespace {
@@ -42,7 +45,6 @@ constexpr std::array<std::string_view, 20> kCurrencySigns = {"NZ$",
                                                              "\xE2\x82\xB1" /* ₱ */,
                                                              "\xE2\x82\xA6" /* ₦ */};
 
-bool is_digit(char c) { return c >= '0' && c <= '9'; }
 bool is_upper(char c) { return c >= 'A' && c <= 'Z'; }
 bool is_letter(char c) { return is_upper(c) || (c >= 'a' && c <= 'z'); }
 
@@ -167,7 +169,7 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     auto at = [&](std::size_t pos) { return "at " + character_at(text, offset + pos) + ": "; };
     if (s.empty()) throw Error("expected digits");
 
-    std::string digits;  // the number without separators, as from_chars reads it
+    std::string digits;  // the number without separators, as parse_decimal reads it
     // Digit groups between separators, checked as they come (no list kept):
     // thousands need every group after the first to be 3 long; lakhs need
     // every group between the first and the last to be 2 long.
@@ -177,7 +179,7 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     std::size_t pos = 0, first_separator = 0;
     auto digit_run = [&]() {
         std::size_t start = pos;
-        while (pos < s.size() && is_digit(s[pos])) digits += s[pos++];
+        while (pos < s.size() && is_ascii_digit(s[pos])) digits += s[pos++];
         return pos - start;
     };
     first_group = last_group = digit_run();
@@ -241,17 +243,12 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
                 (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint() : ""));
     }
 
-    double value = 0;
-    auto [end, error] = std::from_chars(digits.data(), digits.data() + digits.size(), value);
-    (void)end;
-    if (error == std::errc::result_out_of_range) {
-        // Too large when a digit before the point is not zero; otherwise too
-        // small for a REAL, which as money is nothing.
-        bool whole = digits.find_first_of("123456789") < digits.find('.');
-        if (whole) throw Error("expected an amount that fits a REAL (below 1.8e308)");
-        return 0.0;
-    }
-    if (error != std::errc()) throw Error("expected digits");
+    // Beyond a REAL's range the number reads as infinite; below it as zero,
+    // which as money is nothing.
+    auto parsed = parse_decimal(digits);
+    if (!parsed) throw Error("expected digits");
+    if (std::isinf(*parsed)) throw Error("expected an amount that fits a REAL (below 1.8e308)");
+    double value = *parsed;
     // A zero stays zero: "-0.00" or "(0.00)" is no amount, not a negative one.
     if (value == 0) return 0.0;
     return negative ? -value : value;

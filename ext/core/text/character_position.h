@@ -11,10 +11,6 @@
 
 namespace almanac {
 
-// Length of the UTF-8 character that starts at text[pos]; 0 when the bytes
-// there are not a valid UTF-8 character.
-std::size_t utf8_length(std::string_view text, std::size_t pos);
-
 // "character N ('c')" for the character at byte pos (pos < text.size()); with
 // length, that many bytes are shown (a number that is out of range, say).
 std::string character_at(std::string_view text, std::size_t pos, std::size_t length = 0);

@@ -34,6 +34,11 @@ std::size_t utf8_decode(std::string_view text, std::size_t i, std::uint32_t& cod
     return length;
 }
 
+std::size_t utf8_sequence_length(std::string_view text, std::size_t i) {
+    std::uint32_t c;
+    return utf8_decode(text, i, c);
+}
+
 void utf8_append(std::string& out, std::uint32_t c) {
     if (c < 0x80) {
         out += char(c);

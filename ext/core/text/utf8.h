@@ -16,6 +16,9 @@ namespace almanac {
 // none (a stray continuation byte, a cut or malformed sequence).
 std::size_t utf8_decode(std::string_view text, std::size_t i, std::uint32_t& code_point);
 
+// The same length without the code point: 0 where no well-formed sequence starts.
+std::size_t utf8_sequence_length(std::string_view text, std::size_t i);
+
 // Appends the encoding of a code point (at most U+10FFFF, not a surrogate).
 void utf8_append(std::string& out, std::uint32_t code_point);
 

@@ -4,8 +4,10 @@
 #include <array>
 #include <cmath>
 
+#include "core/text/ascii.h"
 #include "core/text/character_position.h"
 #include "core/text/error.h"
+#include "core/text/utf8.h"
 #include "core/time/civil_days.h"
 
 namespace almanac {
@@ -21,7 +23,6 @@ constexpr std::array<std::string_view, 12> kMonths = {
 constexpr std::array<std::string_view, 7> kWeekdays = {
     "monday", "tuesday", "wednesday", "thursday", "friday", "saturday", "sunday"};
 
-bool is_digit(char c) { return c >= '0' && c <= '9'; }
 char ascii_lower(char c) { return c >= 'A' && c <= 'Z' ? char(c - 'A' + 'a') : c; }
 bool is_space(char c) { return c == ' ' || c == '\t'; }
 
@@ -199,7 +200,7 @@ TimeFormat TimeFormat::parse(std::string_view format) {
                 break;
             default:
                 throw Error("unknown directive at " +
-                            character_at(format, i - 1, 1 + utf8_length(format, i)) +
+                            character_at(format, i - 1, 1 + utf8_sequence_length(format, i)) +
                             "; expected one of " + std::string(kDirectives));
         }
         // Two spellings of one field (%d and %e, %b and %B) count as one.
@@ -246,7 +247,7 @@ TimeReading TimeFormat::read(std::string_view raw) const {
     auto number = [&](const Step& step, std::size_t most, int low, int high, bool fixed = false) {
         std::size_t start = pos;
         int value = 0;
-        while (pos < text.size() && pos - start < most && is_digit(text[pos]))
+        while (pos < text.size() && pos - start < most && is_ascii_digit(text[pos]))
             value = value * 10 + (text[pos++] - '0');
         if (pos == start || (fixed && pos - start != most))
             mismatch(text, start, expected_for(step.directive));
@@ -282,7 +283,8 @@ TimeReading TimeFormat::read(std::string_view raw) const {
                 break;
             case Field::Day:
                 // One space may pad a one-digit day ("Mar  5"), as %e writes it.
-                if (pos + 1 < text.size() && text[pos] == ' ' && is_digit(text[pos + 1])) ++pos;
+                if (pos + 1 < text.size() && text[pos] == ' ' && is_ascii_digit(text[pos + 1]))
+                    ++pos;
                 day = number(step, 2, 1, 31);
                 break;
             case Field::Hour24:
@@ -301,7 +303,7 @@ TimeReading TimeFormat::read(std::string_view raw) const {
                 // Up to nanoseconds; rounded half up to the millisecond.
                 std::size_t start = pos;
                 std::int64_t nanos = 0;
-                while (pos < text.size() && pos - start < 9 && is_digit(text[pos]))
+                while (pos < text.size() && pos - start < 9 && is_ascii_digit(text[pos]))
                     nanos = nanos * 10 + (text[pos++] - '0');
                 if (pos == start) mismatch(text, start, expected_for(step.directive));
                 for (std::size_t n = pos - start; n < 9; ++n) nanos *= 10;
@@ -345,7 +347,8 @@ TimeReading TimeFormat::read(std::string_view raw) const {
                     mismatch(text, pos, expected_for('z'));
                 int sign = text[pos++] == '-' ? -1 : 1;
                 auto digits2 = [&]() {
-                    if (pos + 2 > text.size() || !is_digit(text[pos]) || !is_digit(text[pos + 1]))
+                    if (pos + 2 > text.size() || !is_ascii_digit(text[pos]) ||
+                        !is_ascii_digit(text[pos + 1]))
                         mismatch(text, pos, expected_for('z'));
                     int v = (text[pos] - '0') * 10 + (text[pos + 1] - '0');
                     pos += 2;

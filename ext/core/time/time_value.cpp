@@ -221,8 +221,9 @@ TimeValue parse_time_real(double v) {
         // SQLite rounds a Julian day to the millisecond the same way.
         auto jd_millis = static_cast<std::int64_t>(v * 86400000.0 + 0.5);
         t = from_unix_millis(jd_millis - kUnixEpochJulianMillis);
-        check_range(t, [v] { return "Julian day " + readable_double(v); },
-                    [v] { return misread_number_hint(v); });
+        check_range(
+            t, [v] { return "Julian day " + readable_double(v); },
+            [v] { return misread_number_hint(v); });
     } else {
         value.representation = Representation::UnixSeconds;
         double ms = std::floor(v * 1000.0 + 0.5);

@@ -4,6 +4,8 @@
 #include <catch2/catch.hpp>
 #include <string>
 
+#include "core/text/utf8.h"
+
 using namespace almanac;
 
 TEST_CASE("positions count characters, not bytes") {
@@ -21,9 +23,9 @@ TEST_CASE("bytes that are not printable UTF-8 are shown in hex") {
     CHECK(character_at(nul, 1) == "character 2 (byte 0x00)");
     CHECK(character_at("a\xFF", 1) == "character 2 (byte 0xFF)");
     // RFC 3629: a surrogate (ED A0 80) and an overlong form (E0 80 80) are not UTF-8.
-    CHECK(utf8_length("\xED\xA0\x80", 0) == 0);
-    CHECK(utf8_length("\xE0\x80\x80", 0) == 0);
-    CHECK(utf8_length("\xE2\x82\xAC", 0) == 3);  // U+20AC, the euro sign
+    CHECK(utf8_sequence_length("\xED\xA0\x80", 0) == 0);
+    CHECK(utf8_sequence_length("\xE0\x80\x80", 0) == 0);
+    CHECK(utf8_sequence_length("\xE2\x82\xAC", 0) == 3);  // U+20AC, the euro sign
 }
 
 TEST_CASE("a shown run stops before a byte that is not a whole character") {
