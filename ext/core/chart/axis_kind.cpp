@@ -12,8 +12,8 @@ double time_axis_value(const TimeValue& value) {
 }
 
 double time_axis_value(const TimeValue& value, const ZoneClock& zone) {
-    if (value.is_calendar_day) return time_axis_value(value);
-    return static_cast<double>(zone.to_local(value.instant).time_since_epoch().count());
+    if (value.is_calendar_day()) return time_axis_value(value);
+    return static_cast<double>(zone.to_local(value.instant()).time_since_epoch().count());
 }
 
 Instant instant_from_axis_value(double value) {
