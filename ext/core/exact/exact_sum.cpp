@@ -26,7 +26,7 @@ bool ExactSum::widen() {
         // The limbs for both halves are allocated before anything changes: if
         // memory runs out, the sum is still the 128-bit one, intact.
         std::int64_t position = narrow_exponent_ + kBitOffset;
-        extend(floor_div32(position), floor_div32(position + 64) + 4);
+        extend(floor_div_by<32>(position), floor_div_by<32>(position + 64) + 4);
         bool negative = value < 0;
         Uint128 magnitude = negative ? Uint128(0) - Uint128(value) : Uint128(value);
         auto low = static_cast<std::uint64_t>(magnitude);
