@@ -2,7 +2,7 @@
 #include "core/chart/chart_frame.h"
 
 #include "core/chart/chart_palette.h"
-#include "core/text/xml_text.h"
+#include "core/text/utf8.h"
 
 namespace almanac {
 

@@ -4,7 +4,7 @@
 #include <algorithm>
 
 #include "core/chart/calendar_ticks.h"
-#include "core/text/xml_text.h"
+#include "core/text/utf8.h"
 
 namespace almanac {
 

@@ -124,7 +124,7 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
     int signs = 0, currencies = 0;
     bool negative = false, parentheses = false;
     // Most amounts are bare numbers: nothing to peel when both ends are digits.
-    bool bare = is_digit(s.front()) && is_digit(s.back());
+    bool bare = is_ascii_digit(s.front()) && is_ascii_digit(s.back());
     for (bool changed = !bare; changed && !s.empty();) {
         changed = true;
         if (!parentheses && s.size() >= 2 && s.front() == '(' && s.back() == ')') {
