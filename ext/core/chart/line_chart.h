@@ -47,9 +47,11 @@ class LineChart {
     bool empty() const { return points_.empty(); }
     std::size_t series_count() const { return series_ids_.size(); }
 
+    // Measures the data (extent), lays the chart out (chart_layout.h), draws
+    // the frame and legend (chart_frame.h) and the lines between them.
     std::string render_svg(const ChartOptions& options) const;
 
-  private:
+    // One row as added.
     struct Point {
         double x;
         double y;
@@ -57,6 +59,8 @@ class LineChart {
         ChartLayer layer;
         std::uint32_t series;  // id in order of first appearance
     };
+
+  private:
     ChartLimits limits_;
     XKindGuard x_kind_;
     std::map<std::string, std::uint32_t, std::less<>> series_ids_;
