@@ -1,4 +1,5 @@
 # SPDX-License-Identifier: MIT
+# ctest-labels: heavy browser
 """svg_bar_chart() through real SQLite, checked against the contract (DESIGN.md
 "Reports"): xml.etree parses every document; datetime gives each period's
 first and last day, and the calendar axis's own tick labels (read back as

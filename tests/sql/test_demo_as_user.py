@@ -1,4 +1,5 @@
 # SPDX-License-Identifier: MIT
+# ctest-labels: heavy root
 """The report command for cron: demo/run.sh --db, run by a user who is not root,
 on a machine where almanac is already built.
 
