@@ -53,7 +53,7 @@ namespace almanac::sqlite {
 namespace {
 
 struct XReading {
-    XKind kind;
+    AxisKind kind;
     double value;
 };
 
@@ -68,16 +68,16 @@ std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
             return std::nullopt;
         case SQLITE_INTEGER:
         case SQLITE_FLOAT:
-            return XReading{XKind::Number, *read_number(arg, value)};
+            return XReading{AxisKind::Number, *read_number(arg, value)};
         case SQLITE_TEXT: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
             if (numeric_text(text ? text : ""))
-                return XReading{XKind::Number, *read_number(arg, value)};
+                return XReading{AxisKind::Number, *read_number(arg, value)};
             if (categories && !looks_like_a_date(text ? text : "") && !is_valid_time(value))
-                return XReading{XKind::Category, 0};
+                return XReading{AxisKind::Category, 0};
             try {
                 TimeValue time = *read_time(arg, value);
-                return XReading{XKind::Time,
+                return XReading{AxisKind::Time,
                                 zone ? time_axis_value(time, *zone) : time_axis_value(time)};
             } catch (const SqlError& error) {
                 // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.
@@ -93,7 +93,8 @@ std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
     }
 }
 
-void accept_x_kind(XKindGuard& guard, const ArgumentRef& arg, sqlite3_value* value, XKind kind) {
+void accept_x_kind(AxisKindGuard& guard, const ArgumentRef& arg, sqlite3_value* value,
+                   AxisKind kind) {
     try {
         guard.accept(kind);
     } catch (const Error& error) {
@@ -105,7 +106,7 @@ void accept_x_kind(XKindGuard& guard, const ArgumentRef& arg, sqlite3_value* val
 // sparkline(y, x)
 
 struct SparklineState {
-    XKindGuard x_kind;
+    AxisKindGuard x_kind;
     Sparkline line;
 };
 
@@ -260,7 +261,7 @@ void bar_chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
             raise_argument_error(x_arg, argv[0], error.what());
         }
         try {
-            if (x->kind == XKind::Category) {
+            if (x->kind == AxisKind::Category) {
                 auto category = read_text(x_arg, argv[0]);
                 state.chart.add_category(*category, y, *series);
             } else {

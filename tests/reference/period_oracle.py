@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """An independent reference calendar for the period checks.
 
-DESIGN.md's rules ("Time values", "Calendar periods", "Spec grammar",
+The README's rules ("Time values", "Calendar period functions", "Specs",
 "Labels", "Zones") written a second time, in plain Python `datetime`
 arithmetic, with `zoneinfo` for local clocks. Nothing here is derived from
 the extension's code: the specs are built by hand (not parsed), so a test
@@ -32,7 +32,7 @@ MONTHS_PER_UNIT = {"month": 1, "quarter": 3, "year": 12}
 
 @dataclass(frozen=True)
 class Spec:
-    """A period spec as DESIGN.md defines it, written out by hand."""
+    """A period spec as the README defines it, written out by hand."""
 
     unit: str                          # second minute hour day week half-month month quarter year
     count: int = 1
@@ -89,7 +89,7 @@ def format_offset(offset):
 
 def wall_period(spec, wall):
     """(start, end, serial) of the period holding a wall-clock reading, on the
-    wall clock itself: the calendar part of DESIGN.md, without any zone."""
+    wall clock itself: the calendar part of the README, without any zone."""
     if spec.unit == "half-month":
         # 1st-15th and 16th-last (common practice: semi-monthly pay periods)
         second_half = wall.day >= 16
@@ -134,7 +134,7 @@ def wall_period(spec, wall):
 
 
 def label_of(spec, start_wall, offset=None, end_wall=None):
-    """DESIGN.md "Labels", from the period's start reading (and its offset, in a zone).
+    """README "Labels", from the period's start reading (and its offset, in a zone).
     Half-months, months, quarters and years counted `from` a date are labelled with
     their first and last day, the year of the last one only when it differs
     (README "Labels": 2026-02-15..03-14)."""
@@ -205,7 +205,7 @@ class ZoneClock:
 
     def first_instant(self, wall):
         """The first instant whose reading is `wall`; for a skipped reading, the
-        instant of the forward change that skipped it (DESIGN.md "Time values")."""
+        instant of the forward change that skipped it (README "Time values")."""
         readable = [ms for ms in {self._instant(wall, 0), self._instant(wall, 1)} if self.local(ms)[0] == wall]
         if readable:
             return min(readable)
@@ -253,7 +253,7 @@ def period_of_day(spec, day, clock=None):
 
 
 def _zoned_sub_day_period(spec, ms, clock):
-    """DESIGN.md "Zones": sub-day periods are intervals of elapsed time whose
+    """README "Zones": sub-day periods are intervals of elapsed time whose
     boundaries fall on the local clock's round values. Written for units that
     divide an hour, in zones whose changes happen on a round local value."""
     length_ms = SUB_DAY_SECONDS[spec.unit] * spec.count * 1000
@@ -316,7 +316,7 @@ def same_value(got, expected):
 
 
 def shift_wall(spec, wall, n):
-    """DESIGN.md period_shift: t moved by n whole periods on the wall clock;
+    """README: period_shift: t moved by n whole periods on the wall clock;
     months clamp to the month's last day; a half-month keeps t's offset from
     the start of its half, clamped to the target half; time of day is kept."""
     if spec.sub_day:

@@ -18,7 +18,7 @@ from zoneinfo import ZoneInfo
 UTC = dt.timezone.utc
 MONTH_NAMES = {name.lower(): number for number, name in enumerate(calendar.month_name) if name}
 WEEKDAYS = ["Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday"]
-BLOCKS = [chr(0x2581 + level) for level in range(8)]  # U+2581..U+2588 (DESIGN.md, sparkline)
+BLOCKS = [chr(0x2581 + level) for level in range(8)]  # U+2581..U+2588 (README, sparkline)
 
 
 def local_day(ts, zone):
@@ -69,7 +69,7 @@ def month_of(day):
 
 def fiscal_quarter_of(first_month):
     """Quarters of a fiscal year starting in first_month, labelled FYyyyy-Qn with
-    yyyy the year in which that fiscal year ends (DESIGN.md, Labels)."""
+    yyyy the year in which that fiscal year ends (README "Labels")."""
     def of(day):
         offset = (day.month - first_month) % 12
         quarter = offset // 3
@@ -243,7 +243,7 @@ def line_fit(xs, ys):
 
 
 def sparkline_levels(values):
-    """DESIGN.md: level = round(7 (y - min) / (max - min)); a constant series is all
+    """README: level = round(7 (y - min) / (max - min)); a constant series is all
     U+2584. Returns, per value, the set of acceptable levels (both neighbours at an
     exact half, where the rounding direction is the implementation's choice)."""
     low, high = min(values), max(values)

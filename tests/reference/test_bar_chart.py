@@ -1,6 +1,6 @@
 # SPDX-License-Identifier: MIT
 # ctest-labels: heavy browser
-"""svg_bar_chart() through real SQLite, checked against the contract (DESIGN.md
+"""svg_bar_chart() through real SQLite, checked against the contract (the README
 "Reports"): xml.etree parses every document; datetime gives each period's
 first and last day, and the calendar axis's own tick labels (read back as
 dates) give the pixel scale, so "each bar inside its period" is checked
@@ -76,7 +76,7 @@ def test_one_bar_per_row_with_a_value_and_none_for_null(db):
 
 def test_each_bar_lies_inside_its_period_on_the_calendar_axis(db):
     # One row per item and month, x any day inside the month (the 15th): the bar must fill
-    # its month, not straddle it (DESIGN.md: "a calendar axis for time x with each bar
+    # its month, not straddle it (README: "a calendar axis for time x with each bar
     # inside its period").
     rows = [(f"2025-{m:02d}-15", 10 + m * (k + 1), s) for m in range(1, 13) for k, s in enumerate(("rye", "oat"))]
     root = ET.fromstring(bar_chart(db, rows, '{"period": "month", "width": 1000}'))

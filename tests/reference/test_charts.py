@@ -1,6 +1,6 @@
 # SPDX-License-Identifier: MIT
 """svg_line_chart() and sparkline() through real SQLite, checked against the
-contract (DESIGN.md "Reports") with Python's own tools as the oracle:
+contract (README "Reports: sparklines and line charts") with Python's own tools as the oracle:
 xml.etree parses every document, sorted() orders the series names,
 datetime places calendar ticks, and the sparkline scaling rule is computed
 here in plain Python from the data the test generated.
@@ -356,7 +356,7 @@ def test_a_period_label_as_x_is_an_error_that_says_what_to_use(db):
 
 
 def test_numeric_text_x_is_a_number(db):
-    # DESIGN.md: TEXT that SQLite reads as a number is a number; numbers get a numeric axis.
+    # README: TEXT that SQLite reads as a number is a number; numbers get a numeric axis.
     root = ET.fromstring(chart(db, [("1", 5, "a"), ("2", 6, "a"), (3, 7, "a")]))
     assert all(re.fullmatch(r"[\d.]+", label) for label in tick_labels(root, "x-axis"))
     assert db.execute("SELECT sparkline(y, x) FROM (SELECT ' 2' AS x, 9 AS y UNION ALL SELECT 1.5, 0)"
@@ -426,7 +426,7 @@ BLOCKS = "".join(chr(0x2581 + k) for k in range(8))  # Unicode: U+2581 ... U+258
 
 
 def sparkline_rule(points):
-    """DESIGN.md: level = round(7 (y - min) / (max - min)), halves up as SQLite's round();
+    """README: level = round(7 (y - min) / (max - min)), halves up as SQLite's round();
     a constant series is all U+2584; NULL y is a space; rows in x order, ties in arrival order."""
     ordered = sorted(points, key=lambda p: p[0])  # sorted() is stable: ties keep arrival order
     values = [y for _, y in ordered if y is not None]
@@ -498,7 +498,7 @@ def test_sparkline_in_the_shell(shell):
 
 
 # ---------------------------------------------------------------------------
-# Shared options: series_order, period, zone (DESIGN.md "Reports")
+# Shared options: series_order, period, zone (README "Reports: sparklines and line charts")
 
 
 def stroke_of(root, series):

@@ -7,7 +7,7 @@ position is computed with datetime alone: isoweekday(), isocalendar(),
 timetuple().tm_yday, month arithmetic for fiscal years, hour/minute/second
 for sub-day positions. The one rule with no library call — the week number
 for weeks that do not start on Monday, or years that do not start in
-January — is written here from its definition in DESIGN.md (the year that
+January — is written here from its definition in the README (the year that
 holds the majority of the week's days), with datetime's day arithmetic.
 
 Zones: America/Denver and Europe/Berlin, every day on which the UTC offset
@@ -34,7 +34,7 @@ def monday_week_number(d):
 
 
 def majority_week_number(d, week_start_iso, year_start_month):
-    """DESIGN.md: a week belongs to the year that holds the majority (4 of 7) of its days."""
+    """README: a week belongs to the year that holds the majority (4 of 7) of its days."""
     week = d - dt.timedelta(days=(d.isoweekday() - week_start_iso) % 7)
     fourth = week + dt.timedelta(days=3)
     year = fourth.year if fourth.month >= year_start_month else fourth.year - 1

@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """The table-valued periods(start, stop, spec [, zone]) against an enumeration in plain datetime.
 
-DESIGN.md: one row per period overlapping [start, stop), columns
+README: one row per period overlapping [start, stop), columns
 period_start, period_end, label, serial, in order, period_start/period_end in
 the representation of `start`; an eponymous virtual table whose arguments are
 hidden columns; streamed, not materialised. Expected rows come from

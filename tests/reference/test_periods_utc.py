@@ -2,10 +2,10 @@
 """Calendar periods without a zone, against plain Python datetime arithmetic.
 
 Seeded random time values from 1900 to 2100, written in every TEXT form
-DESIGN.md lists and as Unix seconds (INTEGER and REAL) and Julian days (REAL),
+The README lists and as Unix seconds (INTEGER and REAL) and Julian days (REAL),
 go through period_floor, period_end, period_serial and period_label for each
 spec below; the expected values come from tests/reference/period_oracle.py
-(DESIGN.md's rules written independently with `datetime`), computed at test
+(the README's rules written independently with `datetime`), computed at test
 time, and must match exactly, SQL type included. period_shift is checked the
 same way, plus a table of month-end, leap-year and half-month cases.
 """

@@ -327,7 +327,7 @@ def check_trend(got, expected):
         shape = row["shape"]
         assert len(shape) == len(e["shape_levels"])                 # oracle: one block per 4 weeks
         for char, levels in zip(shape, e["shape_levels"]):
-            assert ord(char) - 0x2581 in levels                     # oracle: DESIGN.md sparkline rule on fmean of blocks
+            assert ord(char) - 0x2581 in levels                     # oracle: the README sparkline rule on fmean of blocks
     # The report lists rising items first: by Sen slope relative to the mean, descending.
     assert [row["item"] for row in got] == sorted(expected, key=lambda i: (-expected[i]["sen"] / expected[i]["mean"], i))
     count("trend rows", len(got))
@@ -534,7 +534,7 @@ def check_chart(path, rows, **params):
         if point["layer"] == "raw":
             assert value == want           # oracle: round(math.fsum(the day's amounts), 2)
         else:
-            assert value == want           # oracle: math.fsum(7-day frame) / 7, bit for bit (DESIGN.md moving_mean)
+            assert value == want           # oracle: math.fsum(7-day frame) / 7, bit for bit (the README moving_mean)
     count("chart points", len(points))
 
 

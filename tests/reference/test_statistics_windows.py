@@ -189,7 +189,7 @@ def tolerance(name, expected, scales):
 
 
 def ewma_oracle(points, half_life):
-    """Σw·x/Σw with w = 0.5**((t_max − t)/h): DESIGN.md's definition, in numpy."""
+    """Σw·x/Σw with w = 0.5**((t_max − t)/h): the README's definition, in numpy."""
     if not points:
         return None
     x = np.array([p[0] for p in points])

@@ -111,7 +111,7 @@ def test_spreadsheet_serials_against_the_1900_date_system():
         # oracle: datetime.date(1899, 12, 30) + timedelta(serial) from 61 on; 1899-12-31 below 60
         epoch = dt.datetime(1899, 12, 30) if serial >= 61 else dt.datetime(1899, 12, 31)
         moment = epoch + dt.timedelta(days=serial)
-        # rounded to the millisecond (DESIGN.md, "fractions ... rounded to the millisecond")
+        # rounded to the millisecond (README, "fractions ... rounded to the millisecond")
         moment = moment.replace(microsecond=0) + dt.timedelta(milliseconds=round(moment.microsecond / 1000))
         expected = moment.strftime("%Y-%m-%d %H:%M:%S").rjust(19, "0")
         if moment.microsecond:

@@ -3,7 +3,7 @@
 
 Every message has one shape (ext/sqlite/arguments.h):
     fn(): argument N (name) = <value>: <what was expected>
-DESIGN.md ("Reading shop exports") is the source of what is an error; each
+README ("Reading shop exports") is the source of what is an error; each
 full text was read, judged clear, and pinned.
 """
 import sqlite3
@@ -174,7 +174,7 @@ def test_a_format_that_changes_from_row_to_row_is_read_per_row():
 
 
 def test_forms_without_a_zone_can_be_indexed_and_the_zoned_form_cannot():
-    # DESIGN.md: deterministic without a zone; with a zone the result depends on the
+    # README: deterministic without a zone; with a zone the result depends on the
     # tz database, as SQLite's own 'localtime' does, so SQLite refuses it in an index.
     db = connect()
     db.execute("CREATE TABLE pos(sold TEXT, total TEXT)")

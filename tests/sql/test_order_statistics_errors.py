@@ -5,7 +5,7 @@ Every message has one shape (the common brief, ext/sqlite/arguments.h):
     fn(): argument N (name) = <value>: <what was expected>
 Each case names the function, the argument by position and name, and the
 value as SQLite hands it over; the full text was read, judged clear, and
-pinned. DESIGN.md ("Statistics") is the source of what is an error: TEXT that
+pinned. README ("Statistics: aggregates that are also sliding windows") is the source of what is an error: TEXT that
 SQLite does not read as a number, BLOBs and infinities; p outside [0, 1] or
 changing within a group.
 """
@@ -34,7 +34,7 @@ def same_p(first):
 CASES = [
     ("SELECT percentile_cont(NULL, 2)", "percentile_cont", 2, "p", "2", P_RANGE),
     ("SELECT median('abc')", "median", 1, "x", "'abc'", NOT_A_NUMBER),
-    ("SELECT median('1,234.50')", "median", 1, "x", "'1,234.50'", NOT_A_NUMBER),  # DESIGN.md's own example
+    ("SELECT median('1,234.50')", "median", 1, "x", "'1,234.50'", NOT_A_NUMBER),  # the README's own example
     ("SELECT median(X'00FF')", "median", 1, "x", "a BLOB of 2 bytes", BLOB),
     ("SELECT median(1e999)", "median", 1, "x", "inf", NOT_FINITE),
     ("SELECT median(-1e999)", "median", 1, "x", "-inf", NOT_FINITE),
@@ -71,7 +71,7 @@ def test_bad_argument(sql, function, position, name, value, expected):
     connection = connect()
     with pytest.raises(sqlite3.OperationalError) as error:
         connection.execute(sql).fetchall()
-    # oracle: the message shape of the common brief, with DESIGN.md's rule.
+    # oracle: the message shape of the common brief, with the README's rule.
     assert str(error.value) == prefix(function, position, name, value) + expected
     connection.close()
 
@@ -98,19 +98,19 @@ def test_nulls_are_skipped_not_errors(db):
     assert db.execute("SELECT median(NULL), percentile_cont(NULL, 0.5), percentile_cont(1, NULL),"
                       " theil_sen_slope(NULL, 1), theil_sen_slope(1, NULL)").fetchone() == (
         None, None, None, None, None)
-    # Fewer than two distinct x: no slope (DESIGN.md).
+    # Fewer than two distinct x: no slope (README).
     assert db.execute("WITH t(y, x) AS (VALUES (1, 5), (2, 5)) SELECT theil_sen_slope(y, x) FROM t").fetchone() == (None,)
 
 
 def test_the_same_p_may_repeat_in_other_forms(db):
-    # 0.5, '0.5' and 5e-1 are one number (DESIGN.md: numeric TEXT is a number).
+    # 0.5, '0.5' and 5e-1 are one number (README: numeric TEXT is a number).
     assert db.execute("WITH t(x, p) AS (VALUES (1, 0.5), (2, '0.5'), (4, 5e-1))"
                       " SELECT percentile_cont(x, p) FROM t"
                       ).fetchone() == (2.0,)  # median of 1, 2, 4 (by hand)
 
 
 def test_p_may_differ_between_groups_and_partitions(db):
-    # "the same for the whole group" (DESIGN.md): each GROUP BY group and each
+    # "the same for the whole group" (README): each GROUP BY group and each
     # window partition has its own p.
     rows = "WITH t(g, x) AS (VALUES ('a', 1), ('a', 2), ('a', 3), ('b', 10), ('b', 20))"
     assert db.execute(rows + " SELECT g, percentile_cont(x, CASE g WHEN 'a' THEN 0 ELSE 1 END)"

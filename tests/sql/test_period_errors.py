@@ -4,7 +4,7 @@
 Every message has one shape (the common brief, ext/sqlite/arguments.h):
     fn(): argument N (name) = <value>: <what was expected>
 so each case first states the facts its message must contain — the function,
-the argument by position and name, the value as written, and the words DESIGN.md
+the argument by position and name, the value as written, and the words the README
 asks for (a Unix time in milliseconds "says so"; an unknown unit says what was
 expected) — and then the exact text, pinned once read and judged good.
 """

@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """period_floor(ts, 'week') in an index on an expression and in a generated column.
 
-DESIGN.md: the scalar functions are registered deterministic in their forms
+README: the scalar functions are registered deterministic in their forms
 without a zone, so they can be used in indexes on expressions and generated
 columns; the zoned forms are not (a tz database update could change them).
 Checked with EXPLAIN QUERY PLAN through Python's sqlite3 module and through

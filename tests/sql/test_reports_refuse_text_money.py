@@ -15,7 +15,7 @@ import pytest
 from conftest import MODULE, SOURCE
 
 REPORTS = sorted((SOURCE / "sql").glob("*.sql"))
-# The exact text of exact_sum's refusal (ext/sqlite/export_functions.cpp, DESIGN.md
+# The exact text of exact_sum's refusal (ext/sqlite/export_functions.cpp, the README
 # "Reading shop exports": "'1,050.00' stops a report instead of counting as 1").
 REFUSAL = ("exact_sum(): argument 1 (x) = '1,050.00': expected a number; money or quantities "
            "written as text must be read with to_amount() in the view that maps your table "

@@ -4,7 +4,7 @@ and mad: a clear error, never a crash; NULL follows SQL conventions.
 
 Every message has one shape (ext/sqlite/arguments.h):
     fn(): argument N (name) = <value>: <what was expected>
-DESIGN.md ("Seasons, robust trends and anomalies") is the source of what is
+README ("Seasons and anomalies") is the source of what is
 an error: pairs that do not nest, TEXT that SQLite does not read as a
 number, BLOBs and infinities. The full texts were read, judged clear, and
 pinned here.
@@ -28,7 +28,7 @@ def refused(spec, cycle, spec_words, cycle_words):
             f"in '{cycle_words}' cycles; " + NEST)
 
 
-# Every kind of refused pair (DESIGN.md: a week within a month, a month within
+# Every kind of refused pair (README: a week within a month, a month within
 # a week, a cycle not longer than the spec; and the grid and count rules the
 # README states).
 REFUSED = [
@@ -129,7 +129,7 @@ def test_null_and_empty_input_give_null(db, sql):
 
 
 def test_rows_with_a_null_season_are_skipped(db):
-    # DESIGN.md: "rows with a NULL season are skipped"; by hand, season 1 alone has slope 2.
+    # README: "rows with a NULL season are skipped"; by hand, season 1 alone has slope 2.
     got = db.execute("WITH t(y, x, s) AS (VALUES (1, 1, 1), (3, 2, 1), (100, 3, NULL)) "
                      "SELECT theil_sen_slope(y, x, s) FROM t").fetchone()[0]
     assert got == 2.0

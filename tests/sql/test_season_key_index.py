@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """period_position as a season key in an index and a generated column.
 
-DESIGN.md: period_position is deterministic without a zone, as the period
+README: period_position is deterministic without a zone, as the period
 functions, so a table can keep its season key in a generated column or index
 it; the zoned form is not (a tz database update could change it) and SQLite
 refuses it there.

@@ -5,7 +5,7 @@ Every message has one shape (the common brief, ext/sqlite/arguments.h):
     fn(): argument N (name) = <value>: <what was expected>
 Each case states the function, the argument by position and name, and the
 value as SQLite hands it over; the full text was read, judged clear, and
-pinned. DESIGN.md ("Statistics") is the source of what is an error: TEXT that
+pinned. README ("Statistics: aggregates that are also sliding windows") is the source of what is an error: TEXT that
 SQLite does not read as a number, BLOBs and infinities; months and years as
 a half-life; a half_life or min_values that changes within a group.
 """
@@ -32,7 +32,7 @@ NO_FIXED_LENGTH = "has no fixed length; expected seconds, minutes, hours, days o
 # (SQL expression, function, position, name, value as shown, what was expected)
 CASES = [
     ("var_samp('abc')", "var_samp", 1, "x", "'abc'", NOT_A_NUMBER),
-    ("var_samp('1,234.50')", "var_samp", 1, "x", "'1,234.50'", NOT_A_NUMBER),  # DESIGN.md's own example
+    ("var_samp('1,234.50')", "var_samp", 1, "x", "'1,234.50'", NOT_A_NUMBER),  # the README's own example
     ("var_samp('12 apples')", "var_samp", 1, "x", "'12 apples'", NOT_A_NUMBER),
     ("var_pop(X'00')", "var_pop", 1, "x", "a BLOB of 1 byte", BLOB),
     ("stddev_samp(1e999)", "stddev_samp", 1, "x", "inf", NOT_FINITE),
@@ -75,7 +75,7 @@ CASES = [
     ("ewma(1, 1, 1e999)", "ewma", 3, "half_life", "inf", NOT_FINITE),
     ("ewma(1, 1, X'01')", "ewma", 3, "half_life", "a BLOB of 1 byte",
      "expected a period such as '7 days' or a positive number, not a BLOB"),
-    # DESIGN.md: months and years are refused as a half-life.
+    # README: months and years are refused as a half-life.
     ("ewma(1, '2024-01-01', '1 month')", "ewma", 3, "half_life", "'1 month'",
      "'month' " + NO_FIXED_LENGTH),
     ("ewma(1, '2024-01-01', 'P1Y')", "ewma", 3, "half_life", "'P1Y'", "'year' " + NO_FIXED_LENGTH),
@@ -135,7 +135,7 @@ def test_wrong_argument_count_is_sqlites_own_error(db):
 
 NULL_CASES = [
     # SQL conventions (ISO/IEC 9075 aggregates): NULL rows are skipped, empty groups give NULL,
-    # REGR_COUNT gives 0; DESIGN.md: n < 2 for sample statistics, n < 3 for resid_sd.
+    # REGR_COUNT gives 0; README: n < 2 for sample statistics, n < 3 for resid_sd.
     ("SELECT var_samp(NULL)", None),
     ("SELECT var_samp(5)", None),
     ("SELECT var_pop(5)", 0.0),

@@ -4,7 +4,7 @@
 Expected values are the amounts the text means by the convention named beside
 it (common practice for grouping and decimal marks by country; accounting
 parentheses for negatives). Errors are the exact texts; the rule behind each
-is DESIGN.md's "anything ambiguous is an error, never a guess".
+is the README's "anything ambiguous is an error, never a guess".
 """
 import sqlite3
 
@@ -78,7 +78,7 @@ CASES = [
     ("\u20b91,05,000", None, 105000.0, "Indian English, rupee sign"),
     ("Rs. 1,050.00", None, 1050.0, "Indian English, Rs."),
     ("INR 99,999.00", None, 99999.0, "Indian English, ISO code"),
-    # NULL rules (SQL conventions; DESIGN.md: the empty string gives NULL)
+    # NULL rules (SQL conventions; README: the empty string gives NULL)
     ("", None, None, "empty"),
     ("   ", None, None, "all spaces"),
     # errors: ambiguous or malformed
@@ -113,7 +113,7 @@ def test_to_amount_case(text, mark, expected, convention):
     if isinstance(expected, str):
         with pytest.raises(sqlite3.OperationalError) as error:
             db.execute(sql, args).fetchone()
-        assert str(error.value) == expected  # the exact text, pinned (DESIGN.md: ambiguous is an error)
+        assert str(error.value) == expected  # the exact text, pinned (README: ambiguous is an error)
     else:
         got = db.execute(sql, args).fetchone()[0]
         # common practice: the amount the convention named beside the case writes
@@ -127,7 +127,7 @@ def test_the_table_has_at_least_sixty_cases():
 
 def test_numbers_pass_through_unchanged():
     db = connect()
-    # DESIGN.md: INTEGER and REAL pass through
+    # README: INTEGER and REAL pass through
     assert db.execute("SELECT to_amount(12), typeof(to_amount(12))").fetchone() == (12, "integer")
     assert db.execute("SELECT to_amount(12.5), typeof(to_amount(12.5))").fetchone() == (12.5, "real")
     assert db.execute("SELECT to_amount(NULL), to_amount('1,0', NULL)").fetchone() == (None, None)

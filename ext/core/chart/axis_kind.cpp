@@ -26,25 +26,25 @@ bool looks_like_a_date(std::string_view text) {
            digit(5) && digit(6) && text.size() > 7 && text[7] == '-';
 }
 
-const char* describe_x_kind(XKind kind) {
+const char* describe_axis_kind(AxisKind kind) {
     switch (kind) {
-        case XKind::Number:
+        case AxisKind::Number:
             return "a number";
-        case XKind::Time:
+        case AxisKind::Time:
             return "a time value";
-        case XKind::Category:
+        case AxisKind::Category:
             break;
     }
     return "a category (TEXT that is neither a number nor a time value)";
 }
 
-void XKindGuard::accept(XKind kind) {
+void AxisKindGuard::accept(AxisKind kind) {
     if (!kind_) {
         kind_ = kind;
         return;
     }
     if (*kind_ != kind)
-        throw Error(std::string("expected ") + describe_x_kind(*kind_) +
+        throw Error(std::string("expected ") + describe_axis_kind(*kind_) +
                     " like the earlier x values of this group; one axis cannot mix numbers, "
                     "time values and categories");
 }

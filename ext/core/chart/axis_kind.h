@@ -13,11 +13,11 @@
 
 namespace almanac {
 
-enum class XKind { Number, Time, Category };
+enum class AxisKind { Number, Time, Category };
 
 // A time value on the x axis: milliseconds since 1970-01-01 UTC, as a double
 // (exact: every supported instant is below 2^53 ms). A calendar day counts
-// from its UTC midnight, as DESIGN.md reads a bare date without a zone.
+// from its UTC midnight, as a bare date without a zone reads (README "Time values").
 double time_axis_value(const TimeValue& value);
 // The same on a zone's wall clock: an instant is placed at its local reading
 // (as if that reading were UTC), a calendar day at its midnight, so that a
@@ -29,18 +29,18 @@ Instant instant_from_axis_value(double value);
 // it when it does not read as one rather than taking it for a category.
 bool looks_like_a_date(std::string_view text);
 
-const char* describe_x_kind(XKind kind);  // "a number", "a time value", "a category"
+const char* describe_axis_kind(AxisKind kind);  // "a number", "a time value", "a category"
 
 // Remembers the kind of the first x value and refuses the other kind later:
 // a chart cannot put numbers and dates on one axis.
-class XKindGuard {
+class AxisKindGuard {
   public:
     // Throws almanac::Error saying what was expected.
-    void accept(XKind kind);
-    std::optional<XKind> kind() const { return kind_; }
+    void accept(AxisKind kind);
+    std::optional<AxisKind> kind() const { return kind_; }
 
   private:
-    std::optional<XKind> kind_;
+    std::optional<AxisKind> kind_;
 };
 
 }  // namespace almanac

@@ -43,7 +43,7 @@ void BarChart::add_category(std::string_view category, std::optional<double> y,
 }
 
 std::string BarChart::render_svg(const ChartOptions& options) const {
-    const XKind kind = x_kind_.kind().value_or(XKind::Number);
+    const AxisKind kind = x_kind_.kind().value_or(AxisKind::Number);
     const SeriesRanking ranking = rank_series(series_ids_, options.series_order);
 
     // The slot of each distinct x: where its group of bars may go.
@@ -51,17 +51,18 @@ std::string BarChart::render_svg(const ChartOptions& options) const {
     for (const Bar& bar : bars_) xs.push_back(bar.x);
     std::sort(xs.begin(), xs.end());
     xs.erase(std::unique(xs.begin(), xs.end()), xs.end());
-    double step = kind == XKind::Time ? kDay : 1.0;
+    double step = kind == AxisKind::Time ? kDay : 1.0;
     if (xs.size() > 1) {
         step = xs[1] - xs[0];
         for (std::size_t i = 2; i < xs.size(); ++i) step = std::min(step, xs[i] - xs[i - 1]);
     }
     std::optional<PeriodCalendar> periods;
     // x is already on the zone's wall clock, so the periods are taken in UTC.
-    if (kind == XKind::Time && options.period) periods.emplace(*options.period, ZoneClock::utc());
+    if (kind == AxisKind::Time && options.period)
+        periods.emplace(*options.period, ZoneClock::utc());
     auto slot_of = [&](double x) -> std::pair<double, double> {
-        if (kind == XKind::Category) return {x - 0.5, x + 0.5};
-        if (kind == XKind::Number) return {x - step / 2, x + step / 2};
+        if (kind == AxisKind::Category) return {x - 0.5, x + 0.5};
+        if (kind == AxisKind::Number) return {x - step / 2, x + step / 2};
         if (periods) {
             // A period start is the usual x; any instant inside the period will do.
             Period period = periods->period_of(instant_from_axis_value(x));
@@ -73,7 +74,7 @@ std::string BarChart::render_svg(const ChartOptions& options) const {
 
     ChartExtent extent;
     extent.kind = kind;
-    if (kind == XKind::Category) extent.categories = categories_;
+    if (kind == AxisKind::Category) extent.categories = categories_;
     bool any = false;
     for (double x : xs) {
         auto [low, high] = slot_of(x);

@@ -27,7 +27,7 @@ class BarChart {
     explicit BarChart(ChartLimits limits = {}) : limits_(limits) {}
 
     // Throws almanac::Error when the kind differs from the first x's.
-    void accept_x_kind(XKind kind) { x_kind_.accept(kind); }
+    void accept_x_kind(AxisKind kind) { x_kind_.accept(kind); }
 
     // One row with a numeric or time x. Throws almanac::Error past a limit.
     void add(double x, std::optional<double> y, std::string_view series);
@@ -49,7 +49,7 @@ class BarChart {
     std::uint32_t series_id(std::string_view series);
 
     ChartLimits limits_;
-    XKindGuard x_kind_;
+    AxisKindGuard x_kind_;
     std::map<std::string, std::uint32_t, std::less<>> series_ids_;
     std::map<std::string, std::size_t, std::less<>> category_index_;
     std::vector<std::string> categories_;  // in order of first appearance

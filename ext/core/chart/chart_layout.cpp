@@ -85,7 +85,7 @@ ChartLayout lay_out_chart(const ChartOptions& options, const std::vector<std::st
 
     if (!extent.categories.empty()) {
         layout.x_scale = category_scale(extent.categories, layout.plot_w);
-    } else if (extent.kind == XKind::Time) {
+    } else if (extent.kind == AxisKind::Time) {
         layout.x_scale = calendar_scale(instant_from_axis_value(extent.x_min),
                                         instant_from_axis_value(extent.x_max),
                                         std::max(2, int(layout.plot_w / 64)), extent.whole_days);

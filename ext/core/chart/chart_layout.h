@@ -35,7 +35,7 @@ double text_width(std::string_view text);
 // What the data spans. A category axis has one tick per category, at
 // x = 0, 1, 2, ... with the category's name as its label.
 struct ChartExtent {
-    XKind kind = XKind::Number;
+    AxisKind kind = AxisKind::Number;
     double x_min = 0, x_max = 0;
     double y_min = 0, y_max = 1;
     bool whole_days = false;              // every time x is a midnight (dates)

@@ -70,7 +70,7 @@ std::vector<Line> collect_lines(const std::vector<Point>& points,
 
 // The ranges of x and y (y 0 to 1 when no row has one), and whether every x
 // is a midnight, which lets a time axis label dates only.
-ChartExtent measure(const std::vector<Point>& points, XKind kind) {
+ChartExtent measure(const std::vector<Point>& points, AxisKind kind) {
     ChartExtent extent;
     extent.kind = kind;
     bool any_x = false, any_y = false;
@@ -161,7 +161,7 @@ std::string LineChart::render_svg(const ChartOptions& options) const {
     // series_order, then byte order of the name.
     const SeriesRanking ranking = rank_series(series_ids_, options.series_order);
     const ChartLayout layout = lay_out_chart(
-        options, ranking.names, measure(points_, x_kind_.kind().value_or(XKind::Number)));
+        options, ranking.names, measure(points_, x_kind_.kind().value_or(AxisKind::Number)));
     std::optional<PeriodCalendar> periods;
     if (options.period) periods.emplace(*options.period, ZoneClock::utc());
 

@@ -38,7 +38,7 @@ class LineChart {
 
     // The x kind of the chart: the first value decides, the other kind is
     // refused (throws almanac::Error saying what was expected).
-    void accept_x_kind(XKind kind) { x_kind_.accept(kind); }
+    void accept_x_kind(AxisKind kind) { x_kind_.accept(kind); }
 
     // One row. Throws almanac::Error past a limit.
     void add(double x, std::optional<double> y, std::string_view series, ChartLayer layer);
@@ -62,7 +62,7 @@ class LineChart {
 
   private:
     ChartLimits limits_;
-    XKindGuard x_kind_;
+    AxisKindGuard x_kind_;
     std::map<std::string, std::uint32_t, std::less<>> series_ids_;
     std::vector<Point> points_;
 };

@@ -52,7 +52,7 @@ class PeriodCalendar {
     // The same, for a calendar day: the result is a calendar day.
     date::local_days shift_day(date::local_days day, std::int64_t n) const;
 
-    // The period's label for reports (see DESIGN.md "Labels"). Months, quarters
+    // The period's label for reports (README section "Labels"). Months, quarters
     // and years counted `from` a date show their days: 2026-02-15..03-14.
     std::string label(const Period& period) const;
 

@@ -20,7 +20,7 @@ std::size_t count(const std::string& text, const std::string& needle) {
 
 TEST_CASE("a bar chart draws one bar per row with a value and none for a missing one") {
     BarChart chart;
-    chart.accept_x_kind(XKind::Number);
+    chart.accept_x_kind(AxisKind::Number);
     chart.add(1, 5.0, "a");
     chart.add(2, std::nullopt, "a");
     chart.add(1, -2.0, "b");
@@ -32,7 +32,7 @@ TEST_CASE("a bar chart draws one bar per row with a value and none for a missing
 
 TEST_CASE("categories keep the order in which they first appear") {
     BarChart chart;
-    chart.accept_x_kind(XKind::Category);
+    chart.accept_x_kind(AxisKind::Category);
     chart.add_category("Tue", 1.0, "a");
     chart.add_category("Mon", 2.0, "a");
     chart.add_category("Tue", 3.0, "b");
@@ -55,7 +55,7 @@ TEST_CASE("series_order gives listed names their slot, the rest follow sorted") 
 
 TEST_CASE("a bar chart refuses a 65th series") {
     BarChart chart;
-    chart.accept_x_kind(XKind::Number);
+    chart.accept_x_kind(AxisKind::Number);
     for (int k = 0; k < 64; ++k) chart.add(1, 1.0, "s" + std::to_string(k));
     CHECK_THROWS_AS(chart.add(1, 1.0, "one more"), Error);
 }

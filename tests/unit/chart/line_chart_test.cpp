@@ -56,9 +56,9 @@ TEST_CASE("a chart refuses a 65th series and the 200,001st row") {
 
 TEST_CASE("x kinds cannot mix in one chart") {
     LineChart chart;
-    chart.accept_x_kind(XKind::Time);
-    CHECK_NOTHROW(chart.accept_x_kind(XKind::Time));
-    CHECK_THROWS_WITH(chart.accept_x_kind(XKind::Number),
+    chart.accept_x_kind(AxisKind::Time);
+    CHECK_NOTHROW(chart.accept_x_kind(AxisKind::Time));
+    CHECK_THROWS_WITH(chart.accept_x_kind(AxisKind::Number),
                       "expected a time value like the earlier x values of this group; one axis "
                       "cannot mix numbers, time values and categories");
 }

@@ -14,7 +14,7 @@ std::string block(int level) { return std::string("\xE2\x96") + char(0x81 + leve
 }  // namespace
 
 TEST_CASE("levels follow round(7 (y - min) / (max - min)) with halves rounded up") {
-    // DESIGN.md "Reports" gives the formula; the rows are hand computed.
+    // README "Reports: sparklines and line charts" gives the formula; the rows are hand computed.
     CHECK(sparkline_level(0, 0, 7) == 0);
     CHECK(sparkline_level(7, 0, 7) == 7);
     CHECK(sparkline_level(3.5, 0, 7) == 4);  // 3.5 rounds up
@@ -29,7 +29,7 @@ TEST_CASE("levels follow round(7 (y - min) / (max - min)) with halves rounded up
 }
 
 TEST_CASE("a constant series is all middle blocks") {
-    CHECK(sparkline_level(5, 5, 5) == 3);  // DESIGN.md: all U+2584
+    CHECK(sparkline_level(5, 5, 5) == 3);  // README: all U+2584
     Sparkline line;
     for (int i = 0; i < 4; ++i) line.add(i, 2.5);
     CHECK(line.render() == block(3) + block(3) + block(3) + block(3));

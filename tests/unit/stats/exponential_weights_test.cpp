@@ -9,7 +9,7 @@
 using namespace almanac;
 
 TEST_CASE("one half-life back weighs one half") {
-    // DESIGN.md definition: weights 0.5^((t_max - t)/h). Rows 1 at t=0, 3 at t=2, h=2:
+    // the README definition: weights 0.5^((t_max - t)/h). Rows 1 at t=0, 3 at t=2, h=2:
     // (0.5*1 + 1*3) / 1.5 = 7/3.
     ExponentialWeights w;
     w.add(1.0, ExponentialWeights::position(0.0, 2.0));

@@ -19,7 +19,7 @@ TEST_CASE("money as exports write it reads as its amount") {
 TEST_CASE("an empty text is no amount") { CHECK_FALSE(read_amount("  ", '.')); }
 
 TEST_CASE("a text that could be read two ways is refused") {
-    // DESIGN.md: '12.3.4', '1,05.00', two signs are errors.
+    // README: '12.3.4', '1,05.00', two signs are errors.
     CHECK_THROWS_AS(read_amount("12.3.4", '.'), Error);
     CHECK_THROWS_AS(read_amount("1,05.00", '.'), Error);
     CHECK_THROWS_AS(read_amount("-(5)", '.'), Error);

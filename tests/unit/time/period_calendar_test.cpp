@@ -49,7 +49,7 @@ TEST_CASE("ISO 8601 week labels use the ISO week-numbering year") {
 }
 
 TEST_CASE("multiples count from the period holding 1970-01-01") {
-    // DESIGN.md: 3 months == quarter, 6 months are Jan/Jul halves.
+    // README: 3 months == quarter, 6 months are Jan/Jul halves.
     CHECK(floor_text(utc("3 months"), "2026-05-20") == floor_text(utc("quarter"), "2026-05-20"));
     CHECK(floor_text(utc("6 months"), "2026-09-20") == "2026-07-01");
     CHECK(floor_text(utc("6 months"), "1969-09-20") == "1969-07-01");

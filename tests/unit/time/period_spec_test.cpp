@@ -24,7 +24,7 @@ void check_spec(const SpecRow& row) {
 }  // namespace
 
 TEST_CASE("spec words name units, with plurals, counts and free spacing") {
-    // Expected values: DESIGN.md's spec grammar (the contract).
+    // Expected values: the README's spec grammar (the contract).
     auto row = GENERATE(values<SpecRow>({
         {"day", PeriodUnit::Day, 1},
         {"DAYS", PeriodUnit::Day, 1},

@@ -35,7 +35,7 @@ TEST_CASE("numbers follow SQLite's auto rule") {
     CHECK(parse_time_real(5373484.5).representation == Representation::UnixSeconds);
     CHECK(parse_time_integer(-1).representation == Representation::UnixSeconds);
     CHECK(parse_time_integer(-1).integer_input);
-    // -1 Unix seconds is 1969-12-31 23:59:59 (DESIGN.md).
+    // -1 Unix seconds is 1969-12-31 23:59:59 (README).
     CHECK(format_date_time(LocalTime{parse_time_integer(-1).instant().time_since_epoch()},
                            TextForm::Precision::Seconds, false) == "1969-12-31 23:59:59");
 }
