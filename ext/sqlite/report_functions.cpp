@@ -37,6 +37,7 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <type_traits>
 
 #include "aggregate_state.h"
 #include "arguments.h"
@@ -93,10 +94,15 @@ std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
     }
 }
 
-void accept_x_kind(AxisKindGuard& guard, const ArgumentRef& arg, sqlite3_value* value,
-                   AxisKind kind) {
+// The kind of this row's x against the group's first (a sparkline's guard or
+// a chart): the other kind is an error about x.
+template <typename Taker>
+void accept_x_kind(Taker& taker, const ArgumentRef& arg, sqlite3_value* value, AxisKind kind) {
     try {
-        guard.accept(kind);
+        if constexpr (std::is_same_v<Taker, AxisKindGuard>)
+            taker.accept(kind);
+        else
+            taker.accept_x_kind(kind);
     } catch (const Error& error) {
         raise_argument_error(arg, value, error.what());
     }
@@ -208,11 +214,7 @@ void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
             }
         }
         if (!x || !series) return;
-        try {
-            state.chart.accept_x_kind(x->kind);
-        } catch (const Error& error) {
-            raise_argument_error(x_arg, argv[0], error.what());
-        }
+        accept_x_kind(state.chart, x_arg, argv[0], x->kind);
         try {
             state.chart.add(x->value, y, *series, layer);
         } catch (const Error& error) {
@@ -255,11 +257,7 @@ void bar_chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
         auto y = read_number({kBarChart, 2, "y"}, argv[1]);
         auto series = read_series({kBarChart, 3, "series"}, argv[2]);
         if (!x || !series) return;
-        try {
-            state.chart.accept_x_kind(x->kind);
-        } catch (const Error& error) {
-            raise_argument_error(x_arg, argv[0], error.what());
-        }
+        accept_x_kind(state.chart, x_arg, argv[0], x->kind);
         try {
             if (x->kind == AxisKind::Category) {
                 auto category = read_text(x_arg, argv[0]);
