@@ -23,15 +23,6 @@ constexpr std::array<std::string_view, 12> kMonths = {
 constexpr std::array<std::string_view, 7> kWeekdays = {
     "monday", "tuesday", "wednesday", "thursday", "friday", "saturday", "sunday"};
 
-char ascii_lower(char c) { return c >= 'A' && c <= 'Z' ? char(c - 'A' + 'a') : c; }
-bool is_space(char c) { return c == ' ' || c == '\t'; }
-
-std::string_view trim_spaces(std::string_view text) {
-    while (!text.empty() && is_space(text.front())) text.remove_prefix(1);
-    while (!text.empty() && is_space(text.back())) text.remove_suffix(1);
-    return text;
-}
-
 std::string two_digits(unsigned v) {
     return std::string{char('0' + v / 10 % 10), char('0' + v % 10)};
 }
@@ -96,7 +87,7 @@ int read_name(std::string_view text, std::size_t& pos, const std::string_view* n
     auto matches = [&](std::string_view name, std::size_t length) {
         if (pos + length > text.size()) return false;
         for (std::size_t i = 0; i < length; ++i)
-            if (ascii_lower(text[pos + i]) != name[i]) return false;
+            if (to_ascii_lower(text[pos + i]) != name[i]) return false;
         return true;
     };
     for (std::size_t i = 0; i < count; ++i) {
@@ -118,11 +109,9 @@ int read_name(std::string_view text, std::size_t& pos, const std::string_view* n
 
 TimeFormat TimeFormat::parse(std::string_view format) {
     TimeFormat result;
-    std::string_view trimmed = trim_spaces(format);
+    std::string_view trimmed = trim_ascii_space(format);
     if (trimmed.size() == 5) {
-        std::string lower;
-        for (char c : trimmed) lower += ascii_lower(c);
-        if (lower == "excel") {
+        if (ascii_lowercase(trimmed) == "excel") {
             result.spreadsheet_ = true;
             result.has_time_ = true;
             result.has_fraction_ = true;
@@ -135,9 +124,9 @@ TimeFormat TimeFormat::parse(std::string_view format) {
     bool seen[128] = {};
     for (std::size_t i = 0; i < format.size(); ++i) {
         char c = format[i];
-        if (is_space(c)) {
+        if (is_ascii_space(c)) {
             // A run of spaces in the format matches one or more spaces.
-            while (i + 1 < format.size() && is_space(format[i + 1])) ++i;
+            while (i + 1 < format.size() && is_ascii_space(format[i + 1])) ++i;
             result.steps_.push_back({Field::Space, ' ', 0});
             continue;
         }
@@ -234,7 +223,7 @@ TimeFormat TimeFormat::parse(std::string_view format) {
 }
 
 TimeReading TimeFormat::read(std::string_view raw) const {
-    std::string_view text = trim_spaces(raw);
+    std::string_view text = trim_ascii_space(raw);
     std::size_t pos = 0;
     int year = -1;
     int month = 0, day = 0, day_of_year = 0, weekday = 0;
@@ -265,8 +254,9 @@ TimeReading TimeFormat::read(std::string_view raw) const {
                 ++pos;
                 break;
             case Field::Space:
-                if (pos >= text.size() || !is_space(text[pos])) mismatch(text, pos, "a space");
-                while (pos < text.size() && is_space(text[pos])) ++pos;
+                if (pos >= text.size() || !is_ascii_space(text[pos]))
+                    mismatch(text, pos, "a space");
+                while (pos < text.size() && is_ascii_space(text[pos])) ++pos;
                 break;
             case Field::Year:
                 year = number(step, 4, 0, 9999, true);
@@ -311,8 +301,8 @@ TimeReading TimeFormat::read(std::string_view raw) const {
                 break;
             }
             case Field::AmPm: {
-                char a = pos < text.size() ? ascii_lower(text[pos]) : 0;
-                char m = pos + 1 < text.size() ? ascii_lower(text[pos + 1]) : 0;
+                char a = pos < text.size() ? to_ascii_lower(text[pos]) : 0;
+                char m = pos + 1 < text.size() ? to_ascii_lower(text[pos + 1]) : 0;
                 if ((a != 'a' && a != 'p') || m != 'm') mismatch(text, pos, expected_for('p'));
                 pm = a == 'p';
                 pos += 2;
