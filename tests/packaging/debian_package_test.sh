@@ -78,7 +78,10 @@ consumer="$source_dir/tests/packaging/consumer"
 # shellcheck disable=SC2046 # word splitting of pkg-config's flags is wanted
 gcc -std=c99 -Wall -Wextra -o "$work/c_shared" "$consumer/main.c" $(pc --cflags --libs almanac)
 shared_out=$(LD_LIBRARY_PATH="$libdir" "$work/c_shared")
-LD_LIBRARY_PATH="$libdir" ldd "$work/c_shared" | grep -q "libalmanac.so.0 => $libdir/" ||
+# ldd's output is read whole before grep looks at it: with pipefail, `ldd | grep -q`
+# fails at random when grep stops reading and ldd dies of SIGPIPE.
+shared_ldd=$(LD_LIBRARY_PATH="$libdir" ldd "$work/c_shared")
+grep -q "libalmanac.so.0 => $libdir/" <<< "$shared_ldd" ||
   fail "the C program did not use the extracted libalmanac.so.0"
 [ "$shared_out" = "$expected" ] || fail "C program (shared) printed '$shared_out'"
 echo "shared: $shared_out"
@@ -87,7 +90,8 @@ static_libs=$(pc --static --libs almanac | sed 's/-lalmanac\b//')
 # shellcheck disable=SC2086
 gcc -std=c99 -Wall -Wextra -o "$work/c_static" "$consumer/main.c" $(pc --cflags almanac) \
     "$libdir/libalmanac.a" $static_libs
-ldd "$work/c_static" | grep -q libalmanac && fail "the static C program still needs libalmanac.so"
+static_ldd=$(ldd "$work/c_static")
+grep -q libalmanac <<< "$static_ldd" && fail "the static C program still needs libalmanac.so"
 static_out=$("$work/c_static")
 [ "$static_out" = "$expected" ] || fail "C program (static) printed '$static_out'"
 echo "static: $static_out"
@@ -103,6 +107,7 @@ for program in consumer_shared consumer_static; do
   [ "$out" = "$expected" ] || fail "$program printed '$out'"
   echo "$program: $out"
 done
-LD_LIBRARY_PATH="$libdir" ldd "$work/consumer/consumer_shared" | grep -q "libalmanac.so.0 => $libdir/" ||
+consumer_ldd=$(LD_LIBRARY_PATH="$libdir" ldd "$work/consumer/consumer_shared")
+grep -q "libalmanac.so.0 => $libdir/" <<< "$consumer_ldd" ||
   fail "consumer_shared did not use the extracted libalmanac.so.0"
 echo "the packages install, load, link and pass lintian"
