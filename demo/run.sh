@@ -77,17 +77,41 @@ report() {
     column) args+=(-cmd ".mode column" -cmd ".headers on") ;;
     html) args+=(-cmd ".mode html" -cmd ".headers on") ;;
     list) args+=(-cmd ".mode list" -cmd ".headers off") ;;
+    insert) args+=(-cmd ".mode insert compared" -cmd ".headers off") ;;
   esac
   sqlite3 "${args[@]}" "$db" < "$file"
 }
 
-# html_table TITLE NOTE FILE [name value ...]
+# html_table TITLE NOTE FILE [name value ...]: a report as a table that
+# scrolls sideways inside its own box on a narrow screen, never the page.
 html_table() {
   local title=$1 note=$2 file=$3
   shift 3
-  printf '<h2>%s</h2>\n<p>%s</p>\n<table>\n' "$title" "$note"
+  printf '<h2>%s</h2>\n<p class="note">%s</p>\n<div class="wide"><table>\n' "$title" "$note"
   report "$file" html "$@"
-  printf '</table>\n'
+  printf '</table></div>\n'
+}
+
+# summary_table UNIT NOUN: the latest period of UNIT against the one before and
+# a year earlier, per shop (sql/compare.sql through demo/summary_table.sql).
+summary_table() {
+  local unit=$1 noun=$2
+  {
+    printf 'CREATE TEMP TABLE compared(segment, item, period, days_in_period, days_covered, complete, span,'
+    printf ' trading_days, amount, per_trading_day, against, base_period, base_span, base_trading_days,'
+    printf ' base_amount, base_per_trading_day, change_pct, change_per_day_pct);\n'
+    report sql/compare.sql insert unit "$unit" by_segment "$by_segment"
+    printf "SELECT '<div class=\"wide\"><table class=\"summary\"><caption>%s ' || p.period || ' <span class=\"span\">' || p.span || '</span>'" "$noun"
+    printf " || CASE WHEN p.complete THEN '' ELSE ' <span class=\"partial\">partial: ' || p.days_covered || ' of ' || p.days_in_period || ' days</span>' END"
+    printf " || '</caption><thead><tr><th rowspan=\"2\">Shop</th><th rowspan=\"2\">Amount</th><th rowspan=\"2\">Trading days</th>"
+    printf "<th colspan=\"2\">against ' || coalesce(p.base_period || '<br><span class=\"span\">' || p.base_span || '</span>', 'no base') || '</th>"
+    printf "<th colspan=\"2\">against ' || coalesce(y.base_period || '<br><span class=\"span\">' || y.base_span || '</span>', 'no base') || '</th></tr>"
+    printf "<tr><th>change</th><th>per trading day</th><th>change</th><th>per trading day</th></tr></thead><tbody>'"
+    printf " FROM temp.compared AS p JOIN temp.compared AS y ON y.segment = p.segment AND y.against = 'year'"
+    printf " WHERE p.segment = 'all segments' AND p.against = 'previous';\n"
+    cat demo/summary_table.sql
+    printf "SELECT '</tbody></table></div>';\n"
+  } | sqlite3 -batch -bail -init /dev/null -cmd ".mode list" :memory:
 }
 
 # An SVG document goes inline into HTML without its XML declaration.
@@ -122,13 +146,21 @@ report sql/anomalies.sql column start "'$recent_start'"
 printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6 { n[$6]++ } END {
   printf "Over the whole range: %d spike, %d drop, %d closed (item-days)\n", n["spike"], n["drop"], n["closed"] }'
 
-# Charts: the top three items together, then one chart for each of the twelve largest.
+# A table with a segment column (the demo's shops) is broken down by it.
+by_segment=$(sqlite3 -batch -init /dev/null "$db" \
+  "SELECT count(*) FROM pragma_table_xinfo('sales') WHERE name = 'segment'")
+
+# Charts: weekly totals per shop as bars, the top three items together (the
+# last 13 weeks), then one chart for each of the twelve largest. Every line
+# chart passes the whole item list as series_order, so an item has one colour.
+report sql/period_bars.sql list by_segment "$by_segment" title "Amount per week, last 13 weeks" > "$out/weekly_bars.svg"
 report sql/daily_chart.sql list > "$out/chart_top_items.svg"
-items=$(sqlite3 -batch -init /dev/null "$db" \
-  "SELECT item FROM sales GROUP BY item ORDER BY sum(amount) DESC, item LIMIT 12")
+items=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "$db" \
+  "SELECT item FROM sales GROUP BY item ORDER BY exact_sum(amount) DESC, item LIMIT 12")
 declare -a chart_files=()
 declare -a chart_items=()
 while IFS= read -r item; do
+  [ -n "$item" ] || continue
   slug=$(printf '%s' "$item" | tr '[:upper:]' '[:lower:]' | tr -c 'a-z0-9' '-' | sed 's/-*$//')
   # The item's unusual days (sql/anomalies.sql) are marked on its chart.
   # In two layers of quotes, or one date alone would be read as arithmetic (2024-10-09 = 2005).
@@ -139,56 +171,101 @@ while IFS= read -r item; do
   chart_items+=("$item")
 done <<< "$items"
 
+last_day=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "${local_view[@]}" "$db" \
+  "SELECT period_shift(max(period_end(ts, 'day', '$zone')), -1, 'day') FROM sales")
 {
-  printf '<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<title>%s</title>\n' "$business"
+  printf '<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n'
+  printf '<meta name="viewport" content="width=device-width, initial-scale=1">\n<title>%s</title>\n' "$business"
   cat <<'HEAD'
 <style>
-body { font-family: "DejaVu Sans", sans-serif; margin: 2em; color: #222; max-width: 1200px; }
+body { font-family: "DejaVu Sans", Verdana, sans-serif; margin: 0 auto; padding: 1em 1.5em; color: #222;
+       max-width: 1200px; line-height: 1.35; }
+h1 { font-size: 1.5em; margin: 0.2em 0; }
+h2 { font-size: 1.2em; margin: 1.6em 0 0.3em 0; }
+h3 { font-size: 1em; margin: 1em 0 0.2em 0; }
+.wide { overflow-x: auto; max-width: 100%; }
 table { border-collapse: collapse; margin-bottom: 1em; font-size: 0.8em; }
-th, td { border-bottom: 1px solid #ccc; padding: 0.2em 0.6em; text-align: right; white-space: nowrap; }
+th, td { border-bottom: 1px solid #ccc; padding: 0.25em 0.6em; text-align: right; white-space: nowrap; }
 th { background: #f2f2f2; text-align: left; }
 td:first-child, td:nth-child(2) { text-align: left; }
-.chart { margin: 1em 0 2em 0; }
-.note { color: #555; font-size: 0.9em; }
+table.summary { font-size: 0.95em; }
+table.summary td { text-align: right; }
+table.summary caption { text-align: left; font-weight: bold; padding: 0.2em 0; }
+table.summary th[scope=row] { background: none; }
+table.summary tr.total th, table.summary tr.total td { font-weight: bold; border-bottom: 2px solid #888; }
+td.up { color: #0a6b2f; }
+td.down { color: #b3261e; }
+td.none { color: #888; text-align: center; }
+th .span { font-weight: normal; font-size: 0.85em; color: #555; }
+.partial { display: inline-block; background: #fff0c2; color: #5c4500; border-radius: 3px;
+           padding: 0 0.35em; font-size: 0.85em; font-weight: normal; }
+.chart { margin: 0.5em 0 1.5em 0; }
+.chart svg { display: block; max-width: 100%; height: auto; }
+.note { color: #555; font-size: 0.9em; margin: 0.3em 0; }
+@media (max-width: 600px) {
+  body { padding: 0.5em 0.6em; }
+  table, table.summary { font-size: 0.72em; }
+  th, td { padding: 0.2em 0.3em; }
+  th { white-space: normal; }
+}
+@media print {
+  @page { size: A4; margin: 12mm; }
+  body { max-width: none; padding: 0; font-size: 9pt; }
+  .wide { overflow: visible; }
+  table { font-size: 6.5pt; width: 100%; table-layout: auto; }
+  th, td { white-space: normal; overflow-wrap: anywhere; padding: 0.15em 0.3em; }
+  h2, h3 { break-after: avoid; }
+  .chart, tr { break-inside: avoid; }
+}
 </style>
 </head>
 <body>
 HEAD
   printf '<h1>%s</h1>\n' "$business"
-  if [ -z "$own_db" ]; then
-    printf '<p class="note">Hollow Oak Bakehouse is invented: three shops (Millrace, Quarry Hill, Lantern Square), generated by demo/generate.py.</p>\n'
-  fi
-  printf '<p class="note">Local calendar %s. Made with almanac'"'"'s report library (sql/) in the sqlite3 shell, %s, from %s.\n' \
-    "$zone" "$(date -u '+%Y-%m-%d %H:%M UTC')" "$(printf '%s' "$db" | escape_html)"
+  printf '<p class="note">Sales up to %s (local calendar %s). ' "$last_day" "$zone"
   printf 'The figures describe past sales; they are not forecasts and not financial advice.</p>\n'
-  printf '<h2>The three largest items: raw days and their 7-day moving mean</h2>\n<div class="chart">\n'
-  inline_svg "$out/chart_top_items.svg"
+  printf '<h2>The latest week against the week before and the same week last year</h2>\n'
+  printf '<p class="note">Each side counts the same days from the start of its week; a partial week is marked. '
+  printf 'Trading days are days with sales; per trading day takes out closed days.</p>\n'
+  summary_table week Week
+  printf '<h2>The month to date against the month before and the same month last year</h2>\n'
+  summary_table month Month
+  printf '<div class="chart">\n'
+  inline_svg "$out/weekly_bars.svg"
   printf '</div>\n'
   html_table "Trend per item" \
     "Slope of the weekly amount per week; verdict rising/falling when |slope| &gt; 2 &times; its standard error (a rule of thumb)." \
     sql/trend.sql
-  html_table "Noise ranking" "Spread of the weeks around each item's trend line, relative to its mean week; noisiest first." \
-    sql/noise_ranking.sql
-  html_table "Weekly totals, last 13 weeks" "Every ISO week shown; a week without sales would be a row of zeros." \
-    sql/totals.sql last 13
-  html_table "Monthly totals" "Means are NULL (empty) where a month has no sales." sql/totals.sql unit month
-  html_table "Fiscal quarters (fiscal year from October)" "" sql/totals.sql unit "quarter starting october"
-  html_table "Weekday profile" "Mean and median of a day with sales; index 100 = the average such day." \
-    sql/weekday_profile.sql
-  html_table "Seasonal profile" \
-    "Mean day of each weekday and each month over the item's mean day, in percent: 100 is an ordinary day, 0 a period without sales." \
-    sql/seasonal_profile.sql
-  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n<table>\n' \
+  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n<div class="wide"><table>\n' \
     "A day's amount against the median of the same weekday over the 8 weeks before and after (the day excluded); listed when the modified z-score 0.6745 &times; (amount &minus; typical) / MAD is beyond &plusmn;3.5. Each item's chart below marks its unusual days." \
     "$(printf '%s\n' "$anomalies_list" | grep -c '|') item-days: show the list"
   report sql/anomalies.sql html
-  printf '</table>\n</details>\n'
+  printf '</table></div>\n</details>\n'
+  printf '<h2>The three largest items, last 13 weeks: raw days and their 7-day moving mean</h2>\n<div class="chart">\n'
+  inline_svg "$out/chart_top_items.svg"
+  printf '</div>\n'
   printf '<h2>Each item</h2>\n'
   for i in "${!chart_files[@]}"; do
     printf '<h3>%s</h3>\n<div class="chart">\n' "$(printf '%s' "${chart_items[$i]}" | escape_html)"
     inline_svg "${chart_files[$i]}"
     printf '</div>\n'
   done
+  html_table "Weekly totals, last 13 weeks" \
+    "Every ISO week shown; complete = 0 marks a week the data covers only in part." sql/totals.sql last 13
+  html_table "Monthly totals" "Means are empty where a month has no sales." sql/totals.sql unit month
+  html_table "Fiscal quarters (fiscal year from October)" "" sql/totals.sql unit "quarter starting october"
+  html_table "Noise ranking" "Spread of the weeks around each item's trend line, relative to its mean week; noisiest first." \
+    sql/noise_ranking.sql
+  html_table "Weekday profile" "Mean and median of a day with sales; index 100 = the average such day." \
+    sql/weekday_profile.sql
+  html_table "Seasonal profile" \
+    "Mean day of each weekday and each month over the item's mean day, in percent: 100 is an ordinary day, 0 a period without sales." \
+    sql/seasonal_profile.sql
+  if [ -z "$own_db" ]; then
+    printf '<p class="note">Hollow Oak Bakehouse is invented: three shops (Millrace, Quarry Hill, Lantern Square), generated by demo/generate.py.</p>\n'
+  fi
+  printf '<p class="note">Made with almanac'"'"'s report library (sql/) in the sqlite3 shell, %s, from %s.</p>\n' \
+    "$(date -u '+%Y-%m-%d %H:%M UTC')" "$(printf '%s' "$db" | escape_html)"
   printf '</body>\n</html>\n'
 } > "$out/report.html"
 

@@ -28,7 +28,8 @@
 -- Parameters (sqlite3 shell: .parameter set @name value; unset ones take the default;
 -- a date needs both kinds of quotes, or the shell computes 2025-01-06 = 2018):
 --   @zone    IANA time zone of the shop's calendar        default 'UTC'
---   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
+--   @start   first local day, "'YYYY-MM-DD'"             default: @weeks before @stop
+--   @weeks   without @start: how many weeks before @stop  default 13 (0: from the first sale)
 --   @stop    local day after the last one                default: the day after the last sale
 --   @item    one item to draw                            default: the @top items by amount
 --   @top     how many items, the largest amount first    default 3
@@ -58,10 +59,18 @@ WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone
 ),
-range AS (
-  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+-- 1,092 days of three items do not fit in 960 pixels: by default the chart
+-- shows the last 13 weeks, where a day is still a few pixels wide.
+data_range AS (
+  SELECT min(period_floor(s.ts, 'day', settings.zone)) AS first,
          coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
   FROM sales AS s, settings
+),
+range AS (
+  SELECT coalesce(@start, CASE WHEN coalesce(@weeks, 13) = 0 THEN first
+                               ELSE max(first, period_shift(stop, -coalesce(@weeks, 13), 'week')) END) AS start,
+         stop
+  FROM data_range
 ),
 daily_sales AS (
   -- A day's takings in cents, so the smooth line is the mean of the amounts the raw line shows.
@@ -98,5 +107,10 @@ WHERE @item IS NOT NULL;
 SELECT svg_line_chart(day, value, item, layer,
                       json_object('title', coalesce(@title, 'Amount per day and 7-day moving mean'),
                                   'y_caption', 'amount per day',
-                                  'width', coalesce(@width, 960), 'height', coalesce(@height, 400)))
+                                  'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
+                                  -- Every item of the table, largest first: each item keeps
+                                  -- its colour in every chart, whichever items it shows.
+                                  'series_order', json((SELECT json_group_array(item) FROM (
+                                    SELECT item FROM sales GROUP BY item
+                                    ORDER BY exact_sum(amount) DESC, item)))))
 FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step);

@@ -417,19 +417,22 @@ def last_year_of_start(start):
     return start.replace(year=start.year - 1)
 
 
-def chart_points(rows, zone, top=3, item=None):
+def chart_points(rows, zone, top=3, item=None, weeks=13):
     """sql/daily_chart.sql: the chosen items' daily amounts in cents (0 on a day
     without sales; round(math.fsum, 2)) and the 7-day centred moving mean of
-    those, math.fsum(frame) / 7 where the frame is whole, None elsewhere."""
+    those, math.fsum(frame) / 7 where the frame is whole, None elsewhere; over
+    the last `weeks` weeks of the data (0: all of it), top items by amount there."""
     sales = sales_of(rows, zone)
     first, after = day_range(sales)
+    if weeks:
+        first = max(first, after - dt.timedelta(weeks=weeks))
     totals = defaultdict(float)
     daily = defaultdict(list)
     for s in sales:
-        if item is None or s.item == item:
+        if (item is None or s.item == item) and first <= s.day < after:
             daily[(s.day, s.item)].append(s.amount)
     for (day, name), amounts in daily.items():
-        totals[name] += math.fsum(amounts)
+        totals[name] += round(math.fsum(amounts), 2)
     items = sorted(totals, key=lambda name: (-totals[name], name))[:top]
     points = {}
     days = [first + dt.timedelta(days=k) for k in range((after - first).days)]

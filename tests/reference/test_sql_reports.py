@@ -521,7 +521,8 @@ def chart(database, **params):
 
 def check_chart(path, rows, **params):
     svg, points = chart(path, zone=ZONE, **params)
-    items, expected = oracle.chart_points(rows, ZONE, top=params.get("top", 3), item=params.get("item"))
+    items, expected = oracle.chart_points(rows, ZONE, top=params.get("top", 3), item=params.get("item"),
+                                          weeks=params.get("weeks", 13))
     root = ET.fromstring(svg.strip())  # oracle: xml.etree parses the document
     assert root.tag.endswith("svg")
     texts = {"".join(node.itertext()).strip() for node in root.iter() if node.tag.endswith("text")}
@@ -541,6 +542,19 @@ def check_chart(path, rows, **params):
 def test_overlay_chart_of_the_top_items(database):
     path, rows = database
     check_chart(path, rows)
+
+
+def test_overlay_chart_of_the_whole_range_and_its_colours_follow_the_item_list(fixture_db):
+    path, rows = fixture_db
+    check_chart(path, rows, weeks=0)
+    # series_order is every item, largest first, so one item has one colour in every chart
+    # (oracle: xml.etree; DESIGN.md "Reports", series_order)
+    colours = {}
+    for item in ("Flat tea", "Rising bun", None):
+        svg, _ = chart(path, zone=ZONE, **({"item": item} if item else {}))
+        for p in ET.fromstring(svg.strip()).iter("{http://www.w3.org/2000/svg}path"):
+            colours.setdefault(p.get("data-series"), set()).add(p.get("stroke"))
+    assert all(len(strokes) == 1 for strokes in colours.values()) and len(colours) >= 3
 
 
 def test_overlay_chart_of_one_item(fixture_db):

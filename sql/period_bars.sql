@@ -1,0 +1,70 @@
+-- SPDX-License-Identifier: MIT
+-- almanac report: the totals of the last periods as a bar chart, one bar per
+-- period (and per segment with @by_segment 1), each bar inside its period on
+-- the calendar axis; a period without sales is a bar of 0, not a gap.
+-- Prints one complete SVG document; send it to a file.
+--
+-- Reads a table or view named sales:
+--   sales(ts, item, qty, amount [, segment])
+--     ts       when the sale happened: an almanac time value, normally UTC text
+--              'YYYY-MM-DD HH:MM:SS' as point-of-sale exports write it
+--     item     TEXT, what was sold (with @item, only that item is counted)
+--     qty      number of units sold (not used here)
+--     amount   money received for the sale
+--     segment  optional: a shop, a channel, a category; @by_segment 1 draws one
+--              bar per segment and period instead of one for all
+--   Other columns are ignored; a temp view named sales can rename or narrow
+--   a table (see sql/totals.sql).
+--
+-- Your data (README, "Your data"): ts holds UTC instants; @zone only chooses the
+-- calendar. Data stored as local wall-clock time is read through a view with
+-- to_time(text, format, zone) first.
+--
+-- Parameters (sqlite3 shell: .parameter set @name value; unset ones take the default):
+--   @zone        IANA time zone of the shop's calendar       default 'UTC'
+--   @unit        any period spec of a day or longer          default 'week'
+--   @last        how many periods, ending with the latest    default 13
+--   @item        one item only                               default: all items
+--   @by_segment  1: one bar per segment                      default 0
+--   @title, @width, @height                                  default 'Amount per period', 960 x 360
+--
+-- Run:
+--   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
+--           shop.db < sql/period_bars.sql > weekly.svg
+WITH
+settings AS (
+  SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, coalesce(@last, 13) AS last,
+         coalesce(@by_segment, 0) AS by_segment
+),
+-- The NATURAL LEFT JOIN finds sales.segment when the table has one and
+-- otherwise joins nothing, leaving segment NULL (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, s.item, s.amount, CASE WHEN settings.by_segment = 1 THEN coalesce(segment, '(none)')
+                                      ELSE 'all segments' END AS segment
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE @item IS NULL OR s.item = @item
+),
+range AS (
+  SELECT period_shift(period_floor(max(period_end(src.ts, 'day', settings.zone)), settings.spec),
+                      1 - settings.last, settings.spec) AS start,
+         max(period_end(src.ts, 'day', settings.zone)) AS stop
+  FROM source AS src, settings
+),
+totals AS (
+  SELECT period_serial(src.ts, settings.spec, settings.zone) AS serial, src.segment,
+         exact_sum(src.amount) AS amount
+  FROM source AS src, settings, range
+  WHERE period_serial(src.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
+  GROUP BY 1, 2
+),
+bars AS (
+  SELECT p.period_start, g.segment, coalesce(t.amount, 0) AS amount
+  FROM settings, range, periods(range.start, range.stop, settings.spec, settings.zone) AS p
+  CROSS JOIN (SELECT DISTINCT segment FROM source) AS g
+  LEFT JOIN totals AS t ON t.serial = p.serial AND t.segment = g.segment
+)
+SELECT svg_bar_chart(period_start, round(amount, 2), segment,
+                     json_object('title', coalesce(@title, 'Amount per period'),
+                                 'y_caption', 'amount', 'period', settings.spec,
+                                 'width', coalesce(@width, 960), 'height', coalesce(@height, 360)))
+FROM bars, settings;
