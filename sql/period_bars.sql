@@ -17,8 +17,11 @@
 --   a table (see sql/totals.sql).
 --
 -- Your data (README, "Your data"): ts holds UTC instants; @zone only chooses the
--- calendar. Data stored as local wall-clock time is read through a view with
--- to_time(text, format, zone) first.
+-- calendar. An export written in local time is converted once, in the view,
+-- with to_time(text, format, zone): left as it is, @zone would shift every
+-- local time a second time. Money and quantities written as text ('$1,050.00')
+-- are read with to_amount() in the view: the report adds with exact_sum() and
+-- stops on text it cannot read, where SQLite's sum() would count '1,050.00' as 1.
 --
 -- Parameters (sqlite3 shell: .parameter set @name value; unset ones take the default):
 --   @zone        IANA time zone of the shop's calendar       default 'UTC'
