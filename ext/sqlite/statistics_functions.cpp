@@ -53,14 +53,14 @@ namespace {
 
 struct UnivariateFunction {
     const char* name;
-    std::optional<double> (*compute)(UnivariateMoments&);
+    std::optional<double> (*compute)(const UnivariateMoments&);
 };
 
 const UnivariateFunction kUnivariate[] = {
-    {"var_samp", [](UnivariateMoments& m) { return m.variance(true); }},
-    {"var_pop", [](UnivariateMoments& m) { return m.variance(false); }},
-    {"stddev_samp", [](UnivariateMoments& m) { return m.standard_deviation(true); }},
-    {"stddev_pop", [](UnivariateMoments& m) { return m.standard_deviation(false); }},
+    {"var_samp", [](const UnivariateMoments& m) { return m.variance(true); }},
+    {"var_pop", [](const UnivariateMoments& m) { return m.variance(false); }},
+    {"stddev_samp", [](const UnivariateMoments& m) { return m.standard_deviation(true); }},
+    {"stddev_pop", [](const UnivariateMoments& m) { return m.standard_deviation(false); }},
 };
 
 const UnivariateFunction& univariate(sqlite3_context* context) {
@@ -98,23 +98,23 @@ void univariate_final(sqlite3_context* context) {
 
 struct BivariateFunction {
     const char* name;
-    std::optional<double> (*compute)(BivariateMoments&);
+    std::optional<double> (*compute)(const BivariateMoments&);
 };
 
 const BivariateFunction kBivariate[] = {
-    {"covar_samp", [](BivariateMoments& m) { return m.covariance(true); }},
-    {"covar_pop", [](BivariateMoments& m) { return m.covariance(false); }},
-    {"corr", [](BivariateMoments& m) { return m.correlation(); }},
-    {"regr_avgx", [](BivariateMoments& m) { return m.mean_x(); }},
-    {"regr_avgy", [](BivariateMoments& m) { return m.mean_y(); }},
-    {"regr_sxx", [](BivariateMoments& m) { return m.sxx(); }},
-    {"regr_syy", [](BivariateMoments& m) { return m.syy(); }},
-    {"regr_sxy", [](BivariateMoments& m) { return m.sxy(); }},
-    {"regr_slope", [](BivariateMoments& m) { return m.slope(); }},
-    {"regr_intercept", [](BivariateMoments& m) { return m.intercept(); }},
-    {"regr_r2", [](BivariateMoments& m) { return m.r_squared(); }},
-    {"resid_sd", [](BivariateMoments& m) { return m.residual_sd(); }},
-    {"slope_stderr", [](BivariateMoments& m) { return m.slope_stderr(); }},
+    {"covar_samp", [](const BivariateMoments& m) { return m.covariance(true); }},
+    {"covar_pop", [](const BivariateMoments& m) { return m.covariance(false); }},
+    {"corr", [](const BivariateMoments& m) { return m.correlation(); }},
+    {"regr_avgx", [](const BivariateMoments& m) { return m.mean_x(); }},
+    {"regr_avgy", [](const BivariateMoments& m) { return m.mean_y(); }},
+    {"regr_sxx", [](const BivariateMoments& m) { return m.sxx(); }},
+    {"regr_syy", [](const BivariateMoments& m) { return m.syy(); }},
+    {"regr_sxy", [](const BivariateMoments& m) { return m.sxy(); }},
+    {"regr_slope", [](const BivariateMoments& m) { return m.slope(); }},
+    {"regr_intercept", [](const BivariateMoments& m) { return m.intercept(); }},
+    {"regr_r2", [](const BivariateMoments& m) { return m.r_squared(); }},
+    {"resid_sd", [](const BivariateMoments& m) { return m.residual_sd(); }},
+    {"slope_stderr", [](const BivariateMoments& m) { return m.slope_stderr(); }},
     // regr_count is the one integer result; see bivariate_value.
     {"regr_count", nullptr},
 };

@@ -70,7 +70,7 @@ void ExactSum::add_prod(double a, double b, std::int64_t shift, bool negate) {
     if (high) add_bits(high, exponent + 64, negative);
 }
 
-void ExactSum::extend(std::int64_t lo, std::int64_t hi) {
+void ExactSum::extend(std::int64_t lo, std::int64_t hi) const {
     // The active range changes only once its limbs exist: an allocation that
     // fails leaves the sum as it was (found by the allocation-failure test).
     std::int64_t new_lo = lo_ == hi_ ? lo : std::min(lo_, lo);
@@ -97,7 +97,7 @@ void ExactSum::extend(std::int64_t lo, std::int64_t hi) {
     hi_ = new_hi;
 }
 
-void ExactSum::normalize() {
+void ExactSum::normalize() const {
     pending_ = 0;
     if (lo_ == hi_) return;
     constexpr std::int64_t kDigit = std::int64_t(1) << 32;
@@ -142,7 +142,7 @@ void ExactSum::normalize() {
     }
 }
 
-void ExactSum::add(ExactSum& other, std::int64_t limb_shift) {
+void ExactSum::add(const ExactSum& other, std::int64_t limb_shift) {
     if (!wide_) widen();
     if (!other.wide_) {
         if (other.narrow_ == 0) return;
@@ -165,27 +165,27 @@ void ExactSum::add(ExactSum& other, std::int64_t limb_shift) {
     if (++pending_ >= kNormalizeEvery) normalize();
 }
 
-void ExactSum::settle() {
+void ExactSum::settle() const {
     normalize();
     // Exactly zero: the next terms may fit the fast form again. (Only readers
     // do this; normalize() also runs in the middle of an addition.)
     if (lo_ == hi_) wide_ = false;
 }
 
-bool ExactSum::is_zero() {
+bool ExactSum::is_zero() const {
     if (!wide_) return narrow_ == 0;
     settle();
     return !wide_;
 }
 
-int ExactSum::sign() {
+int ExactSum::sign() const {
     if (!wide_) return narrow_ == 0 ? 0 : (narrow_ < 0 ? -1 : 1);
     settle();
     if (lo_ == hi_) return 0;
     return limbs_[hi_ - 1 - base_] < 0 ? -1 : 1;
 }
 
-RoundedBinary ExactSum::rounded(std::int64_t lowest_bit) {
+RoundedBinary ExactSum::rounded(std::int64_t lowest_bit) const {
     if (!wide_) {
         if (narrow_ == 0) return RoundedBinary{};
         bool negative = narrow_ < 0;
@@ -226,7 +226,7 @@ RoundedBinary ExactSum::rounded(std::int64_t lowest_bit) {
                             lead > 2, lowest_bit);
 }
 
-ExactNumber ExactSum::value() {
+ExactNumber ExactSum::value() const {
     if (!wide_) {
         if (narrow_ == 0) return ExactNumber();
         bool negative = narrow_ < 0;

@@ -48,17 +48,19 @@ class ExactSum {
     void subtract_product(double a, double b, std::int64_t shift = 0) {
         add_prod(a, b, shift, true);
     }
-    // Adds other * 2^(32*limb_shift) exactly; other is only normalised.
-    void add(ExactSum& other, std::int64_t limb_shift);
+    // Adds other * 2^(32*limb_shift) exactly.
+    void add(const ExactSum& other, std::int64_t limb_shift);
 
-    // Readers resolve carries in place (the value does not change).
-    bool is_zero();
-    int sign();
+    // Readers are const: the value they read never changes. They resolve
+    // pending carries in place (the limbs are mutable for that), so one sum
+    // must not be read from two threads at once.
+    bool is_zero() const;
+    int sign() const;
     // Correctly rounded, half to even: the double nearest the exact sum,
     // which is what Python's math.fsum returns for the same terms.
-    double to_double() { return rounded(kDoubleLowestBit).to_double(); }
-    RoundedBinary rounded(std::int64_t lowest_bit);
-    ExactNumber value();
+    double to_double() const { return rounded(kDoubleLowestBit).to_double(); }
+    RoundedBinary rounded(std::int64_t lowest_bit) const;
+    ExactNumber value() const;
 
   private:
     // Bit position 0 of the long number is 2^-kBitOffset; a multiple of 32 at
@@ -132,19 +134,21 @@ class ExactSum {
     }
     [[noreturn]] static void throw_not_finite();
     // Makes [lo, hi) part of the active range, allocating as needed.
-    void extend(std::int64_t lo, std::int64_t hi);
+    void extend(std::int64_t lo, std::int64_t hi) const;
     // Resolves carries: every limb but the top becomes a digit in [0, 2^32),
     // the top a signed value in [-2^32, 2^32); zero limbs leave the range.
-    void normalize();
+    void normalize() const;
     // normalize(), then back to the fast form when the sum is exactly zero.
-    void settle();
+    void settle() const;
 
-    std::vector<std::int64_t> limbs_;  // limbs_[i] is limb number base_ + i
-    std::int64_t base_ = 0;
-    std::int64_t lo_ = 0, hi_ = 0;  // active limbs [lo_, hi_); all others are zero
-    std::uint32_t pending_ = 0;     // additions since the last normalize()
-    bool wide_ = false;             // the sum is in the limbs, not in narrow_
-    Int128 narrow_ = 0;             // otherwise the sum is narrow_ * 2^narrow_exponent_
+    // How the value is held changes under a reader (carries resolved, an
+    // exact zero back to the fast form); the value itself does not.
+    mutable std::vector<std::int64_t> limbs_;  // limbs_[i] is limb number base_ + i
+    mutable std::int64_t base_ = 0;
+    mutable std::int64_t lo_ = 0, hi_ = 0;  // active limbs [lo_, hi_); all others are zero
+    mutable std::uint32_t pending_ = 0;     // additions since the last normalize()
+    mutable bool wide_ = false;             // the sum is in the limbs, not in narrow_
+    Int128 narrow_ = 0;                     // otherwise the sum is narrow_ * 2^narrow_exponent_
     std::int64_t narrow_exponent_ = 0;
 };
 

@@ -5,7 +5,7 @@
 
 namespace almanac {
 
-std::optional<ExactTotal::Value> ExactTotal::value() {
+std::optional<ExactTotal::Value> ExactTotal::value() const {
     if (count() == 0) return std::nullopt;
     constexpr auto kLeast = std::numeric_limits<std::int64_t>::min();
     constexpr auto kMost = std::numeric_limits<std::int64_t>::max();

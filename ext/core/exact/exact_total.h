@@ -36,7 +36,7 @@ class ExactTotal {
 
     std::int64_t count() const { return integer_count_ + real_count_; }
     // Nothing when no value is present (SQL's sum of no rows is NULL).
-    std::optional<Value> value();
+    std::optional<Value> value() const;
 
   private:
     void integer_step(std::int64_t v, int sign) {

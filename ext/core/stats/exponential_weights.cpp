@@ -61,7 +61,7 @@ void ExponentialWeights::change(double x, Position p, int direction) {
     }
 }
 
-std::optional<double> ExponentialWeights::mean() {
+std::optional<double> ExponentialWeights::mean() const {
     if (blocks_.empty()) return std::nullopt;
     auto latest = blocks_.rbegin();
     std::int64_t top = latest->first;

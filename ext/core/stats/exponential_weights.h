@@ -45,7 +45,7 @@ class ExponentialWeights {
     void remove(double x, Position p) { change(x, p, -1); }
     std::int64_t count() const { return rows_; }
     // nullopt when no rows are present.
-    std::optional<double> mean();
+    std::optional<double> mean() const;
 
   private:
     struct Block {

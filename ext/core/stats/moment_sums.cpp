@@ -12,7 +12,8 @@ ScaledDouble scaled(std::int64_t n) { return ScaledDouble::from(static_cast<doub
 ExactNumber exact(std::int64_t n) { return ExactNumber(static_cast<std::uint64_t>(n)); }
 
 // n·Σa·b − Σa·Σb from exact sums.
-ExactNumber centred(std::int64_t n, ExactSum& sum_ab, ExactSum& sum_a, ExactSum& sum_b) {
+ExactNumber centred(std::int64_t n, const ExactSum& sum_ab, const ExactSum& sum_a,
+                    const ExactSum& sum_b) {
     return exact(n) * sum_ab.value() - sum_a.value() * sum_b.value();
 }
 
@@ -30,7 +31,7 @@ void UnivariateMoments::remove(double x) {
     sum_of_squares_.subtract_product(x, x);
 }
 
-std::optional<double> UnivariateMoments::variance(bool sample) {
+std::optional<double> UnivariateMoments::variance(bool sample) const {
     if (n_ < (sample ? 2 : 1)) return std::nullopt;
     ExactNumber s = sum_.value();
     ExactNumber d = exact(n_) * sum_of_squares_.value() - s * s;  // n·Sxx, exact, >= 0
@@ -39,7 +40,7 @@ std::optional<double> UnivariateMoments::variance(bool sample) {
     return (d.to_scaled() / denominator).to_double();
 }
 
-std::optional<double> UnivariateMoments::standard_deviation(bool sample) {
+std::optional<double> UnivariateMoments::standard_deviation(bool sample) const {
     if (n_ < (sample ? 2 : 1)) return std::nullopt;
     ExactNumber s = sum_.value();
     ExactNumber d = exact(n_) * sum_of_squares_.value() - s * s;
@@ -66,47 +67,47 @@ void BivariateMoments::remove(double y, double x) {
     sum_yy_.subtract_product(y, y);
 }
 
-ExactNumber BivariateMoments::n_times_sxx() { return centred(n_, sum_xx_, sum_x_, sum_x_); }
-ExactNumber BivariateMoments::n_times_syy() { return centred(n_, sum_yy_, sum_y_, sum_y_); }
-ExactNumber BivariateMoments::n_times_sxy() { return centred(n_, sum_xy_, sum_x_, sum_y_); }
+ExactNumber BivariateMoments::n_times_sxx() const { return centred(n_, sum_xx_, sum_x_, sum_x_); }
+ExactNumber BivariateMoments::n_times_syy() const { return centred(n_, sum_yy_, sum_y_, sum_y_); }
+ExactNumber BivariateMoments::n_times_sxy() const { return centred(n_, sum_xy_, sum_x_, sum_y_); }
 
-ExactNumber BivariateMoments::residual_numerator(const ExactNumber& dxx) {
+ExactNumber BivariateMoments::residual_numerator(const ExactNumber& dxx) const {
     ExactNumber dxy = n_times_sxy();
     return dxx * n_times_syy() - dxy * dxy;
 }
 
-std::optional<double> BivariateMoments::mean_x() {
+std::optional<double> BivariateMoments::mean_x() const {
     if (n_ < 1) return std::nullopt;
     return sum_x_.to_double() / static_cast<double>(n_);
 }
 
-std::optional<double> BivariateMoments::mean_y() {
+std::optional<double> BivariateMoments::mean_y() const {
     if (n_ < 1) return std::nullopt;
     return sum_y_.to_double() / static_cast<double>(n_);
 }
 
-std::optional<double> BivariateMoments::sxx() {
+std::optional<double> BivariateMoments::sxx() const {
     if (n_ < 1) return std::nullopt;
     return (n_times_sxx().to_scaled() / scaled(n_)).to_double();
 }
 
-std::optional<double> BivariateMoments::syy() {
+std::optional<double> BivariateMoments::syy() const {
     if (n_ < 1) return std::nullopt;
     return (n_times_syy().to_scaled() / scaled(n_)).to_double();
 }
 
-std::optional<double> BivariateMoments::sxy() {
+std::optional<double> BivariateMoments::sxy() const {
     if (n_ < 1) return std::nullopt;
     return (n_times_sxy().to_scaled() / scaled(n_)).to_double();
 }
 
-std::optional<double> BivariateMoments::covariance(bool sample) {
+std::optional<double> BivariateMoments::covariance(bool sample) const {
     if (n_ < (sample ? 2 : 1)) return std::nullopt;
     ScaledDouble denominator = scaled(n_) * scaled(sample ? n_ - 1 : n_);
     return (n_times_sxy().to_scaled() / denominator).to_double();
 }
 
-std::optional<double> BivariateMoments::correlation() {
+std::optional<double> BivariateMoments::correlation() const {
     if (n_ < 1) return std::nullopt;
     ExactNumber dxx = n_times_sxx(), dyy = n_times_syy();
     if (dxx.is_zero() || dyy.is_zero()) return std::nullopt;  // the standard's special case
@@ -115,14 +116,14 @@ std::optional<double> BivariateMoments::correlation() {
     return std::clamp(r, -1.0, 1.0);
 }
 
-std::optional<double> BivariateMoments::slope() {
+std::optional<double> BivariateMoments::slope() const {
     if (n_ < 1) return std::nullopt;
     ExactNumber dxx = n_times_sxx();
     if (dxx.is_zero()) return std::nullopt;
     return (n_times_sxy().to_scaled() / dxx.to_scaled()).to_double();
 }
 
-std::optional<double> BivariateMoments::intercept() {
+std::optional<double> BivariateMoments::intercept() const {
     if (n_ < 1) return std::nullopt;
     ExactNumber dxx = n_times_sxx();
     if (dxx.is_zero()) return std::nullopt;
@@ -130,7 +131,7 @@ std::optional<double> BivariateMoments::intercept() {
     return (numerator.to_scaled() / dxx.to_scaled()).to_double();
 }
 
-std::optional<double> BivariateMoments::r_squared() {
+std::optional<double> BivariateMoments::r_squared() const {
     if (n_ < 1) return std::nullopt;
     ExactNumber dxx = n_times_sxx();
     if (dxx.is_zero()) return std::nullopt;
@@ -141,7 +142,7 @@ std::optional<double> BivariateMoments::r_squared() {
     return std::min(r2, 1.0);
 }
 
-std::optional<double> BivariateMoments::residual_sd() {
+std::optional<double> BivariateMoments::residual_sd() const {
     if (n_ < 3) return std::nullopt;
     ExactNumber dxx = n_times_sxx();
     if (dxx.is_zero()) return std::nullopt;
@@ -152,7 +153,7 @@ std::optional<double> BivariateMoments::residual_sd() {
     return sqrt(e.to_scaled() / denominator).to_double();
 }
 
-std::optional<double> BivariateMoments::slope_stderr() {
+std::optional<double> BivariateMoments::slope_stderr() const {
     if (n_ < 3) return std::nullopt;
     ExactNumber dxx = n_times_sxx();
     if (dxx.is_zero()) return std::nullopt;

@@ -32,8 +32,8 @@ class UnivariateMoments {
     std::int64_t count() const { return n_; }
 
     // Population (divide by n) or sample (n − 1); nullopt when n is too small.
-    std::optional<double> variance(bool sample);
-    std::optional<double> standard_deviation(bool sample);
+    std::optional<double> variance(bool sample) const;
+    std::optional<double> standard_deviation(bool sample) const;
 
   private:
     std::int64_t n_ = 0;
@@ -47,27 +47,27 @@ class BivariateMoments {
     void remove(double y, double x);
     std::int64_t count() const { return n_; }
 
-    std::optional<double> mean_x();
-    std::optional<double> mean_y();
-    std::optional<double> sxx();  // Σ(x − x̄)²
-    std::optional<double> syy();
-    std::optional<double> sxy();
-    std::optional<double> covariance(bool sample);
-    std::optional<double> correlation();
-    std::optional<double> slope();
-    std::optional<double> intercept();
-    std::optional<double> r_squared();
+    std::optional<double> mean_x() const;
+    std::optional<double> mean_y() const;
+    std::optional<double> sxx() const;  // Σ(x − x̄)²
+    std::optional<double> syy() const;
+    std::optional<double> sxy() const;
+    std::optional<double> covariance(bool sample) const;
+    std::optional<double> correlation() const;
+    std::optional<double> slope() const;
+    std::optional<double> intercept() const;
+    std::optional<double> r_squared() const;
     // √(SSE/(n − 2)): nullopt for n < 3 or Sxx = 0.
-    std::optional<double> residual_sd();
+    std::optional<double> residual_sd() const;
     // residual_sd / √Sxx: nullopt for n < 3 or Sxx = 0.
-    std::optional<double> slope_stderr();
+    std::optional<double> slope_stderr() const;
 
   private:
-    ExactNumber n_times_sxx();
-    ExactNumber n_times_syy();
-    ExactNumber n_times_sxy();
+    ExactNumber n_times_sxx() const;
+    ExactNumber n_times_syy() const;
+    ExactNumber n_times_sxy() const;
     // Dxx·Dyy − Dxy² = n²·Sxx·SSE, never negative.
-    ExactNumber residual_numerator(const ExactNumber& dxx);
+    ExactNumber residual_numerator(const ExactNumber& dxx) const;
 
     std::int64_t n_ = 0;
     ExactSum sum_x_, sum_y_, sum_xx_, sum_xy_, sum_yy_;
