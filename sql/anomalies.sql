@@ -24,7 +24,8 @@
 -- last 3 days of the data is not listed yet.)
 --
 -- Reads a table or view named sales:
---   sales(ts, item, qty, amount)  as in sql/trend.sql; amounts added with exact_sum.
+--   sales(ts, item, qty, amount [, segment])  as in sql/trend.sql; amounts added with
+--   exact_sum; segment, optional, is a shop, a channel, a category (see @by_segment).
 --
 -- Your data (README, "Your data"): ts holds UTC instants; @zone only chooses the
 -- calendar. An export written in local time is converted once, in the view,
@@ -40,6 +41,10 @@
 --   @stop       local day after the last one listed        default: the day after the last sale
 --   @item       unset: every item; a name: that item only
 --   @threshold  |score| above which a day is listed       default 3.5
+--   @by_segment 1: a first column segment, and the days of each segment
+--               (scored on that segment's rows alone, over its own trading
+--               days) after those of 'all segments' ('(none)' for a NULL
+--               segment)                                  default 0
 --   The surrounding weeks are read outside [@start, @stop) too, when there are sales there.
 --
 -- Columns, one row per unusual day and item, oldest first:
@@ -54,45 +59,62 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/anomalies.sql
+-- The rows are gathered in a temporary table first, so that the segment column
+-- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_anomaly_rows;
+CREATE TEMP TABLE almanac_anomaly_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@threshold, 3.5) AS threshold, @item AS item_choice
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@threshold, 3.5) AS threshold, @item AS item_choice,
+         coalesce(@by_segment, 0) AS by_segment
+),
+-- Every row counts for 'all segments', and with @by_segment also for its own
+-- segment; everything below is computed per segment, so a segment's rows are
+-- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
+-- sales.segment when the table has one (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, s.item, s.amount, 'all segments' AS segment FROM sales AS s
+  UNION ALL
+  SELECT s.ts, s.item, s.amount, coalesce(segment, '(none)')
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE settings.by_segment = 1
 ),
 daily_sales AS (
-  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
-  FROM sales AS s, settings
+  SELECT s.segment, period_serial(s.ts, 'day', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
+  FROM source AS s, settings
   WHERE settings.item_choice IS NULL OR s.item = settings.item_choice
-  GROUP BY 1, 2
+  GROUP BY 1, 2, 3
 ),
 trading AS (
-  SELECT min(period_floor(s.ts, 'day', settings.zone)) AS first,
+  SELECT s.segment, min(period_floor(s.ts, 'day', settings.zone)) AS first,
          max(period_end(s.ts, 'day', settings.zone)) AS stop
-  FROM sales AS s, settings
+  FROM source AS s, settings
+  GROUP BY s.segment
 ),
 days AS (
-  SELECT p.serial, p.period_start AS day, period_position(p.period_start, 'day', 'week') AS weekday
+  SELECT trading.segment, p.serial, p.period_start AS day, period_position(p.period_start, 'day', 'week') AS weekday
   FROM settings, trading, periods(trading.first, trading.stop, 'day', settings.zone) AS p
 ),
 daily AS (
-  SELECT i.item, d.serial, d.day, d.weekday, coalesce(t.amount, 0) AS amount
+  SELECT d.segment, i.item, d.serial, d.day, d.weekday, coalesce(t.amount, 0) AS amount
   FROM days AS d
-  CROSS JOIN (SELECT DISTINCT item FROM daily_sales) AS i
-  LEFT JOIN daily_sales AS t ON t.serial = d.serial AND t.item = i.item
+  JOIN (SELECT DISTINCT segment, item FROM daily_sales) AS i USING (segment)
+  LEFT JOIN daily_sales AS t ON t.segment = d.segment AND t.serial = d.serial AND t.item = i.item
 ),
 scored AS (
-  SELECT item, day, amount,
+  SELECT segment, item, day, amount,
          median(amount) OVER same_weekday AS typical,
          mad(amount) OVER same_weekday AS spread,
          count(*) OVER same_weekday AS neighbours,
-         max(amount <> 0) OVER (PARTITION BY item ORDER BY serial
+         max(amount <> 0) OVER (PARTITION BY segment, item ORDER BY serial
                                 ROWS BETWEEN 3 PRECEDING AND 1 PRECEDING) AS sold_before,
-         max(amount <> 0) OVER (PARTITION BY item ORDER BY serial
+         max(amount <> 0) OVER (PARTITION BY segment, item ORDER BY serial
                                 ROWS BETWEEN 1 FOLLOWING AND 3 FOLLOWING) AS sold_after
   FROM daily
-  WINDOW same_weekday AS (PARTITION BY item, weekday ORDER BY serial
+  WINDOW same_weekday AS (PARTITION BY segment, item, weekday ORDER BY serial
                           ROWS BETWEEN 8 PRECEDING AND 8 FOLLOWING EXCLUDE CURRENT ROW)
 )
-SELECT sc.day, sc.item, sc.amount, sc.typical,
+SELECT sc.segment, sc.day, sc.item, sc.amount, sc.typical,
        round(0.6745 * (sc.amount - sc.typical) / sc.spread, 1) AS score,
        CASE WHEN sc.amount > sc.typical THEN 'spike'
             WHEN sc.amount = 0 THEN 'closed'
@@ -100,5 +122,10 @@ SELECT sc.day, sc.item, sc.amount, sc.typical,
 FROM scored AS sc, settings
 WHERE sc.neighbours >= 8 AND sc.spread > 0 AND (sc.amount <> 0 OR (sc.sold_before AND sc.sold_after))
   AND abs(0.6745 * (sc.amount - sc.typical) / sc.spread) > settings.threshold
-  AND sc.day >= coalesce(@start, '0000-01-01') AND sc.day < coalesce(@stop, '9999-12-31')
-ORDER BY sc.day, sc.item;
+  AND sc.day >= coalesce(@start, '0000-01-01') AND sc.day < coalesce(@stop, '9999-12-31');
+-- Without @by_segment the columns are those of the report before segments.
+SELECT day, item, amount, typical, score, kind
+FROM temp.almanac_anomaly_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY day, item;
+SELECT * FROM temp.almanac_anomaly_rows WHERE @by_segment = 1
+ORDER BY segment <> 'all segments', segment, day, item;
+DROP TABLE temp.almanac_anomaly_rows;

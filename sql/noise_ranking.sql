@@ -5,12 +5,13 @@
 -- a change in it means anything; a quiet one shows a change at once.
 --
 -- Reads a table or view named sales:
---   sales(ts, item, qty, amount)
+--   sales(ts, item, qty, amount [, segment])
 --     ts      when the sale happened: an almanac time value, normally UTC text
 --             'YYYY-MM-DD HH:MM:SS' as point-of-sale exports write it
 --     item    TEXT, what was sold
 --     qty     number of units sold (not used here)
 --     amount  money received for the sale
+--     segment optional: a shop, a channel, a category (see @by_segment)
 --   Other columns are ignored. A table with other names: put a view in front
 --   of it in the same session (a temp view named sales is found before a
 --   table main.sales, so it can also narrow one down):
@@ -31,6 +32,9 @@
 --   @zone         IANA time zone of the shop's calendar     default 'UTC'
 --   @start        first local day, "'YYYY-MM-DD'"          default: the day of the first sale
 --   @stop         local day after the last one             default: the day after the last sale
+--   @by_segment   1: a first column segment, and the ranking of each segment
+--                 (computed on that segment's rows alone) after the one of
+--                 'all segments' ('(none)' for rows whose segment is NULL)   default 0
 --   Weeks are ISO weeks (Monday start). A week only partly inside the range
 --   pulls the line down at that end: choose @start on a Monday and @stop on a
 --   Monday to fit whole weeks only.
@@ -50,46 +54,67 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/noise_ranking.sql
+-- The rows are gathered in a temporary table first, so that the segment column
+-- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_noise_rows;
+CREATE TEMP TABLE almanac_noise_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment
+),
+-- Every row counts for 'all segments', and with @by_segment also for its own
+-- segment; everything below is computed per segment, so a segment's rows are
+-- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
+-- sales.segment when the table has one (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, s.item, s.amount, 'all segments' AS segment FROM sales AS s
+  UNION ALL
+  SELECT s.ts, s.item, s.amount, coalesce(segment, '(none)')
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE settings.by_segment = 1
 ),
 range AS (
-  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+  SELECT s.segment, coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
          coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM sales AS s, settings
+  FROM source AS s, settings
+  GROUP BY s.segment
 ),
 weeks AS (
-  SELECT p.serial, p.label
+  SELECT range.segment, p.serial, p.label
   FROM settings, range, periods(range.start, range.stop, 'week', settings.zone) AS p
 ),
 weekly_sales AS (
-  SELECT period_serial(s.ts, 'week', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
-  FROM sales AS s, settings, range
+  SELECT s.segment, period_serial(s.ts, 'week', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
+  FROM source AS s JOIN range USING (segment), settings
   WHERE period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
     AND period_serial(s.ts, 'day', settings.zone) < period_serial(range.stop, 'day', settings.zone)
-  GROUP BY 1, 2
+  GROUP BY 1, 2, 3
 ),
 -- Every week for every item: an item's week without sales is 0, not missing,
 -- or the line would be fitted to the good weeks only.
 weekly AS (
-  SELECT i.item, w.serial, coalesce(t.amount, 0) AS total
+  SELECT w.segment, i.item, w.serial, coalesce(t.amount, 0) AS total
   FROM weeks AS w
-  CROSS JOIN (SELECT DISTINCT item FROM weekly_sales) AS i
-  LEFT JOIN weekly_sales AS t ON t.serial = w.serial AND t.item = i.item
+  JOIN (SELECT DISTINCT segment, item FROM weekly_sales) AS i USING (segment)
+  LEFT JOIN weekly_sales AS t ON t.segment = w.segment AND t.serial = w.serial AND t.item = i.item
 ),
 fit AS (
-  SELECT item, count(*) AS weeks, avg(total) AS mean,
+  SELECT segment, item, count(*) AS weeks, avg(total) AS mean,
          resid_sd(total, serial) AS resid_sd, stddev_samp(total) AS sd
   FROM weekly
-  GROUP BY item
+  GROUP BY segment, item
 )
-SELECT row_number() OVER (ORDER BY resid_sd / mean DESC, item) AS rank,
+SELECT segment, row_number() OVER (PARTITION BY segment ORDER BY resid_sd / mean DESC, item) AS rank,
        item, weeks,
        round(mean, 2) AS mean_per_week,
        round(resid_sd, 2) AS resid_sd,
        round(100.0 * resid_sd / mean, 1) AS noise_pct,
        round(100.0 * sd / mean, 1) AS sd_pct
 FROM fit
-WHERE mean > 0
-ORDER BY rank;
+WHERE mean > 0;
+-- Without @by_segment the columns are those of the report before segments.
+SELECT rank, item, weeks, mean_per_week, resid_sd, noise_pct, sd_pct
+FROM temp.almanac_noise_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY rank;
+SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1
+ORDER BY segment <> 'all segments', segment, rank;
+DROP TABLE temp.almanac_noise_rows;

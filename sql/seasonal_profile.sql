@@ -13,7 +13,8 @@
 -- fast-growing item with the trend table beside it.
 --
 -- Reads a table or view named sales:
---   sales(ts, item, qty, amount)  as in sql/trend.sql; amounts added with exact_sum.
+--   sales(ts, item, qty, amount [, segment])  as in sql/trend.sql; amounts added with
+--   exact_sum; segment, optional, is a shop, a channel, a category (see @by_segment).
 --
 -- Your data (README, "Your data"): ts holds UTC instants; @zone only chooses the
 -- calendar. An export written in local time is converted once, in the view,
@@ -28,6 +29,9 @@
 --   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
 --   @stop    local day after the last one                default: the day after the last sale
 --   @item    unset: every item; a name: that item only
+--   @by_segment  1: a first column segment, and the profile of each segment
+--                (computed on that segment's rows alone, over its own range)
+--                after the one of 'all segments' ('(none)' for a NULL segment)   default 0
 --
 -- Columns, one row per item, in item order:
 --   item
@@ -40,71 +44,95 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/seasonal_profile.sql
+-- The rows are gathered in a temporary table first, so that the segment column
+-- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_seasonal_rows;
+CREATE TEMP TABLE almanac_seasonal_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice
+  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice, coalesce(@by_segment, 0) AS by_segment
+),
+-- Every row counts for 'all segments', and with @by_segment also for its own
+-- segment; everything below is computed per segment, so a segment's rows are
+-- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
+-- sales.segment when the table has one (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, s.item, s.amount, 'all segments' AS segment FROM sales AS s
+  UNION ALL
+  SELECT s.ts, s.item, s.amount, coalesce(segment, '(none)')
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE settings.by_segment = 1
 ),
 range AS (
-  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+  SELECT s.segment, coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
          coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM sales AS s, settings
+  FROM source AS s, settings
+  GROUP BY s.segment
 ),
 daily_sales AS (
-  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
-  FROM sales AS s, settings
+  SELECT s.segment, period_serial(s.ts, 'day', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
+  FROM source AS s, settings
   WHERE settings.item_choice IS NULL OR s.item = settings.item_choice
-  GROUP BY 1, 2
+  GROUP BY 1, 2, 3
 ),
 days AS (
-  SELECT p.serial, period_position(p.period_start, 'day', 'week') AS weekday,
+  SELECT range.segment, p.serial, period_position(p.period_start, 'day', 'week') AS weekday,
          period_position(p.period_start, 'month', 'year') AS month
   FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
 ),
 daily AS (
-  SELECT i.item, d.weekday, d.month, coalesce(t.amount, 0) AS amount
+  SELECT d.segment, i.item, d.weekday, d.month, coalesce(t.amount, 0) AS amount
   FROM days AS d
-  CROSS JOIN (SELECT DISTINCT item FROM daily_sales) AS i
-  LEFT JOIN daily_sales AS t ON t.serial = d.serial AND t.item = i.item
+  JOIN (SELECT DISTINCT segment, item FROM daily_sales) AS i USING (segment)
+  LEFT JOIN daily_sales AS t ON t.segment = d.segment AND t.serial = d.serial AND t.item = i.item
 ),
 overall AS (
-  SELECT item, avg(amount) AS mean, count(*) AS days FROM daily GROUP BY item
+  SELECT segment, item, avg(amount) AS mean, count(*) AS days FROM daily GROUP BY segment, item
 ),
 by_weekday AS (
-  SELECT d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx
-  FROM daily AS d JOIN overall AS o USING (item) GROUP BY d.item, d.weekday
+  SELECT d.segment, d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  FROM daily AS d JOIN overall AS o USING (segment, item) GROUP BY d.segment, d.item, d.weekday
 ),
 by_month AS (
-  SELECT d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx
-  FROM daily AS d JOIN overall AS o USING (item) GROUP BY d.item, d.month
+  SELECT d.segment, d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  FROM daily AS d JOIN overall AS o USING (segment, item) GROUP BY d.segment, d.item, d.month
 ),
 peaks AS (
-  SELECT item,
-         (SELECT position FROM by_weekday AS w WHERE w.item = o.item ORDER BY idx DESC, position LIMIT 1) AS day,
-         (SELECT position FROM by_month AS m WHERE m.item = o.item ORDER BY idx DESC, position LIMIT 1) AS month
+  SELECT segment, item,
+         (SELECT position FROM by_weekday AS w WHERE w.segment = o.segment AND w.item = o.item
+          ORDER BY idx DESC, position LIMIT 1) AS day,
+         (SELECT position FROM by_month AS m WHERE m.segment = o.segment AND m.item = o.item
+          ORDER BY idx DESC, position LIMIT 1) AS month
   FROM overall AS o
 )
-SELECT o.item,
+SELECT o.segment, o.item,
        substr('MonTueWedThuFriSatSun', 3 * p.day - 2, 3) AS peak_day,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 1) AS mon,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 2) AS tue,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 3) AS wed,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 4) AS thu,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 5) AS fri,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 6) AS sat,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE item = o.item AND position = 7) AS sun,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 1) AS mon,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 2) AS tue,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 3) AS wed,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 4) AS thu,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 5) AS fri,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 6) AS sat,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 7) AS sun,
        substr('JanFebMarAprMayJunJulAugSepOctNovDec', 3 * p.month - 2, 3) AS peak_month,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 1) AS jan,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 2) AS feb,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 3) AS mar,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 4) AS apr,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 5) AS may,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 6) AS jun,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 7) AS jul,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 8) AS aug,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 9) AS sep,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 10) AS oct,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 11) AS nov,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE item = o.item AND position = 12) AS "dec",
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 1) AS jan,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 2) AS feb,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 3) AS mar,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 4) AS apr,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 5) AS may,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 6) AS jun,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 7) AS jul,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 8) AS aug,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 9) AS sep,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 10) AS oct,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 11) AS nov,
+       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 12) AS "dec",
        o.days
-FROM overall AS o JOIN peaks AS p USING (item)
-ORDER BY o.item;
+FROM overall AS o JOIN peaks AS p USING (segment, item);
+-- Without @by_segment the columns are those of the report before segments.
+SELECT item, peak_day, mon, tue, wed, thu, fri, sat, sun, peak_month, jan, feb, mar, apr, may, jun, jul, aug,
+       sep, oct, nov, "dec", days
+FROM temp.almanac_seasonal_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item;
+SELECT * FROM temp.almanac_seasonal_rows WHERE @by_segment = 1
+ORDER BY segment <> 'all segments', segment, item;
+DROP TABLE temp.almanac_seasonal_rows;

@@ -28,12 +28,13 @@
 -- on July to November is "rising"). Read such verdicts with the shape column.
 --
 -- Reads a table or view named sales:
---   sales(ts, item, qty, amount)
+--   sales(ts, item, qty, amount [, segment])
 --     ts      when the sale happened: an almanac time value, normally UTC text
 --             'YYYY-MM-DD HH:MM:SS' as point-of-sale exports write it
 --     item    TEXT, what was sold
 --     qty     number of units sold (not used here)
 --     amount  money received for the sale (added with exact_sum)
+--     segment optional: a shop, a channel, a category (see @by_segment)
 --   Other columns are ignored. A table with other names: put a view in front
 --   of it in the same session (a temp view named sales is found before a
 --   table main.sales, so it can also narrow one down):
@@ -55,6 +56,10 @@
 --   @start        first local day, "'YYYY-MM-DD'"          default: the day of the first sale
 --   @stop         local day after the last one             default: the day after the last sale
 --   @spark_weeks  weeks per sparkline character            default 4
+--   @by_segment   1: a first column segment, and the table of each segment
+--                 (computed on that segment's rows alone: its own range, weeks
+--                 and test) after the one of 'all segments' ('(none)' for rows
+--                 whose segment is NULL)                  default 0
 --   Only whole ISO weeks (Monday to Sunday) inside [@start, @stop) are used:
 --   a week cut by either end would look like a drop.
 --
@@ -86,61 +91,78 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/trend.sql
+-- The rows are gathered in a temporary table first, so that the segment column
+-- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_trend_rows;
+CREATE TEMP TABLE almanac_trend_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@spark_weeks, 4) AS spark_weeks,
-         10 AS min_weeks, 104 AS seasonal_weeks
+         10 AS min_weeks, 104 AS seasonal_weeks, coalesce(@by_segment, 0) AS by_segment
+),
+-- Every row counts for 'all segments', and with @by_segment also for its own
+-- segment; everything below is computed per segment, so a segment's rows are
+-- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
+-- sales.segment when the table has one (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, s.item, s.amount, 'all segments' AS segment FROM sales AS s
+  UNION ALL
+  SELECT s.ts, s.item, s.amount, coalesce(segment, '(none)')
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE settings.by_segment = 1
 ),
 bounds AS (
-  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+  SELECT s.segment, coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
          coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM sales AS s, settings
+  FROM source AS s, settings
+  GROUP BY s.segment
 ),
 -- Whole weeks: from the first Monday on or after start to the last Monday
 -- on or before stop.
 range AS (
-  SELECT CASE WHEN period_floor(b.start, 'week', s.zone) = period_floor(b.start, 'day', s.zone)
+  SELECT b.segment,
+         CASE WHEN period_floor(b.start, 'week', s.zone) = period_floor(b.start, 'day', s.zone)
               THEN b.start ELSE period_end(b.start, 'week', s.zone) END AS start,
          period_floor(b.stop, 'week', s.zone) AS stop
   FROM bounds AS b, settings AS s
 ),
 weeks AS (
-  SELECT p.serial, period_position(p.period_start, 'week', 'year', settings.zone) AS week_of_year
+  SELECT range.segment, p.serial, period_position(p.period_start, 'week', 'year', settings.zone) AS week_of_year
   FROM settings, range, periods(range.start, range.stop, 'week', settings.zone) AS p
 ),
 span AS (
-  SELECT count(*) AS weeks, min(serial) AS first, max(serial) AS last,
+  SELECT segment, count(*) AS weeks, min(serial) AS first, max(serial) AS last,
          count(*) >= (SELECT seasonal_weeks FROM settings) AS seasonal
   FROM weeks
+  GROUP BY segment
 ),
 weekly_sales AS (
-  SELECT period_serial(s.ts, 'week', settings.zone) AS serial, s.item,
+  SELECT s.segment, period_serial(s.ts, 'week', settings.zone) AS serial, s.item,
          exact_sum(s.amount) AS amount
-  FROM sales AS s, settings
-  WHERE period_serial(s.ts, 'week', settings.zone) BETWEEN (SELECT first FROM span)
-                                                       AND (SELECT last FROM span)
-  GROUP BY 1, 2
+  FROM source AS s JOIN span USING (segment), settings
+  WHERE period_serial(s.ts, 'week', settings.zone) BETWEEN span.first AND span.last
+  GROUP BY 1, 2, 3
 ),
 -- Every week for every item: an item's week without sales is 0, not
 -- missing, or the trend would be judged on the good weeks only.
 weekly AS (
-  SELECT i.item, w.serial, w.week_of_year, coalesce(t.amount, 0) AS total
+  SELECT w.segment, i.item, w.serial, w.week_of_year, coalesce(t.amount, 0) AS total
   FROM weeks AS w
-  CROSS JOIN (SELECT DISTINCT item FROM weekly_sales) AS i
-  LEFT JOIN weekly_sales AS t ON t.serial = w.serial AND t.item = i.item
+  JOIN (SELECT DISTINCT segment, item FROM weekly_sales) AS i USING (segment)
+  LEFT JOIN weekly_sales AS t ON t.segment = w.segment AND t.serial = w.serial AND t.item = i.item
 ),
 -- The season of each week for the tests: its ISO week number when the
 -- range is seasonal, else NULL; and NULL as well, in a seasonal range,
 -- for a week of the year in which the item never sold.
 seasons AS (
-  SELECT w.item, w.serial, w.total,
+  SELECT w.segment, w.item, w.serial, w.total,
          CASE WHEN span.seasonal AND traded.any_sales THEN w.week_of_year END AS season
-  FROM weekly AS w, span
-  JOIN (SELECT item, week_of_year, max(total <> 0) AS any_sales
-        FROM weekly GROUP BY 1, 2) AS traded USING (item, week_of_year)
+  FROM weekly AS w JOIN span USING (segment)
+  JOIN (SELECT segment, item, week_of_year, max(total <> 0) AS any_sales
+        FROM weekly GROUP BY 1, 2, 3) AS traded USING (segment, item, week_of_year)
 ),
 fit AS (
-  SELECT s.item, span.seasonal,
+  SELECT s.segment, s.item, span.seasonal,
          CASE WHEN span.seasonal THEN mann_kendall_p(s.total, s.serial, s.season)
               ELSE mann_kendall_p(s.total, s.serial) END AS p,
          CASE WHEN span.seasonal THEN theil_sen_slope(s.total, s.serial, s.season)
@@ -148,18 +170,18 @@ fit AS (
          CASE WHEN span.seasonal THEN avg(CASE WHEN s.season IS NOT NULL THEN s.total END)
               ELSE avg(s.total) END AS mean,
          regr_slope(s.total, s.serial) AS ls
-  FROM seasons AS s, span
-  GROUP BY s.item
+  FROM seasons AS s JOIN span USING (segment)
+  GROUP BY s.segment, s.item
 ),
 shape AS (
-  SELECT item, sparkline(total, block) AS shape
-  FROM (SELECT item, (serial - (SELECT first FROM span)) / settings.spark_weeks AS block,
-               avg(total) AS total
-        FROM weekly, settings
-        GROUP BY 1, 2)
-  GROUP BY item
+  SELECT segment, item, sparkline(total, block) AS shape
+  FROM (SELECT w.segment, w.item, (w.serial - span.first) / settings.spark_weeks AS block,
+               avg(w.total) AS total
+        FROM weekly AS w JOIN span USING (segment), settings
+        GROUP BY 1, 2, 3)
+  GROUP BY segment, item
 )
-SELECT f.item,
+SELECT f.segment, f.item,
        CASE WHEN span.weeks < settings.min_weeks THEN 'too few periods'
             WHEN f.p IS NULL OR f.p >= 0.05 THEN 'no clear trend'
             WHEN coalesce(nullif(f.sen, 0), f.ls) > 0 THEN 'rising'
@@ -172,6 +194,13 @@ SELECT f.item,
        round(f.mean, 2) AS mean_per_week,
        round(f.sen, 2) AS sen_slope,
        round(f.ls, 2) AS ls_slope,
-       s.shape
-FROM fit AS f JOIN shape AS s USING (item), span, settings
-ORDER BY f.sen / f.mean DESC, f.item;
+       s.shape,
+       row_number() OVER (PARTITION BY f.segment ORDER BY f.sen / f.mean DESC, f.item) AS place
+FROM fit AS f JOIN shape AS s USING (segment, item) JOIN span USING (segment), settings;
+-- Without @by_segment the columns are those of the report before segments.
+SELECT item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
+FROM temp.almanac_trend_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY place;
+SELECT segment, item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
+FROM temp.almanac_trend_rows WHERE @by_segment = 1
+ORDER BY segment <> 'all segments', segment, place;
+DROP TABLE temp.almanac_trend_rows;

@@ -3,12 +3,13 @@
 -- compares with the rest of the week, in the shop's local calendar.
 --
 -- Reads a table or view named sales:
---   sales(ts, item, qty, amount)
+--   sales(ts, item, qty, amount [, segment])
 --     ts      when the sale happened: an almanac time value, normally UTC text
 --             'YYYY-MM-DD HH:MM:SS' as point-of-sale exports write it
 --     item    TEXT, what was sold
 --     qty     number of units sold
 --     amount  money received for the sale
+--     segment optional: a shop, a channel, a category (see @by_segment)
 --   Other columns are ignored. A table with other names: put a view in front
 --   of it in the same session (a temp view named sales is found before a
 --   table main.sales, so it can also narrow one down):
@@ -29,6 +30,9 @@
 --   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
 --   @stop    local day after the last one                default: the day after the last sale
 --   @item    unset: all items together; '*': one profile per item; a name: that item only
+--   @by_segment  1: a first column segment, and the profile of each segment
+--                (computed on that segment's rows alone, over its own range)
+--                after the one of 'all segments' ('(none)' for a NULL segment)   default 0
 --
 -- Columns, Monday first:
 --   weekday          Monday .. Sunday
@@ -45,51 +49,68 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/weekday_profile.sql
+-- The rows are gathered in a temporary table first, so that the segment column
+-- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_weekday_rows;
+CREATE TEMP TABLE almanac_weekday_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice
+  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice, coalesce(@by_segment, 0) AS by_segment
+),
+-- Every row counts for 'all segments', and with @by_segment also for its own
+-- segment; everything below is computed per segment, so a segment's rows are
+-- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
+-- sales.segment when the table has one (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, s.item, s.qty, s.amount, 'all segments' AS segment FROM sales AS s
+  UNION ALL
+  SELECT s.ts, s.item, s.qty, s.amount, coalesce(segment, '(none)')
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE settings.by_segment = 1
 ),
 chosen AS (
-  SELECT s.ts, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE s.item END AS item,
+  SELECT s.segment, s.ts, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE s.item END AS item,
          s.qty, s.amount, period_serial(s.ts, 'day', settings.zone) AS day
-  FROM sales AS s, settings
+  FROM source AS s, settings
   WHERE settings.item_choice IS NULL OR settings.item_choice = '*' OR s.item = settings.item_choice
 ),
 range AS (
-  SELECT coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
+  SELECT s.segment, coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
          coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM sales AS s, settings
+  FROM source AS s, settings
+  GROUP BY s.segment
 ),
 daily_sales AS (
-  SELECT c.day AS serial, c.item, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount
-  FROM chosen AS c, settings, range
+  SELECT c.segment, c.day AS serial, c.item, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount
+  FROM chosen AS c JOIN range USING (segment), settings
   WHERE c.day >= period_serial(range.start, 'day', settings.zone)
     AND c.day < period_serial(range.stop, 'day', settings.zone)
-  GROUP BY 1, 2
+  GROUP BY 1, 2, 3
 ),
 -- Every day of the range for every item. Day serial 0 is 1970-01-01, a
 -- Thursday, so (serial + 3) mod 7 counts from Monday = 0 (the outer + 7 keeps
 -- days before 1970 positive).
 daily AS (
-  SELECT i.item, ((p.serial + 3) % 7 + 7) % 7 AS weekday,
+  SELECT range.segment, i.item, ((p.serial + 3) % 7 + 7) % 7 AS weekday,
          t.serial AS sold, t.qty, t.amount
   FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
-  CROSS JOIN (SELECT DISTINCT item FROM chosen) AS i
-  LEFT JOIN daily_sales AS t ON t.serial = p.serial AND t.item = i.item
+  JOIN (SELECT DISTINCT segment, item FROM chosen) AS i ON i.segment = range.segment
+  LEFT JOIN daily_sales AS t ON t.segment = range.segment AND t.serial = p.serial AND t.item = i.item
 ),
 profile AS (
-  SELECT item, weekday, count(*) AS days, count(sold) AS days_with_sales,
+  SELECT segment, item, weekday, count(*) AS days, count(sold) AS days_with_sales,
          coalesce(exact_sum(qty), 0) AS qty, coalesce(exact_sum(amount), 0) AS amount,
          avg(amount) AS mean, median(amount) AS median
   FROM daily
-  GROUP BY item, weekday
+  GROUP BY segment, item, weekday
 ),
 overall AS (
-  SELECT item, exact_sum(amount) AS amount, exact_sum(amount) / exact_sum(days_with_sales) AS mean_day
+  SELECT segment, item, exact_sum(amount) AS amount,
+         exact_sum(amount) / exact_sum(days_with_sales) AS mean_day
   FROM profile
-  GROUP BY item
+  GROUP BY segment, item
 )
-SELECT CASE p.weekday WHEN 0 THEN 'Monday' WHEN 1 THEN 'Tuesday' WHEN 2 THEN 'Wednesday'
+SELECT p.segment, p.weekday AS weekday_number, CASE p.weekday WHEN 0 THEN 'Monday' WHEN 1 THEN 'Tuesday' WHEN 2 THEN 'Wednesday'
          WHEN 3 THEN 'Thursday' WHEN 4 THEN 'Friday' WHEN 5 THEN 'Saturday' ELSE 'Sunday' END AS weekday,
        p.item, p.days, p.days_with_sales, p.qty,
        round(p.amount, 2) AS amount,
@@ -97,5 +118,12 @@ SELECT CASE p.weekday WHEN 0 THEN 'Monday' WHEN 1 THEN 'Tuesday' WHEN 2 THEN 'We
        round(p.mean, 2) AS mean_per_day,
        round(p.median, 2) AS median_per_day,
        round(100.0 * p.mean / o.mean_day, 1) AS "index"
-FROM profile AS p JOIN overall AS o USING (item)
-ORDER BY p.item, p.weekday;
+FROM profile AS p JOIN overall AS o USING (segment, item);
+-- Without @by_segment the columns are those of the report before segments.
+SELECT weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day, "index"
+FROM temp.almanac_weekday_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item, weekday_number;
+SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day,
+       "index"
+FROM temp.almanac_weekday_rows WHERE @by_segment = 1
+ORDER BY segment <> 'all segments', segment, item, weekday_number;
+DROP TABLE temp.almanac_weekday_rows;
