@@ -10,7 +10,6 @@ A seeded fixture of three shops (segments). For each report:
 - where a column adds up, it is also checked against math.fsum over the rows.
 """
 import datetime as dt
-import json
 import math
 import random
 import sqlite3
@@ -18,7 +17,7 @@ from zoneinfo import ZoneInfo
 
 import pytest
 
-from conftest import SOURCE, run_shell
+from test_season_reports import report  # runs sql/<name>.sql in the shell's JSON mode
 
 ZONE = "America/Denver"
 SEGMENTS = ("Harbour", "Market", "Station")
@@ -79,13 +78,6 @@ def shops(tmp_path_factory):
     for segment in SEGMENTS:
         databases[segment] = write(folder / f"{segment}.db", [r for r in rows if r[4] == segment], False)
     return rows, databases
-
-
-def report(path, name, **params):
-    lines = "".join(f".parameter set @{k} \"'{v}'\"\n" if isinstance(v, str) else f".parameter set @{k} {v}\n"
-                    for k, v in params.items())
-    output = run_shell(lines + ".mode json\n" + (SOURCE / "sql" / f"{name}.sql").read_text(), database=str(path))
-    return json.loads(output) if output.strip() else []
 
 
 def without_segment(rows):
