@@ -113,8 +113,7 @@ std::optional<std::string> read_text(const ArgumentRef& arg, sqlite3_value* valu
     }
 }
 
-namespace {
-TimeValue parse_time_value(sqlite3_value* value) {
+TimeValue time_value_of(sqlite3_value* value) {
     switch (sqlite3_value_type(value)) {
         case SQLITE_INTEGER:
             return parse_time_integer(sqlite3_value_int64(value));
@@ -128,12 +127,11 @@ TimeValue parse_time_value(sqlite3_value* value) {
             throw Error("expected a time value, not a BLOB");
     }
 }
-}  // namespace
 
 std::optional<TimeValue> read_time(const ArgumentRef& arg, sqlite3_value* value) {
     if (sqlite3_value_type(value) == SQLITE_NULL) return std::nullopt;
     try {
-        return parse_time_value(value);
+        return time_value_of(value);
     } catch (const Error& error) {
         raise_argument_error(arg, value, error.what());
     }
@@ -141,7 +139,7 @@ std::optional<TimeValue> read_time(const ArgumentRef& arg, sqlite3_value* value)
 
 bool is_valid_time(sqlite3_value* value) {
     try {
-        parse_time_value(value);
+        time_value_of(value);
         return true;
     } catch (const Error&) {
         return false;

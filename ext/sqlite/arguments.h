@@ -46,6 +46,9 @@ std::optional<std::int64_t> read_integer(const ArgumentRef& arg, sqlite3_value* 
 std::optional<std::string> read_text(const ArgumentRef& arg, sqlite3_value* value);
 // A time value (see core/time_value.h).
 std::optional<TimeValue> read_time(const ArgumentRef& arg, sqlite3_value* value);
+// The same rules for a value that is not an argument (a column a table
+// function reads): throws almanac::Error saying what was expected; not NULL.
+TimeValue time_value_of(sqlite3_value* value);
 // Same rules, never raises: valid_time(). The caller handles NULL.
 bool is_valid_time(sqlite3_value* value);
 

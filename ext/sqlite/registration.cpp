@@ -8,9 +8,9 @@
 extern "C" int almanac_register(sqlite3* db) {
     using namespace almanac::sqlite;
     for (auto step :
-         {register_period_functions, register_periods_table, register_statistics_functions,
-          register_order_statistics_functions, register_report_functions, register_export_functions,
-          register_season_functions}) {
+         {register_period_functions, register_periods_table, register_period_totals_table,
+          register_statistics_functions, register_order_statistics_functions,
+          register_report_functions, register_export_functions, register_season_functions}) {
         int rc = step(db);
         if (rc != SQLITE_OK) return rc;
     }

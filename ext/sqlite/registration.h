@@ -8,6 +8,7 @@ namespace almanac::sqlite {
 
 int register_period_functions(sqlite3* db);
 int register_periods_table(sqlite3* db);
+int register_period_totals_table(sqlite3* db);
 int register_statistics_functions(sqlite3* db);
 int register_order_statistics_functions(sqlite3* db);
 int register_report_functions(sqlite3* db);

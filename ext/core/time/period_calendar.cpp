@@ -343,6 +343,16 @@ Instant PeriodCalendar::floor(Instant t) const {
     return start;
 }
 
+std::int64_t PeriodCalendar::serial_of(Instant t) const {
+    if (sub_day_) return sub_day_->period_of(t).serial;
+    std::int64_t k = grid_->index_of(clock_.to_local(t));
+    if (clock_.is_utc()) return k - grid_->epoch_index();
+    // As in floor(): only an offset change inside the period needs the full path.
+    Instant start = clock_.first_instant_at(grid_->boundary(k));
+    if (clock_.regime_at(t).begin > start) return period_of(t).serial;
+    return k - grid_->epoch_index();
+}
+
 Instant PeriodCalendar::start_of_day(date::local_days day) const {
     return clock_.first_instant_at(LocalTime{day.time_since_epoch()});
 }

@@ -35,6 +35,8 @@ class PeriodCalendar {
     Period period_of(Instant t) const;
     // The start of period_of(t), by a shorter path where there is one.
     Instant floor(Instant t) const;
+    // period_of(t).serial, without working out the period's end.
+    std::int64_t serial_of(Instant t) const;
     // A calendar day (bare YYYY-MM-DD) begins at the clock's first instant of that day.
     Instant start_of_day(date::local_days day) const;
     // A parsed time value as an instant: a calendar day at its start on this

@@ -1,0 +1,581 @@
+// SPDX-License-Identifier: MIT
+// period_totals(source, spec [, zone]): a table-valued function.
+//
+//  1. Reads the table or view named `source` once, without sorting it: its
+//     columns ts and amount, and item and qty when it has them. `source` is
+//     'name' or 'schema.name' ('main.sales', 'shop2.sales' of an ATTACHed
+//     database); it is looked up with bound parameters and quoted as an
+//     identifier in the one SELECT that reads it, never pasted into SQL.
+//  2. Returns one row per item per period of `spec` (in `zone`, when given),
+//     from the period of the earliest row to that of the latest, empty
+//     periods included, in item order (SQLite's: NULL, numbers, TEXT, BLOBs)
+//     then period order. Columns: item, period_start, period_end, label,
+//     serial, sales, qty, amount; the arguments are the hidden columns
+//     source, spec, zone.
+//  3. sales is the number of rows; qty and amount are exact sums (as
+//     exact_sum: INTEGER while every value is an INTEGER and the sum fits,
+//     otherwise the correctly rounded REAL); 0 for an empty period, NULL for
+//     a period whose rows hold only NULLs in that column.
+//  4. A source without item is one group with item NULL; without qty, qty is
+//     NULL. Rows whose ts is NULL are skipped.
+//  5. period_start and period_end are in the representation of the earliest
+//     row's ts (TEXT, Unix seconds or Julian day), as period_floor gives them.
+//  6. Memory is O(items x periods): more than kMaxCells item-period rows is an
+//     error, raised before the memory is taken.
+//  7. A NULL source, spec or zone gives no rows. A missing source or spec, a
+//     name that is not a table or view, a source without ts or amount, a ts
+//     that is not a time value, an amount or qty that is not a number (TEXT
+//     that SQLite does not read as a number, a BLOB, an infinity) is an error.
+//  8. SQLITE_DIRECTONLY: not usable inside a view or trigger, because it
+//     reads a table named by a value.
+#include <cmath>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "arguments.h"
+#include "core/stats/period_totals.h"
+#include "core/text/error.h"
+#include "period_context.h"
+#include "registration.h"
+
+namespace almanac::sqlite {
+namespace {
+
+constexpr const char* kName = "period_totals";
+// About 300 bytes per item-period cell while it accumulates: at most ~300 MiB.
+constexpr std::uint64_t kMaxCells = 1000000;
+
+enum Column {
+    kItem,
+    kPeriodStart,
+    kPeriodEnd,
+    kLabel,
+    kSerial,
+    kSales,
+    kQty,
+    kAmount,
+    kSource,
+    kSpec,
+    kZone
+};
+constexpr int kFirstArgument = kSource;
+constexpr int kArguments = 3;
+
+struct Table {
+    sqlite3_vtab base{};
+    sqlite3* db = nullptr;
+};
+
+struct Cursor {
+    sqlite3_vtab_cursor base{};
+    std::optional<PeriodCalendar> calendar;
+    std::unique_ptr<PeriodTotals> totals;
+    std::vector<std::size_t> order;
+    bool has_qty = false;
+    TimeValue like;
+    std::size_t item = 0;  // position in order
+    Period current{};
+    bool done = true;
+    sqlite3_int64 row = 0;
+    sqlite3_value* arguments[kArguments] = {nullptr, nullptr, nullptr};
+
+    ~Cursor() { release_arguments(); }
+    void release_arguments() {
+        for (auto*& value : arguments) {
+            sqlite3_value_free(value);
+            value = nullptr;
+        }
+    }
+};
+
+// Finalizes a statement however the scope is left.
+struct Statement {
+    sqlite3_stmt* handle = nullptr;
+    ~Statement() { sqlite3_finalize(handle); }
+};
+
+int set_error(sqlite3_vtab* table, const std::string& message) {
+    sqlite3_free(table->zErrMsg);
+    table->zErrMsg = sqlite3_mprintf("%s", message.c_str());
+    return SQLITE_ERROR;
+}
+
+int connect(sqlite3* db, void*, int, const char* const*, sqlite3_vtab** out, char**) {
+    int rc = sqlite3_declare_vtab(
+        db,
+        "CREATE TABLE x(item, period_start, period_end, label TEXT, serial INTEGER,"
+        " sales INTEGER, qty, amount, source HIDDEN, spec HIDDEN, zone HIDDEN)");
+    if (rc != SQLITE_OK) return rc;
+    auto* table = static_cast<Table*>(sqlite3_malloc(sizeof(Table)));
+    if (!table) return SQLITE_NOMEM;
+    *table = Table{};
+    table->db = db;
+    *out = &table->base;
+    // It reads whatever table its argument names: a view or trigger must not
+    // be able to hide that from the user who runs it.
+    sqlite3_vtab_config(db, SQLITE_VTAB_DIRECTONLY);
+    return SQLITE_OK;
+}
+
+int disconnect(sqlite3_vtab* table) {
+    sqlite3_free(table);
+    return SQLITE_OK;
+}
+
+// idxNum has one bit per argument given as an equality constraint.
+int best_index(sqlite3_vtab*, sqlite3_index_info* info) {
+    int where[kArguments] = {-1, -1, -1};
+    for (int i = 0; i < info->nConstraint; ++i) {
+        const auto& constraint = info->aConstraint[i];
+        int argument = constraint.iColumn - kFirstArgument;
+        if (argument < 0 || argument >= kArguments) continue;
+        if (constraint.op != SQLITE_INDEX_CONSTRAINT_EQ) continue;
+        if (!constraint.usable) return SQLITE_CONSTRAINT;
+        where[argument] = i;
+    }
+    int mask = 0, next = 1;
+    for (int argument = 0; argument < kArguments; ++argument) {
+        if (where[argument] < 0) continue;
+        info->aConstraintUsage[where[argument]].argvIndex = next++;
+        info->aConstraintUsage[where[argument]].omit = 1;
+        mask |= 1 << argument;
+    }
+    info->idxNum = mask;
+    // A full scan of the source: expensive, so SQLite runs it once.
+    info->estimatedCost = 1e6;
+    info->estimatedRows = 10000;
+    return SQLITE_OK;
+}
+
+int open(sqlite3_vtab*, sqlite3_vtab_cursor** out) {
+    auto* cursor = new (std::nothrow) Cursor();
+    if (!cursor) return SQLITE_NOMEM;
+    *out = &cursor->base;
+    return SQLITE_OK;
+}
+
+int close(sqlite3_vtab_cursor* base) {
+    delete reinterpret_cast<Cursor*>(base);
+    return SQLITE_OK;
+}
+
+std::string quote_identifier(const std::string& name) {
+    std::string quoted = "\"";
+    for (char c : name) {
+        if (c == '"') quoted += '"';
+        quoted += c;
+    }
+    return quoted + "\"";
+}
+
+std::string database_error(sqlite3* db) { return std::string(kName) + "(): " + sqlite3_errmsg(db); }
+
+// The columns of `name` in `schema` (any database, searched as SQLite
+// searches, when schema is empty); empty when there is no such table or view.
+std::vector<std::string> columns_of(sqlite3* db, const std::string& schema,
+                                    const std::string& name) {
+    Statement query;
+    if (sqlite3_prepare_v2(db, "SELECT name FROM pragma_table_xinfo(?1, ?2)", -1, &query.handle,
+                           nullptr) != SQLITE_OK)
+        throw SqlError(database_error(db));
+    sqlite3_bind_text(query.handle, 1, name.data(), static_cast<int>(name.size()),
+                      SQLITE_TRANSIENT);
+    if (!schema.empty()) {
+        sqlite3_bind_text(query.handle, 2, schema.data(), static_cast<int>(schema.size()),
+                          SQLITE_TRANSIENT);
+    }
+    std::vector<std::string> columns;
+    int rc;
+    while ((rc = sqlite3_step(query.handle)) == SQLITE_ROW) {
+        const char* column = reinterpret_cast<const char*>(sqlite3_column_text(query.handle, 0));
+        columns.emplace_back(column ? column : "");
+    }
+    if (rc != SQLITE_DONE) throw SqlError(database_error(db));
+    return columns;
+}
+
+// The canonical name of an attached schema, or empty.
+std::string schema_named(sqlite3* db, const std::string& name) {
+    Statement query;
+    if (sqlite3_prepare_v2(db,
+                           "SELECT name FROM pragma_database_list WHERE name = ?1 COLLATE NOCASE",
+                           -1, &query.handle, nullptr) != SQLITE_OK)
+        throw SqlError(database_error(db));
+    sqlite3_bind_text(query.handle, 1, name.data(), static_cast<int>(name.size()),
+                      SQLITE_TRANSIENT);
+    if (sqlite3_step(query.handle) != SQLITE_ROW) return {};
+    const char* found = reinterpret_cast<const char*>(sqlite3_column_text(query.handle, 0));
+    return found ? found : "";
+}
+
+bool same_word(const std::string& a, const char* b) {
+    std::size_t i = 0;
+    for (; i < a.size() && b[i]; ++i) {
+        char x = a[i], y = b[i];
+        if (x >= 'A' && x <= 'Z') x = static_cast<char>(x - 'A' + 'a');
+        if (x != y) return false;
+    }
+    return i == a.size() && !b[i];
+}
+
+// The one SELECT that reads the source; which of item and qty it has.
+struct SourceQuery {
+    std::string sql;
+    bool has_item = false;
+    bool has_qty = false;
+};
+
+SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_value* source) {
+    std::string text = *read_text(source_arg, source);
+    // 'schema.name' when the part before the first dot is an attached
+    // database holding such a table; otherwise the whole text is the name, so
+    // a table whose name has a dot in it stays reachable.
+    std::string schema, name = text;
+    std::vector<std::string> columns;
+    std::size_t dot = text.find('.');
+    if (dot != std::string::npos) {
+        std::string found = schema_named(db, text.substr(0, dot));
+        if (!found.empty()) {
+            columns = columns_of(db, found, text.substr(dot + 1));
+            if (!columns.empty()) {
+                schema = found;
+                name = text.substr(dot + 1);
+            }
+        }
+    }
+    if (columns.empty()) columns = columns_of(db, "", text);
+    if (columns.empty()) {
+        raise_argument_error(source_arg, source,
+                             "no table or view of that name (expected 'name' or 'schema.name')");
+    }
+    const char* wanted[] = {"ts", "amount", "item", "qty"};
+    std::string found[4];
+    for (const auto& column : columns) {
+        for (int i = 0; i < 4; ++i) {
+            if (found[i].empty() && same_word(column, wanted[i])) found[i] = column;
+        }
+    }
+    for (int i = 0; i < 2; ++i) {
+        if (found[i].empty()) {
+            raise_argument_error(source_arg, source,
+                                 std::string("the source has no column ") + wanted[i] +
+                                     " (expected columns ts, amount, and optionally item, qty)");
+        }
+    }
+    SourceQuery query;
+    query.has_item = !found[2].empty();
+    query.has_qty = !found[3].empty();
+    query.sql = "SELECT " + quote_identifier(found[0]) + ", " + quote_identifier(found[1]);
+    if (query.has_item) query.sql += ", " + quote_identifier(found[2]);
+    if (query.has_qty) query.sql += ", " + quote_identifier(found[3]);
+    query.sql += " FROM ";
+    if (!schema.empty()) query.sql += quote_identifier(schema) + ".";
+    query.sql += quote_identifier(name);
+    return query;
+}
+
+[[noreturn]] void raise_cell_error(const ArgumentRef& source_arg, sqlite3_value* source,
+                                   const char* column, sqlite3_value* cell,
+                                   const std::string& what_was_expected) {
+    raise_argument_error(source_arg, source,
+                         std::string("column ") + column + " holds " + describe_value(cell) + ": " +
+                             what_was_expected);
+}
+
+// Adds one qty or amount value with exact_sum's strictness.
+void add_value(ColumnTotal& total, sqlite3_value* cell, const ArgumentRef& source_arg,
+               sqlite3_value* source, const char* column) {
+    switch (sqlite3_value_type(cell)) {
+        case SQLITE_NULL:
+            return;
+        case SQLITE_INTEGER:
+            return total.add_integer(sqlite3_value_int64(cell));
+        case SQLITE_FLOAT: {
+            double number = sqlite3_value_double(cell);
+            if (!std::isfinite(number))
+                raise_cell_error(source_arg, source, column, cell, "expected a finite number");
+            return total.add_real(number);
+        }
+        case SQLITE_TEXT: {
+            const char* text = reinterpret_cast<const char*>(sqlite3_value_text(cell));
+            auto number = numeric_text(std::string_view(
+                text ? text : "", static_cast<std::size_t>(sqlite3_value_bytes(cell))));
+            if (!number)
+                raise_cell_error(source_arg, source, column, cell,
+                                 "expected a number (TEXT that SQLite reads as a number)");
+            if (!std::isfinite(*number))
+                raise_cell_error(source_arg, source, column, cell, "expected a finite number");
+            return total.add_real(*number);
+        }
+        default:
+            raise_cell_error(source_arg, source, column, cell, "expected a number, not a BLOB");
+    }
+}
+
+// The one pass: every row of the source into the totals.
+void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqlite3_value* source) {
+    SourceQuery query = source_query(db, source_arg, source);
+    Statement statement;
+    if (sqlite3_prepare_v2(db, query.sql.c_str(), static_cast<int>(query.sql.size()),
+                           &statement.handle, nullptr) != SQLITE_OK)
+        throw SqlError(database_error(db));
+    cursor.has_qty = query.has_qty;
+    const int item_column = query.has_item ? 2 : -1;
+    const int qty_column = query.has_qty ? (query.has_item ? 3 : 2) : -1;
+    const PeriodCalendar& calendar = *cursor.calendar;
+    PeriodTotals& totals = *cursor.totals;
+    bool have_like = false;
+    std::int64_t like_serial = 0;
+    int rc;
+    while ((rc = sqlite3_step(statement.handle)) == SQLITE_ROW) {
+        sqlite3_value* ts = sqlite3_column_value(statement.handle, 0);
+        if (sqlite3_value_type(ts) == SQLITE_NULL) continue;
+        std::int64_t serial;
+        TimeValue time;
+        try {
+            time = time_value_of(ts);
+            serial = calendar.serial_of(place_on_time_line(time, calendar));
+        } catch (const Error& error) {
+            raise_cell_error(source_arg, source, "ts", ts, error.what());
+        }
+        if (!have_like || serial < like_serial) {
+            cursor.like = time;
+            like_serial = serial;
+            have_like = true;
+        }
+        ItemKey::Kind kind = ItemKey::Kind::Null;
+        std::int64_t integer = 0;
+        double real = 0;
+        std::string_view bytes;
+        if (item_column >= 0) {
+            sqlite3_stmt* s = statement.handle;
+            switch (sqlite3_column_type(s, item_column)) {
+                case SQLITE_INTEGER:
+                    kind = ItemKey::Kind::Integer;
+                    integer = sqlite3_column_int64(s, item_column);
+                    break;
+                case SQLITE_FLOAT:
+                    kind = ItemKey::Kind::Real;
+                    real = sqlite3_column_double(s, item_column);
+                    break;
+                case SQLITE_TEXT: {
+                    kind = ItemKey::Kind::Text;
+                    const char* text =
+                        reinterpret_cast<const char*>(sqlite3_column_text(s, item_column));
+                    bytes = std::string_view(
+                        text ? text : "",
+                        static_cast<std::size_t>(sqlite3_column_bytes(s, item_column)));
+                    break;
+                }
+                case SQLITE_BLOB: {
+                    kind = ItemKey::Kind::Blob;
+                    const char* blob =
+                        static_cast<const char*>(sqlite3_column_blob(s, item_column));
+                    bytes = std::string_view(
+                        blob ? blob : "",
+                        static_cast<std::size_t>(sqlite3_column_bytes(s, item_column)));
+                    break;
+                }
+                default:
+                    break;
+            }
+        }
+        PeriodCell* cell;
+        try {
+            cell = &totals.cell(kind, integer, real, bytes, serial);
+        } catch (const Error& error) {
+            raise_argument_error(source_arg, source, error.what());
+        }
+        ++cell->rows;
+        add_value(cell->amount, sqlite3_column_value(statement.handle, 1), source_arg, source,
+                  "amount");
+        if (qty_column >= 0) {
+            add_value(cell->qty, sqlite3_column_value(statement.handle, qty_column), source_arg,
+                      source, "qty");
+        }
+    }
+    if (rc != SQLITE_DONE) throw SqlError(database_error(db));
+}
+
+int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_value** argv) {
+    auto* cursor = reinterpret_cast<Cursor*>(base);
+    auto* table = reinterpret_cast<Table*>(base->pVtab);
+    cursor->release_arguments();
+    cursor->totals.reset();
+    cursor->order.clear();
+    cursor->done = true;
+    cursor->row = 0;
+    sqlite3_value* given[kArguments] = {nullptr, nullptr, nullptr};
+    for (int argument = 0, used = 0; argument < kArguments && used < argc; ++argument) {
+        if (mask & (1 << argument)) given[argument] = argv[used++];
+    }
+    for (int argument = 0; argument < kArguments; ++argument) {
+        if (given[argument]) cursor->arguments[argument] = sqlite3_value_dup(given[argument]);
+    }
+    static const char* names[kArguments] = {"source", "spec", "zone"};
+    for (int argument = 0; argument < 2; ++argument) {
+        if (!given[argument]) {
+            return set_error(base->pVtab,
+                             std::string(kName) + "(): argument " + std::to_string(argument + 1) +
+                                 " (" + names[argument] +
+                                 ") is missing: expected period_totals(source, spec [, zone])");
+        }
+    }
+    try {
+        for (int argument = 0; argument < kArguments; ++argument) {
+            if (given[argument] && sqlite3_value_type(given[argument]) == SQLITE_NULL)
+                return SQLITE_OK;
+        }
+        ArgumentRef source_arg{kName, 1, "source"}, spec_arg{kName, 2, "spec"},
+            zone_arg{kName, 3, "zone"};
+        cursor->calendar.emplace(
+            make_calendar(spec_arg, given[1], given[2] ? &zone_arg : nullptr, given[2]));
+        cursor->totals = std::make_unique<PeriodTotals>(kMaxCells);
+        accumulate(table->db, *cursor, source_arg, given[0]);
+        if (cursor->totals->empty()) return SQLITE_OK;
+        cursor->order = cursor->totals->items_in_order();
+        cursor->item = 0;
+        cursor->current = cursor->calendar->period_by_serial(cursor->totals->first_serial());
+        cursor->done = false;
+        return SQLITE_OK;
+    } catch (const std::bad_alloc&) {
+        return SQLITE_NOMEM;
+    } catch (const SqlError& error) {
+        return set_error(base->pVtab, error.what());
+    } catch (const std::exception& error) {
+        return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+    }
+}
+
+int next(sqlite3_vtab_cursor* base) {
+    auto* cursor = reinterpret_cast<Cursor*>(base);
+    ++cursor->row;
+    try {
+        if (cursor->current.serial < cursor->totals->last_serial()) {
+            cursor->current = cursor->calendar->next(cursor->current);
+            return SQLITE_OK;
+        }
+        if (++cursor->item >= cursor->order.size()) {
+            cursor->done = true;
+            return SQLITE_OK;
+        }
+        cursor->current = cursor->calendar->period_by_serial(cursor->totals->first_serial());
+        return SQLITE_OK;
+    } catch (const std::bad_alloc&) {
+        return SQLITE_NOMEM;
+    } catch (const std::exception& error) {
+        return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+    }
+}
+
+int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
+
+void result_total(sqlite3_context* context, PeriodCell* cell, ColumnTotal PeriodCell::*column) {
+    if (!cell) return sqlite3_result_int(context, 0);
+    TotalValue value = (cell->*column).result();
+    switch (value.kind) {
+        case TotalValue::Kind::Null:
+            return sqlite3_result_null(context);
+        case TotalValue::Kind::Integer:
+            return sqlite3_result_int64(context, value.integer);
+        case TotalValue::Kind::Real:
+            return sqlite3_result_double(context, value.real);
+    }
+}
+
+void result_item(sqlite3_context* context, const ItemKey& key) {
+    switch (key.kind) {
+        case ItemKey::Kind::Null:
+            return sqlite3_result_null(context);
+        case ItemKey::Kind::Integer:
+            return sqlite3_result_int64(context, key.integer);
+        case ItemKey::Kind::Real:
+            return sqlite3_result_double(context, key.real);
+        case ItemKey::Kind::Text:
+            return sqlite3_result_text(context, key.bytes.data(),
+                                       static_cast<int>(key.bytes.size()), SQLITE_TRANSIENT);
+        case ItemKey::Kind::Blob:
+            return sqlite3_result_blob(context, key.bytes.data(),
+                                       static_cast<int>(key.bytes.size()), SQLITE_TRANSIENT);
+    }
+}
+
+int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
+    auto* cursor = reinterpret_cast<Cursor*>(base);
+    guarded(context, [&] {
+        try {
+            std::size_t item = cursor->order[cursor->item];
+            switch (index) {
+                case kItem:
+                    return result_item(context, cursor->totals->item(item));
+                case kPeriodStart:
+                    return result_boundary(context, cursor->like, cursor->current.start,
+                                           *cursor->calendar);
+                case kPeriodEnd:
+                    return result_boundary(context, cursor->like, cursor->current.end,
+                                           *cursor->calendar);
+                case kLabel: {
+                    std::string label = cursor->calendar->label(cursor->current);
+                    return sqlite3_result_text(context, label.c_str(),
+                                               static_cast<int>(label.size()), SQLITE_TRANSIENT);
+                }
+                case kSerial:
+                    return sqlite3_result_int64(context, cursor->current.serial);
+                case kSales: {
+                    PeriodCell* cell = cursor->totals->at(item, cursor->current.serial);
+                    return sqlite3_result_int64(context, cell ? cell->rows : 0);
+                }
+                case kQty:
+                    if (!cursor->has_qty) return sqlite3_result_null(context);
+                    return result_total(context, cursor->totals->at(item, cursor->current.serial),
+                                        &PeriodCell::qty);
+                case kAmount:
+                    return result_total(context, cursor->totals->at(item, cursor->current.serial),
+                                        &PeriodCell::amount);
+                default: {
+                    sqlite3_value* argument = cursor->arguments[index - kFirstArgument];
+                    if (argument) sqlite3_result_value(context, argument);
+                    return;
+                }
+            }
+        } catch (const Error& error) {
+            std::string message = std::string(kName) + "(): " + error.what();
+            sqlite3_result_error(context, message.c_str(), -1);
+        }
+    });
+    return SQLITE_OK;
+}
+
+int rowid(sqlite3_vtab_cursor* base, sqlite3_int64* out) {
+    *out = reinterpret_cast<Cursor*>(base)->row + 1;
+    return SQLITE_OK;
+}
+
+sqlite3_module make_module() {
+    sqlite3_module module{};
+    module.iVersion = 0;
+    module.xCreate = nullptr;  // eponymous only: no CREATE VIRTUAL TABLE
+    module.xConnect = connect;
+    module.xBestIndex = best_index;
+    module.xDisconnect = disconnect;
+    module.xOpen = open;
+    module.xClose = close;
+    module.xFilter = filter;
+    module.xNext = next;
+    module.xEof = eof;
+    module.xColumn = column;
+    module.xRowid = rowid;
+    return module;
+}
+
+const sqlite3_module kModule = make_module();
+
+}  // namespace
+
+int register_period_totals_table(sqlite3* db) {
+    return sqlite3_create_module(db, kName, &kModule, nullptr);
+}
+
+}  // namespace almanac::sqlite
