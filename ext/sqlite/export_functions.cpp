@@ -52,6 +52,7 @@
 #include "core/time/time_value.h"
 #include "core/time/zone_clock.h"
 #include "registration.h"
+#include "summand.h"
 
 namespace almanac::sqlite {
 namespace {
@@ -60,54 +61,24 @@ namespace {
 
 constexpr ArgumentRef kSumX{"exact_sum", 1, "x"};
 
-// The whole-number TEXT that SQLite's own sum() counts as an INTEGER ('12',
-// ' -3 '); false for anything with a point or an exponent, or out of range.
-bool whole_number_text(std::string_view text, std::int64_t& out) {
-    auto whole = parse_int64(trim_ascii_space(text));
-    if (whole) out = *whole;
-    return whole.has_value();
-}
-
 // Adds (or removes) one row's x; NULL is skipped.
 void sum_row(sqlite3_context* context, sqlite3_value* x, bool adding) {
-    switch (sqlite3_value_type(x)) {
-        case SQLITE_NULL:
+    Summand summand = read_summand(x);
+    switch (summand.kind) {
+        case Summand::Kind::Null:
             return;
-        case SQLITE_INTEGER: {
+        case Summand::Kind::Integer: {
             auto& total = aggregate_state<ExactTotal>(context);
-            std::int64_t v = sqlite3_value_int64(x);
-            adding ? total.add_integer(v) : total.remove_integer(v);
+            adding ? total.add_integer(summand.integer) : total.remove_integer(summand.integer);
             return;
         }
-        case SQLITE_FLOAT: {
-            double v = sqlite3_value_double(x);
-            if (!std::isfinite(v)) raise_argument_error(kSumX, x, "expected a finite number");
+        case Summand::Kind::Real: {
             auto& total = aggregate_state<ExactTotal>(context);
-            adding ? total.add_real(v) : total.remove_real(v);
+            adding ? total.add_real(summand.real) : total.remove_real(summand.real);
             return;
         }
-        case SQLITE_TEXT: {
-            const char* raw = reinterpret_cast<const char*>(sqlite3_value_text(x));
-            std::string_view text(raw ? raw : "", sqlite3_value_bytes(x));
-            std::int64_t whole;
-            if (whole_number_text(text, whole)) {
-                auto& total = aggregate_state<ExactTotal>(context);
-                adding ? total.add_integer(whole) : total.remove_integer(whole);
-                return;
-            }
-            auto number = numeric_text(text);
-            if (!number)
-                raise_argument_error(
-                    kSumX, x,
-                    "expected a number; money or quantities written as text must be read "
-                    "with to_amount() in the view that maps your table (README: \"Your data\")");
-            if (!std::isfinite(*number)) raise_argument_error(kSumX, x, "expected a finite number");
-            auto& total = aggregate_state<ExactTotal>(context);
-            adding ? total.add_real(*number) : total.remove_real(*number);
-            return;
-        }
-        default:
-            raise_argument_error(kSumX, x, "expected a number, not a BLOB");
+        case Summand::Kind::Refused:
+            raise_argument_error(kSumX, x, summand.expected);
     }
 }
 

@@ -39,6 +39,7 @@
 #include "core/text/error.h"
 #include "period_context.h"
 #include "registration.h"
+#include "summand.h"
 
 namespace almanac::sqlite {
 namespace {
@@ -284,33 +285,19 @@ SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_val
                              what_was_expected);
 }
 
-// Adds one qty or amount value with exact_sum's strictness.
-void add_value(ColumnTotal& total, sqlite3_value* cell, const ArgumentRef& source_arg,
+// Adds one qty or amount value with exact_sum's rules (summand.h).
+void add_value(ExactTotal& total, sqlite3_value* cell, const ArgumentRef& source_arg,
                sqlite3_value* source, const char* column) {
-    switch (sqlite3_value_type(cell)) {
-        case SQLITE_NULL:
+    Summand summand = read_summand(cell);
+    switch (summand.kind) {
+        case Summand::Kind::Null:
             return;
-        case SQLITE_INTEGER:
-            return total.add_integer(sqlite3_value_int64(cell));
-        case SQLITE_FLOAT: {
-            double number = sqlite3_value_double(cell);
-            if (!std::isfinite(number))
-                raise_cell_error(source_arg, source, column, cell, "expected a finite number");
-            return total.add_real(number);
-        }
-        case SQLITE_TEXT: {
-            const char* text = reinterpret_cast<const char*>(sqlite3_value_text(cell));
-            auto number = numeric_text(std::string_view(
-                text ? text : "", static_cast<std::size_t>(sqlite3_value_bytes(cell))));
-            if (!number)
-                raise_cell_error(source_arg, source, column, cell,
-                                 "expected a number (TEXT that SQLite reads as a number)");
-            if (!std::isfinite(*number))
-                raise_cell_error(source_arg, source, column, cell, "expected a finite number");
-            return total.add_real(*number);
-        }
-        default:
-            raise_cell_error(source_arg, source, column, cell, "expected a number, not a BLOB");
+        case Summand::Kind::Integer:
+            return total.add_integer(summand.integer);
+        case Summand::Kind::Real:
+            return total.add_real(summand.real);
+        case Summand::Kind::Refused:
+            raise_cell_error(source_arg, source, column, cell, summand.expected);
     }
 }
 
@@ -472,17 +459,12 @@ int next(sqlite3_vtab_cursor* base) {
 
 int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
 
-void result_total(sqlite3_context* context, PeriodCell* cell, ColumnTotal PeriodCell::*column) {
+void result_total(sqlite3_context* context, PeriodCell* cell, ExactTotal PeriodCell::*column) {
     if (!cell) return sqlite3_result_int(context, 0);
-    TotalValue value = (cell->*column).result();
-    switch (value.kind) {
-        case TotalValue::Kind::Null:
-            return sqlite3_result_null(context);
-        case TotalValue::Kind::Integer:
-            return sqlite3_result_int64(context, value.integer);
-        case TotalValue::Kind::Real:
-            return sqlite3_result_double(context, value.real);
-    }
+    auto value = (cell->*column).value();
+    if (!value) return sqlite3_result_null(context);
+    if (value->is_integer) return sqlite3_result_int64(context, value->integer);
+    sqlite3_result_double(context, value->real);
 }
 
 void result_item(sqlite3_context* context, const ItemKey& key) {

@@ -63,8 +63,8 @@ def seeded_rows(seed, n, low, high, items=ITEMS, kinds=("text",)):
 
 
 def exact_total(values):
-    """oracle: exact_sum's rule — Python's exact int sum while every value is an
-    int and the sum fits in 64 bits, else math.fsum; None when no value."""
+    """oracle: exact_sum's rule (DESIGN.md) — Python's exact int sum while every
+    value is an int and the sum fits in 64 bits, else math.fsum; None when no value."""
     values = [v for v in values if v is not None]
     if not values:
         return None
@@ -319,7 +319,8 @@ def test_text_money_is_refused_as_exact_sum_refuses_it():
     make_sales(db, [("2026-01-05", "x", 1, 1.0), ("2026-01-06", "x", 1, "1,050.00")])
     assert error_of(db, "SELECT * FROM period_totals('sales', 'week')") == (
         "period_totals(): argument 1 (source) = 'sales': column amount holds '1,050.00':"
-        " expected a number (TEXT that SQLite reads as a number)")
+        " expected a number; money or quantities written as text must be read with to_amount()"
+        " in the view that maps your table (README: \"Your data\")")
     db.execute("UPDATE sales SET amount = ' 1050.5 '")  # TEXT that SQLite reads as a number
     assert db.execute("SELECT amount FROM period_totals('sales', 'week')").fetchall() == [(2101.0,)]
     db.execute("UPDATE sales SET qty = x'01'")
@@ -359,3 +360,19 @@ def test_more_item_periods_than_the_limit_is_a_clear_error():
     assert error_of(db, "SELECT * FROM period_totals('sales', 'second')") == (
         "period_totals(): argument 1 (source) = 'sales': 2 items over 600000 periods are more"
         " item-period rows than the limit of 1000000: use a longer period or a smaller source")
+
+
+def test_qty_and_amount_are_what_exact_sum_gives_over_the_same_rows():
+    # DESIGN.md: "qty and amount are exact_sums"; whole-number TEXT counts as an INTEGER there.
+    rows = seeded_rows(17, 1500, oracle.dt.datetime(2025, 1, 1), oracle.dt.datetime(2025, 7, 1))
+    rows = [(ts, item, str(qty) if qty is not None and qty % 3 == 0 else qty, amount)
+            for ts, item, qty, amount in rows]
+    db = connect()
+    make_sales(db, rows)
+    got = db.execute("SELECT item, serial, sales, qty, amount FROM period_totals('sales', 'week')"
+                     " WHERE sales > 0").fetchall()
+    grouped = db.execute("""SELECT item, period_serial(ts, 'week') AS serial, count(*), exact_sum(qty),
+                                   exact_sum(amount)
+                            FROM sales GROUP BY item, serial ORDER BY item, serial""").fetchall()
+    assert got == grouped
+    count("cells", len(got))

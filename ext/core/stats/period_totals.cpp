@@ -11,8 +11,6 @@ namespace almanac {
 
 namespace {
 
-__extension__ typedef unsigned __int128 UInt128;
-
 int kind_rank(ItemKey::Kind kind) {
     switch (kind) {
         case ItemKey::Kind::Null:
@@ -72,30 +70,6 @@ bool item_less(const ItemKey& a, const ItemKey& b) {
     if (ra != rb) return ra < rb;
     if (ra == 1) return compare_numbers(a, b) < 0;
     return a.bytes < b.bytes;  // std::string compares bytes as unsigned char
-}
-
-TotalValue ColumnTotal::result() {
-    TotalValue value;
-    if (!any_) return value;
-    if (all_integer_ && integers_ >= INT64_MIN && integers_ <= INT64_MAX) {
-        value.kind = TotalValue::Kind::Integer;
-        value.integer = static_cast<std::int64_t>(integers_);
-        return value;
-    }
-    // The integer part joins the exact sum in pieces of 43 bits, each exactly
-    // a double, so the one rounding happens at the end.
-    ExactSum sum = reals_;
-    bool negative = integers_ < 0;
-    UInt128 magnitude = static_cast<UInt128>(integers_);
-    if (negative) magnitude = -magnitude;
-    for (int piece = 0; magnitude != 0; ++piece, magnitude >>= 43) {
-        double part =
-            static_cast<double>(static_cast<std::uint64_t>(magnitude & ((1ull << 43) - 1)));
-        sum.add_scaled(negative ? -part : part, 43 * piece);
-    }
-    value.kind = TotalValue::Kind::Real;
-    value.real = sum.to_double();
-    return value;
 }
 
 PeriodCell& PeriodTotals::cell(ItemKey::Kind kind, std::int64_t integer, double real,

@@ -9,9 +9,8 @@
 // Memory is O(items x periods): the caller states a limit on that product and
 // gets an Error, not an allocation failure, past it.
 //
-// Sums follow exact_sum: every value is added without rounding, the result is
-// rounded once (bit-identical to Python's math.fsum), and it is an INTEGER
-// when every value was an INTEGER and the sum fits in 64 bits.
+// Sums are ExactTotals, the accumulator of exact_sum(), so a cell's qty and
+// amount are what exact_sum would give over the same rows.
 #pragma once
 
 #include <cstdint>
@@ -19,7 +18,7 @@
 #include <string_view>
 #include <vector>
 
-#include "core/exact/exact_sum.h"
+#include "core/exact/exact_total.h"
 
 namespace almanac {
 
@@ -34,40 +33,10 @@ struct ItemKey {
 };
 bool item_less(const ItemKey& a, const ItemKey& b);
 
-// A sum's result: NULL (no value was added), an INTEGER or a REAL.
-struct TotalValue {
-    enum class Kind { Null, Integer, Real };
-    Kind kind = Kind::Null;
-    std::int64_t integer = 0;
-    double real = 0;
-};
-
-// The exact sum of one column within one cell.
-class ColumnTotal {
-  public:
-    void add_integer(std::int64_t v) {
-        integers_ += v;
-        any_ = true;
-    }
-    void add_real(double v) {
-        reals_.add(v);  // throws Error for infinities, as exact_sum refuses them
-        any_ = true;
-        all_integer_ = false;
-    }
-    TotalValue result();
-
-  private:
-    __extension__ typedef __int128 Int128;
-    ExactSum reals_;
-    Int128 integers_ = 0;  // 2^63 * 2^63 rows would be needed to overflow it
-    bool any_ = false;
-    bool all_integer_ = true;
-};
-
 struct PeriodCell {
     std::int64_t rows = 0;
-    ColumnTotal qty;
-    ColumnTotal amount;
+    ExactTotal qty;
+    ExactTotal amount;
 };
 
 class PeriodTotals {
