@@ -1,0 +1,215 @@
+# SPDX-License-Identifier: MIT
+"""Report jobs timed four ways, each way in its own process (tests/bench/run.sh runs this).
+
+    /usr/bin/python3 tests/bench/bench_jobs.py [rows]
+
+Ways: almanac with period_totals (where it applies), almanac with GROUP BY,
+the plain SQLite SQL a user would write without almanac, and pandas end to
+end (read the rows from the same database, compute). SQL ways run in the real
+`sqlite3` shell; every process is measured by /usr/bin/time (wall seconds
+including process start, peak resident memory). Prints one table, the bare
+scan as the floor, and the per-row key cost (bench_periods.py) with callgrind
+instruction counts on 200,000 rows. Not a test: it asserts nothing about time.
+"""
+import os
+import pathlib
+import subprocess
+import sys
+
+ROOT = pathlib.Path(__file__).resolve().parents[2]
+MODULE = os.environ.get("ALMANAC_MODULE", str(ROOT / "build" / "almanac.so"))
+ROWS = int(sys.argv[1]) if len(sys.argv) > 1 and not sys.argv[1].startswith("-") else 10_000_000
+CACHE = pathlib.Path(os.environ.get("ALMANAC_BENCH_CACHE", ROOT / "build" / "bench"))
+REPEAT = int(os.environ.get("ALMANAC_BENCH_REPEAT", "1"))
+ITEMS = 60
+START = "2021-01-01"  # five years of sales
+SECONDS = 5 * 365 * 86400
+
+# A deterministic scramble of the row number stands in for a seeded random
+# generator, so SQLite itself writes 10,000,000 rows in seconds.
+GENERATE = f"""
+CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL);
+WITH RECURSIVE n(i) AS (SELECT 1 UNION ALL SELECT i + 1 FROM n WHERE i < {ROWS}),
+h(i, a, b) AS (SELECT i, (i * 2654435761 + 97) % 4294967291, (i * 40503 + 12345) % 1000003 FROM n)
+INSERT INTO sales
+SELECT datetime(unixepoch('{START}') + a % {SECONDS}, 'unixepoch'),
+       printf('item %02d', b % {ITEMS}),
+       1 + (a / 7) % 5,
+       round(1 + ((a / 13) % 400000) / 100.0 + (b % {ITEMS}), 2)
+FROM h;
+"""
+
+W_MONDAY = "date(ts, '-6 days', 'weekday 1')"  # the Monday on or before ts
+HALF_MONTH = "strftime('%Y-%m-', ts) || CASE WHEN strftime('%d', ts) < '16' THEN '01' ELSE '16' END"
+
+JOBS = {
+    "weekly means per item": {
+        "period_totals": "SELECT item, label, amount / sales FROM period_totals('sales', 'week') WHERE sales > 0",
+        "group by": "SELECT item, period_floor(ts, 'week') AS w, avg(amount) FROM sales GROUP BY item, w",
+        "plain SQL": f"SELECT item, {W_MONDAY} AS w, avg(amount) FROM sales GROUP BY item, w",
+        "pandas": """
+df["w"] = df.ts.dt.to_period("W-SUN").dt.start_time
+out = df.groupby(["item", "w"]).amount.mean()""",
+    },
+    "half-month totals, empty periods filled": {
+        "period_totals": "SELECT item, label, sales, amount FROM period_totals('sales', 'half-month')",
+        "group by": """
+WITH t AS (SELECT item, period_floor(ts, 'half-month') AS p, count(*) AS n, exact_sum(amount) AS a
+           FROM sales GROUP BY item, p),
+span AS (SELECT min(p) AS lo, period_end(max(p), 'half-month') AS hi FROM t)
+SELECT i.item, ps.label, coalesce(t.n, 0), coalesce(t.a, 0)
+FROM (SELECT DISTINCT item FROM t) AS i CROSS JOIN span
+JOIN periods(span.lo, span.hi, 'half-month') AS ps
+LEFT JOIN t ON t.item = i.item AND t.p = ps.period_start ORDER BY i.item, ps.period_start""",
+        "plain SQL": f"""
+WITH RECURSIVE t AS (SELECT item, {HALF_MONTH} AS p, count(*) AS n, sum(amount) AS a
+                     FROM sales GROUP BY item, p),
+hm(d) AS (SELECT min(p) FROM t UNION ALL
+          SELECT CASE WHEN substr(d, 9, 2) = '01' THEN substr(d, 1, 8) || '16'
+                      ELSE date(d, 'start of month', '+1 month') END
+          FROM hm WHERE d < (SELECT max(p) FROM t))
+SELECT i.item, hm.d, coalesce(t.n, 0), coalesce(t.a, 0)
+FROM (SELECT DISTINCT item FROM t) AS i CROSS JOIN hm
+LEFT JOIN t ON t.item = i.item AND t.p = hm.d ORDER BY i.item, hm.d""",
+        "pandas": """
+month = df.ts.dt.to_period("M").dt.start_time
+df["p"] = month + pd.to_timedelta((df.ts.dt.day >= 16) * 15, unit="D")
+g = df.groupby(["item", "p"]).amount.agg(["count", "sum"])
+months = pd.date_range(month.min(), month.max(), freq="MS")
+halves = months.append(months + pd.Timedelta(days=15)).sort_values()
+halves = halves[(halves >= g.index.get_level_values(1).min()) & (halves <= g.index.get_level_values(1).max())]
+full = pd.MultiIndex.from_product([sorted(df.item.unique()), halves], names=["item", "p"])
+out = g.reindex(full, fill_value=0)""",
+    },
+    "weekly trend table per item": {
+        "period_totals": """
+SELECT item, regr_slope(amount, serial), avg(amount) FROM period_totals('sales', 'week') GROUP BY item""",
+        "group by": """
+WITH RECURSIVE t AS (SELECT item, period_serial(ts, 'week') AS s, exact_sum(amount) AS a
+                     FROM sales GROUP BY item, s),
+w(s) AS (SELECT min(s) FROM t UNION ALL SELECT s + 1 FROM w WHERE s < (SELECT max(s) FROM t))
+SELECT i.item, regr_slope(coalesce(t.a, 0), w.s), avg(coalesce(t.a, 0))
+FROM (SELECT DISTINCT item FROM t) AS i CROSS JOIN w
+LEFT JOIN t ON t.item = i.item AND t.s = w.s GROUP BY i.item""",
+        "plain SQL": f"""
+WITH RECURSIVE t AS (SELECT item, CAST((julianday({W_MONDAY}) - 2440591.5) / 7 AS INTEGER) AS s,
+                            sum(amount) AS a FROM sales GROUP BY item, s),
+w(s) AS (SELECT min(s) FROM t UNION ALL SELECT s + 1 FROM w WHERE s < (SELECT max(s) FROM t)),
+f AS (SELECT i.item, w.s AS x, coalesce(t.a, 0) AS y
+      FROM (SELECT DISTINCT item FROM t) AS i CROSS JOIN w LEFT JOIN t ON t.item = i.item AND t.s = w.s)
+SELECT item, (count(*) * sum(x * y) - sum(x) * sum(y)) / (count(*) * sum(x * x) - sum(x) * sum(x)),
+       avg(y) FROM f GROUP BY item""",
+        "pandas": """
+df["w"] = df.ts.dt.to_period("W-SUN")
+weekly = df.groupby(["w", "item"]).amount.sum().unstack(fill_value=0)
+weekly = weekly.reindex(pd.period_range(weekly.index.min(), weekly.index.max(), freq="W-SUN"), fill_value=0)
+x = np.arange(len(weekly), dtype=float)
+xc = x - x.mean()
+out = pd.DataFrame({"slope": (xc[:, None] * (weekly.values - weekly.values.mean(axis=0))).sum(axis=0) / (xc * xc).sum(),
+                    "mean": weekly.values.mean(axis=0)}, index=weekly.columns)""",
+    },
+    "7-day moving mean + 31-day moving median per item over daily totals": {
+        "period_totals": """
+SELECT item, label, moving_mean(amount) OVER w7, median(amount) OVER w31
+FROM period_totals('sales', 'day')
+WINDOW w7 AS (PARTITION BY item ORDER BY serial ROWS 6 PRECEDING),
+       w31 AS (PARTITION BY item ORDER BY serial ROWS 30 PRECEDING)""",
+        "group by": """
+WITH t AS (SELECT item, period_floor(ts, 'day') AS d, exact_sum(amount) AS a FROM sales GROUP BY item, d),
+span AS (SELECT min(d) AS lo, period_end(max(d), 'day') AS hi FROM t),
+f AS (SELECT i.item, ps.period_start AS d, coalesce(t.a, 0) AS a
+      FROM (SELECT DISTINCT item FROM t) AS i CROSS JOIN span JOIN periods(span.lo, span.hi, 'day') AS ps
+      LEFT JOIN t ON t.item = i.item AND t.d = ps.period_start)
+SELECT item, d, moving_mean(a) OVER w7, median(a) OVER w31 FROM f
+WINDOW w7 AS (PARTITION BY item ORDER BY d ROWS 6 PRECEDING),
+       w31 AS (PARTITION BY item ORDER BY d ROWS 30 PRECEDING)""",
+        "plain SQL": None,  # SQLite has no median; see the note under the table
+        "pandas": """
+daily = df.groupby([df.ts.dt.floor("D"), "item"]).amount.sum().unstack(fill_value=0)
+daily = daily.reindex(pd.date_range(daily.index.min(), daily.index.max(), freq="D"), fill_value=0)
+out = (daily.rolling(7, min_periods=1).mean(), daily.rolling(31, min_periods=1).median())""",
+    },
+    "daily totals in America/Denver": {
+        "period_totals": "SELECT item, label, sales, amount FROM period_totals('sales', 'day', 'America/Denver')",
+        "group by": """
+SELECT item, period_floor(ts, 'day', 'America/Denver') AS d, count(*), exact_sum(amount)
+FROM sales GROUP BY item, d""",
+        # SQLite's 'localtime' follows the process's TZ, set for this way only.
+        "plain SQL": "SELECT item, date(ts, 'localtime') AS d, count(*), sum(amount) FROM sales GROUP BY item, d",
+        "pandas": """
+local = df.ts.dt.tz_localize("UTC").dt.tz_convert("America/Denver")
+out = df.groupby([local.dt.date, "item"]).amount.agg(["count", "sum"])""",
+    },
+}
+WAYS = ["period_totals", "group by", "plain SQL", "pandas"]
+
+PANDAS_PRELUDE = """
+import sqlite3, sys
+import numpy as np
+import pandas as pd
+con = sqlite3.connect(sys.argv[1])
+df = pd.read_sql_query("SELECT ts, item, qty, amount FROM sales", con)
+df["ts"] = pd.to_datetime(df.ts, format="%Y-%m-%d %H:%M:%S")
+"""
+
+
+def database():
+    CACHE.mkdir(parents=True, exist_ok=True)
+    path = CACHE / f"sales-{ROWS}.db"
+    if not path.exists():
+        partial = path.with_suffix(".partial")
+        partial.unlink(missing_ok=True)
+        subprocess.run(["sqlite3", str(partial)], input=GENERATE, text=True, check=True)
+        partial.rename(path)
+    return path
+
+
+def measured(command, env=None, stdin=None):
+    """(seconds, peak KiB) of one process, by GNU time."""
+    result = subprocess.run(["/usr/bin/time", "-f", "%e %M"] + command, input=stdin, text=True,
+                            capture_output=True, env=env)
+    if result.returncode != 0:
+        raise RuntimeError(f"{command[:2]} failed: {result.stderr[-2000:]}")
+    seconds, kib = result.stderr.strip().splitlines()[-1].split()
+    return float(seconds), int(kib)
+
+
+def run_way(path, way, code):
+    if way == "pandas":
+        return measured(["/usr/bin/python3", "-c", PANDAS_PRELUDE + code, str(path)])
+    env = dict(os.environ, TZ="America/Denver") if "localtime" in code else None
+    script = f".load {MODULE[:-3]}\n.output /dev/null\n{code.strip()};\n"
+    return measured(["sqlite3", "-bail", str(path)], env=env, stdin=script)
+
+
+def best(path, way, code):
+    runs = [run_way(path, way, code) for _ in range(REPEAT)]
+    return min(r[0] for r in runs), max(r[1] for r in runs)
+
+
+def main():
+    path = database()
+    scan = best(path, "plain SQL", "SELECT count(*), sum(amount) FROM sales")
+    print(f"{ROWS:,} rows, {ITEMS} items, five years of TEXT UTC timestamps; "
+          f"each way in its own process, best of {REPEAT}; seconds include process start")
+    print(f"bare scan (count(*), sum(amount)): {scan[0]:.2f} s, {scan[1] / 1024:.0f} MiB")
+    print()
+    header = f"| job | {' | '.join(WAYS)} | almanac vs plain SQL | almanac vs pandas | peak MiB (" + \
+        ", ".join(WAYS) + ") |"
+    print(header)
+    print("|" + "---|" * (header.count("|") - 1))
+    for job, ways in JOBS.items():
+        got = {}
+        for way in WAYS:
+            if ways.get(way) is not None:
+                got[way] = best(path, way, ways[way])
+        almanac = got["period_totals"][0]
+        cells = [f"{got[w][0]:.2f} s" if w in got else "(no median)" for w in WAYS]
+        ratios = [f"{got[w][0] / almanac:.1f}x" if w in got else "n/a" for w in ("plain SQL", "pandas")]
+        memory = ", ".join(f"{got[w][1] / 1024:.0f}" if w in got else "-" for w in WAYS)
+        print(f"| {job} | {' | '.join(cells)} | {' | '.join(ratios)} | {memory} |")
+    sys.stdout.flush()
+
+
+if __name__ == "__main__":
+    main()
