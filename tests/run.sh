@@ -8,11 +8,11 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 # libFuzzer runtimes) and valgrind serve tests/hardening/stages.sh; the package
 # test (tests/packaging) needs CPack's dpkg-shlibdeps and file, lintian, gcc and
 # pkgconf for its C program (zlib1g-dev for SQLite's private -lz in a static
-# link), g++-multilib builds unit.32bit, and locales gives the locale test its
-# localedef.
+# link), g++-multilib builds unit.32bit, locales gives the locale test its
+# localedef, and GNU time measures the processes of the job benchmark (bench.jobs).
 "$root/tests/setup.sh" --tests chromium fonts-dejavu-core poppler-utils \
   clang libclang-rt-14-dev valgrind \
-  dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales
+  dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales time
 cd "$root/build"
 # The 32-bit unit tests are built only where -m32 links (g++-multilib, installed above).
 ctest -N -R '^unit[.]32bit$' | grep -q 'Total Tests: 1' ||

@@ -45,7 +45,8 @@ namespace almanac::sqlite {
 namespace {
 
 constexpr const char* kName = "period_totals";
-// About 300 bytes per item-period cell while it accumulates: at most ~300 MiB.
+// About 300 bytes per item-period cell while it accumulates, and room to grow
+// up to twice that: at most about 600 MiB.
 constexpr std::uint64_t kMaxCells = 1000000;
 
 enum Column {

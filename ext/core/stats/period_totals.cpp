@@ -95,14 +95,16 @@ PeriodCell& PeriodTotals::grow_to(ItemCells& item, std::int64_t serial) {
         item.cells.resize(1);
         return item.cells[0];
     }
-    // Grow by at least the current size in the needed direction (clamped to
-    // the overall span), so rows arriving in descending order stay linear.
+    // Grow by at least the current size in the needed direction, so rows
+    // arriving in descending (or ascending) order stay linear. Not clamped to
+    // the overall span: that span grows with the same rows, and a clamp would
+    // make each step one cell. An item's cells stay within twice the span.
     std::int64_t size = static_cast<std::int64_t>(item.cells.size());
     std::int64_t lo = item.base, hi = item.base + size - 1;
     if (serial < lo) {
-        lo = std::max(first_serial_, std::min(serial, lo - size));
+        lo = std::min(serial, lo - size);
     } else {
-        hi = std::min(last_serial_, std::max(serial, hi + size));
+        hi = std::max(serial, hi + size);
     }
     std::vector<PeriodCell> cells(static_cast<std::size_t>(hi - lo + 1));
     std::move(item.cells.begin(), item.cells.end(), cells.begin() + (item.base - lo));
