@@ -324,7 +324,7 @@ void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqli
         TimeValue time;
         try {
             time = time_value_of(ts);
-            serial = calendar.serial_of(place_on_time_line(time, calendar));
+            serial = calendar.serial_of(calendar.place_on_time_line(time));
         } catch (const Error& error) {
             raise_cell_error(source_arg, source, "ts", ts, error.what());
         }
