@@ -5,12 +5,13 @@
 -- Prints one complete SVG document; send it to a file.
 --
 -- Reads a table or view named sales:
---   sales(ts, item, qty, amount)
+--   sales(ts, item, qty, amount [, segment])
 --     ts      when the sale happened: an almanac time value, normally UTC text
 --             'YYYY-MM-DD HH:MM:SS' as point-of-sale exports write it
 --     item    TEXT, what was sold
 --     qty     number of units sold (not used here)
 --     amount  money received for the sale
+--     segment optional: a shop, a channel, a category (see @by_segment)
 --   Other columns are ignored. A table with other names: put a view in front
 --   of it in the same session (a temp view named sales is found before a
 --   table main.sales, so it can also narrow one down):
@@ -40,6 +41,10 @@
 --            thick stroke from 0 to the day's amount (a dot at 0 for a closed
 --            day) in a series named 'unusual day'
 --            default: none
+--   @by_segment  1: one series per segment instead of per item: 'all segments'
+--            and each segment, each the amount of every item (or of @item)
+--            sold there; @top does not apply. The days are those of the whole
+--            table, so the series share one axis                default 0
 --
 -- What is drawn: every local day of the range for each item, a day without
 -- sales (a closed day) as 0, because that is what the till took. The smooth
@@ -57,7 +62,19 @@ DROP TABLE IF EXISTS temp.chart_points;
 CREATE TEMP TABLE chart_points AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment
+),
+-- The series a sale counts for: its item; with @by_segment, 'all segments' and
+-- its own segment. The NATURAL LEFT JOIN finds sales.segment when the table has
+-- one (sql/totals.sql does the same).
+source AS (
+  SELECT s.ts, CASE WHEN settings.by_segment = 1 THEN 'all segments' ELSE s.item END AS series, s.item,
+         s.amount
+  FROM sales AS s, settings
+  UNION ALL
+  SELECT s.ts, coalesce(segment, '(none)'), s.item, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
+  WHERE settings.by_segment = 1
 ),
 -- 1,092 days of three items do not fit in 960 pixels: by default the chart
 -- shows the last 13 weeks, where a day is still a few pixels wide.
@@ -74,15 +91,19 @@ range AS (
 ),
 daily_sales AS (
   -- A day's takings in cents, so the smooth line is the mean of the amounts the raw line shows.
-  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.item, round(exact_sum(s.amount), 2) AS amount
-  FROM sales AS s, settings, range
+  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.series AS item,
+         round(exact_sum(s.amount), 2) AS amount
+  FROM source AS s, settings, range
   WHERE (@item IS NULL OR s.item = @item)
     AND period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
     AND period_serial(s.ts, 'day', settings.zone) < period_serial(range.stop, 'day', settings.zone)
   GROUP BY 1, 2
 ),
 chosen AS (
-  SELECT item FROM daily_sales GROUP BY item ORDER BY exact_sum(amount) DESC, item LIMIT coalesce(@top, 3)
+  SELECT item FROM (SELECT item FROM daily_sales, settings WHERE settings.by_segment <> 1
+                     GROUP BY item ORDER BY exact_sum(amount) DESC, item LIMIT coalesce(@top, 3))
+  UNION ALL
+  SELECT DISTINCT item FROM daily_sales, settings WHERE settings.by_segment = 1
 ),
 daily AS (
   SELECT c.item, p.serial, p.period_start AS day, coalesce(t.amount, 0) AS amount
@@ -110,7 +131,16 @@ SELECT svg_line_chart(day, value, item, layer,
                                   'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
                                   -- Every item of the table, largest first: each item keeps
                                   -- its colour in every chart, whichever items it shows.
-                                  'series_order', json((SELECT json_group_array(item) FROM (
-                                    SELECT item FROM sales GROUP BY item
-                                    ORDER BY exact_sum(amount) DESC, item)))))
+                                  -- By segment: 'all segments', then the segments by name.
+                                  'series_order', json(CASE WHEN coalesce(@by_segment, 0) = 1
+                                    THEN (SELECT json_group_array(segment) FROM (
+                                      SELECT 'all segments' AS segment
+                                      UNION ALL
+                                      SELECT * FROM (SELECT DISTINCT coalesce(segment, '(none)')
+                                                     FROM sales AS s NATURAL LEFT JOIN
+                                                          (SELECT NULL AS segment) AS no_segment
+                                                     ORDER BY 1)))
+                                    ELSE (SELECT json_group_array(item) FROM (
+                                      SELECT item FROM sales GROUP BY item
+                                      ORDER BY exact_sum(amount) DESC, item)) END)))
 FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step);

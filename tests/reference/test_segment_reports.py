@@ -10,6 +10,7 @@ A seeded fixture of three shops (segments). For each report:
 - where a column adds up, it is also checked against math.fsum over the rows.
 """
 import datetime as dt
+import json
 import math
 import random
 import sqlite3
@@ -17,6 +18,7 @@ from zoneinfo import ZoneInfo
 
 import pytest
 
+from conftest import SOURCE, run_shell
 from test_season_reports import report  # runs sql/<name>.sql in the shell's JSON mode
 
 ZONE = "America/Denver"
@@ -142,3 +144,36 @@ def test_weekday_amounts_add_up_per_segment(shops):
     # oracle: fixture_rows closes Harbour on Mondays, Market on Wednesdays, Station on Fridays
     assert {s: closed[s]["weekday"] for s in SEGMENTS} == {"Harbour": "Monday", "Market": "Wednesday",
                                                          "Station": "Friday"}
+
+
+def chart_points(path, view=None, **params):
+    """The points sql/daily_chart.sql leaves in temp.chart_points, as (series, day, layer, value)."""
+    lines = "".join(f".parameter set @{k} \"'{v}'\"\n" if isinstance(v, str) else f".parameter set @{k} {v}\n"
+                    for k, v in params.items())
+    script = (lines + (view + ";\n" if view else "") + ".output /dev/null\n"
+              + (SOURCE / "sql" / "daily_chart.sql").read_text() + "\n.output stdout\n.mode json\n"
+              + "SELECT item, day, layer, value FROM temp.chart_points ORDER BY item, layer, day;\n")
+    output = run_shell(script, database=str(path))
+    return [tuple(r.values()) for r in json.loads(output)] if output.strip() else []
+
+
+def test_daily_chart_draws_one_series_per_segment(shops):
+    rows, databases = shops
+    span = {"zone": ZONE, "start": FIRST.isoformat(), "stop": (FIRST + dt.timedelta(days=DAYS)).isoformat()}
+    split = chart_points(databases["all"], by_segment=1, **span)
+    assert sorted({p[0] for p in split}) == sorted(SEGMENTS + ("all segments",))
+    # One series of every item together: a view naming every sale's item alike.
+    together = "CREATE TEMP VIEW sales AS SELECT ts, 'together' AS item, qty, amount FROM main.sales"
+    for segment, path in [("all segments", databases["all"])] + [(s, databases[s]) for s in SEGMENTS]:
+        mine = [p[1:] for p in split if p[0] == segment]
+        # oracle: the chart itself on that segment's rows alone, with the same days
+        assert mine == [p[1:] for p in chart_points(path, view=together, top=1, **span)], segment
+        sold = {}
+        for ts, _, _, a, seg in rows:
+            if segment in (seg, "all segments"):
+                sold.setdefault(local_day(ts).isoformat(), []).append(a)
+        for day, layer, value in mine:
+            if layer == "raw":
+                # oracle: math.fsum of the day's amounts (zoneinfo for the local day), in cents
+                assert abs(value - round(math.fsum(sold.get(day, [])), 2)) <= 1e-9, (segment, day)
+    assert len(split) == 4 * 2 * DAYS  # 4 series x (raw, smooth) x every day of the range
