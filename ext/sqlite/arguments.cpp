@@ -26,7 +26,8 @@ std::string describe_value(sqlite3_value* value) {
         }
         default: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
-            std::string shown = text ? text : "";
+            // All of the value's bytes: a NUL inside it is part of what was refused.
+            std::string shown(text ? text : "", text ? sqlite3_value_bytes(value) : 0);
             constexpr std::size_t kLongest = 60;
             if (shown.size() > kLongest) {
                 // Cut at a character boundary: half a UTF-8 sequence would
@@ -40,6 +41,11 @@ std::string describe_value(sqlite3_value* value) {
                 std::size_t length = utf8_sequence_length(shown, i);
                 if (length == 0) {
                     quoted += "\xEF\xBF\xBD";
+                    ++i;
+                    continue;
+                }
+                if (shown[i] == '\0') {
+                    quoted += "\xE2\x90\x80";  // U+2400, the symbol for NUL
                     ++i;
                     continue;
                 }
@@ -74,7 +80,9 @@ std::optional<double> read_number(const ArgumentRef& arg, sqlite3_value* value) 
             break;
         case SQLITE_TEXT: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
-            auto parsed = numeric_text(text ? text : "");
+            // Every byte counts: '1' NUL '2' is not the number 1.
+            auto parsed = numeric_text(text ? std::string_view(text, sqlite3_value_bytes(value))
+                                            : std::string_view());
             if (!parsed) raise_argument_error(arg, value, "expected a number");
             number = *parsed;
             break;

@@ -235,6 +235,9 @@ std::string PeriodSpec::describe() const {
 }
 
 PeriodSpec parse_period_spec(std::string_view raw) {
+    if (raw.size() > kLongestSpec)
+        fail("a spec is at most " + std::to_string(kLongestSpec) + " bytes long; this one has " +
+             std::to_string(raw.size()));
     std::string text = ascii_lowercase(raw);
     // Trim.
     std::size_t first = 0, last = text.size();
@@ -284,9 +287,14 @@ PeriodSpec parse_period_spec(std::string_view raw) {
             tokens.push_back(text.substr(i, j - i));
             i = j;
         } else {
-            // Quote the whole character: half a UTF-8 sequence is not text.
-            std::size_t length = utf8_character_bytes(text, i);
-            fail("unexpected character '" + text.substr(i, length) + "'; " + kGrammar);
+            // Quote the whole character: half a UTF-8 sequence is not text, a
+            // byte that is not UTF-8 is shown as U+FFFD and a NUL as U+2400, so
+            // the message stays valid text (found by the bad-input catalogue).
+            std::size_t length = utf8_sequence_length(text, i);
+            std::string shown = text[i] == '\0' ? "\xE2\x90\x80"
+                                : length == 0   ? "\xEF\xBF\xBD"
+                                                : text.substr(i, length);
+            fail("unexpected character '" + shown + "'; " + kGrammar);
         }
     }
     // "half month" written as two words.
