@@ -8,6 +8,9 @@
 #include <memory>
 #include <new>
 
+#include "arguments.h"
+#include "core/stats/order_statistics.h"
+#include "core/text/error.h"
 #include "sqlite_api.h"
 
 namespace almanac::sqlite {
@@ -36,6 +39,16 @@ std::unique_ptr<State> take_state(sqlite3_context* context) {
     std::unique_ptr<State> state(*slot);
     *slot = nullptr;
     return state;
+}
+
+// Room for one more row in the frame of an order statistic that holds `held`
+// rows, or the function's error past the limit (README "Limits").
+inline void ensure_frame_room(const char* function, std::size_t held) {
+    try {
+        check_frame_room(held);
+    } catch (const Error& error) {
+        raise_function_error(function, error.what());
+    }
 }
 
 }  // namespace almanac::sqlite

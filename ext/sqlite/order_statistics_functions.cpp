@@ -52,7 +52,9 @@ void median_step(sqlite3_context* context, int, sqlite3_value** argv) {
         auto x = read_number(kMedianX, argv[0]);
         auto& state = aggregate_state<QuantileState>(context);
         if (!state.values) state.values.emplace(0.5);
-        if (x) state.values->insert(*x);
+        if (!x) return;
+        ensure_frame_room("median", state.values->size());
+        state.values->insert(*x);
     });
 }
 
@@ -87,7 +89,9 @@ void percentile_step(sqlite3_context* context, int, sqlite3_value** argv) {
                                          readable_double(state.values->p()) + ")");
             }
         }
-        if (x && p) state.values->insert(*x);
+        if (!x || !p) return;
+        ensure_frame_room("percentile_cont", state.values->size());
+        state.values->insert(*x);
     });
 }
 
@@ -136,7 +140,9 @@ void theil_sen_step(sqlite3_context* context, int, sqlite3_value** argv) {
     guarded(context, [&] {
         auto point = read_point(argv);
         auto& state = aggregate_state<TheilSenState>(context);
-        if (point) state.rows.push_back(*point);
+        if (!point) return;
+        ensure_frame_room("theil_sen_slope", state.rows.size());
+        state.rows.push_back(*point);
     });
 }
 

@@ -23,6 +23,8 @@ namespace almanac::sqlite {
 namespace {
 
 constexpr const char* kName = "periods";
+// The most periods one call gives (README "Limits").
+constexpr std::int64_t kMostPeriods = 10000000;
 
 enum Column { kPeriodStart, kPeriodEnd, kLabel, kSerial, kStart, kStop, kSpec, kZone };
 constexpr int kFirstArgument = kStart;
@@ -152,6 +154,15 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         cursor->stop = cursor->calendar->place_on_time_line(*stop);
         if (first >= cursor->stop) return SQLITE_OK;
         cursor->current = cursor->calendar->period_of(first);
+        // Rows are streamed, so memory is bounded anyway; the limit bounds the
+        // time a mistyped range (seconds over centuries) can take.
+        std::int64_t last = cursor->calendar->period_of(cursor->stop - Millis(1)).serial;
+        if (last - cursor->current.serial >= kMostPeriods)
+            return set_error(cursor->base.pVtab,
+                             std::string(kName) + "(): the range holds " +
+                                 std::to_string(last - cursor->current.serial + 1) +
+                                 " periods; at most " + std::to_string(kMostPeriods) +
+                                 " per call: narrow the range or use a longer spec");
         cursor->done = false;
         return SQLITE_OK;
     } catch (const std::bad_alloc&) {

@@ -137,7 +137,9 @@ struct Frame {
         guarded(context, [&] {
             auto row = Traits::read(argc, argv);
             auto& state = aggregate_state<Frame>(context);
-            if (row) state.rows.push_back(*row);
+            if (!row) return;
+            ensure_frame_room(Traits::kName, state.rows.size());
+            state.rows.push_back(*row);
         });
     }
 

@@ -47,6 +47,9 @@ const char* known_chart_option_keys() {
 }
 
 ChartOptions parse_chart_options(std::string_view json) {
+    if (json.size() > ChartOptions::kLongestText)
+        throw Error("options are at most " + std::to_string(ChartOptions::kLongestText) +
+                    " bytes of JSON; these have " + std::to_string(json.size()));
     JsonValue document = parse_json(json);
     if (document.type() != JsonValue::Type::Object)
         throw Error("expected a JSON object such as {\"title\": \"Sales\"}, not " +

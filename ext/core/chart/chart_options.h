@@ -6,6 +6,7 @@
 // and values out of range are errors, so a typo never goes unnoticed.
 #pragma once
 
+#include <cstddef>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -19,6 +20,9 @@ namespace almanac {
 struct ChartOptions {
     static constexpr int kMinWidth = 200, kMaxWidth = 10000;
     static constexpr int kMinHeight = 150, kMaxHeight = 10000;
+    // The longest options text read (README "Limits"): room for a
+    // series_order of thousands of item names.
+    static constexpr std::size_t kLongestText = 100000;
 
     std::string title;  // empty: no title line
     int width = 800;    // pixels

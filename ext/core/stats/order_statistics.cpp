@@ -3,6 +3,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <string>
 
 #include "core/text/error.h"
 
@@ -114,6 +115,12 @@ Entry heap_erase(std::vector<Entry>& heap, std::vector<Slot>& slots, std::size_t
 
 }  // namespace
 
+void check_frame_room(std::size_t held) {
+    if (held >= kMostFrameValues)
+        throw Error("a group or window frame holds at most " + std::to_string(kMostFrameValues) +
+                    " values; narrow the frame (ROWS n PRECEDING) or split the group");
+}
+
 SlidingQuantile::SlidingQuantile(double p) : p_(p) {}
 
 double SlidingQuantile::value_of(Id id) const {
@@ -156,6 +163,7 @@ void make_room(Vector& v) {
 }  // namespace
 
 void SlidingQuantile::insert(double value) {
+    check_frame_room(size());
     if (free_slots_.empty()) make_room(slots_);
     make_room(lower_);
     make_room(upper_);

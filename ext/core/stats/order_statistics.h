@@ -34,6 +34,14 @@ double interpolate(double lower, double upper, double fraction);
 // Throws almanac::Error unless 0 <= p <= 1.
 void check_quantile_probability(double p);
 
+// The most values one group or window frame of an order statistic keeps
+// (median, percentile_cont, theil_sen_slope, mad, mann_kendall_p): a few
+// hundred MB at the limit, so a runaway query stops with an error instead of
+// taking the machine's memory. README "Limits".
+constexpr std::size_t kMostFrameValues = 10'000'000;
+// Throws almanac::Error when a frame holding `held` values would take one more.
+void check_frame_room(std::size_t held);
+
 // The quantile of values in any order (a copy is partially sorted); nullopt
 // when empty. For plain aggregates and as the definition the window must meet.
 std::optional<double> quantile_of(std::vector<double> values, double p);

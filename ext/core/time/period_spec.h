@@ -7,6 +7,7 @@
 
 #include <date/date.h>
 
+#include <cstddef>
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -38,6 +39,10 @@ struct PeriodSpec {
     Millis fixed_length() const;
     std::string describe() const;  // canonical words, e.g. "2 weeks starting sunday"
 };
+
+// The longest spec text read (README "Limits"): every spec of the grammar
+// fits many times over, and a message never has to quote more.
+constexpr std::size_t kLongestSpec = 200;
 
 // Throws almanac::Error saying what was expected.
 PeriodSpec parse_period_spec(std::string_view text);

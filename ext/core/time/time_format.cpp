@@ -108,6 +108,9 @@ int read_name(std::string_view text, std::size_t& pos, const std::string_view* n
 }  // namespace
 
 TimeFormat TimeFormat::parse(std::string_view format) {
+    if (format.size() > kLongestFormat)
+        throw Error("a format is at most " + std::to_string(kLongestFormat) +
+                    " bytes long; this one has " + std::to_string(format.size()));
     TimeFormat result;
     std::string_view trimmed = trim_ascii_space(format);
     if (trimmed.size() == 5) {

@@ -10,6 +10,7 @@
 #pragma once
 
 #include <chrono>
+#include <cstddef>
 #include <cstdint>
 #include <string>
 #include <string_view>
@@ -29,6 +30,9 @@ struct TimeReading {
 
 class TimeFormat {
   public:
+    // The longest format text read (README "Limits").
+    static constexpr std::size_t kLongestFormat = 200;
+
     // Throws Error saying what is wrong with the format.
     static TimeFormat parse(std::string_view format);
 

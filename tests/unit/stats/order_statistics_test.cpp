@@ -96,3 +96,10 @@ TEST_CASE("values may leave the sliding quantile in any order") {
     CHECK(window.remove(1.0));
     CHECK(*window.value() == 4.0);  // 3 5 (hand-computed)
 }
+
+TEST_CASE("a frame takes values up to its documented limit and refuses the next one") {
+    // source: README "Limits" (10,000,000 values per group or window frame)
+    REQUIRE(almanac::kMostFrameValues == 10000000);
+    REQUIRE_NOTHROW(almanac::check_frame_room(almanac::kMostFrameValues - 1));
+    REQUIRE_THROWS_AS(almanac::check_frame_room(almanac::kMostFrameValues), almanac::Error);
+}
