@@ -75,6 +75,7 @@ NUMBER_SLOTS = (
        ("mann_kendall_p(1, 2, {v})", "mann_kendall_p", 3, "season"),
        ("mad({v})", "mad", 1, "x"), ("ewma({v}, 1, 1)", "ewma", 1, "x"), ("sparkline({v}, 1)", "sparkline", 1, "y"),
        ("svg_line_chart(1, {v}, 'a')", "svg_line_chart", 2, "y"),
+       ("svg_bar_chart(1, {v}, 'a')", "svg_bar_chart", 2, "y"),
        ("percentile_cont(1, {v})", "percentile_cont", 2, "p")]
 )
 BAD_NUMBERS = [  # (SQL, as the message shows it, what was expected)
@@ -119,10 +120,12 @@ for template, fn, n, name in TIME_SLOTS:
     for sql, shown, expected in BAD_TIMES:
         add(template.format(v=sql), arg(fn, n, name, shown, expected))
 # chart and sparkline x: a number or a time value, with a hint for labels
-for template, fn in (("sparkline(1, {v})", "sparkline"), ("svg_line_chart({v}, 1, 'a')", "svg_line_chart")):
+for template, fn in (("sparkline(1, {v})", "sparkline"), ("svg_line_chart({v}, 1, 'a')", "svg_line_chart"),
+                     ("svg_bar_chart({v}, 1, 'a')", "svg_bar_chart")):
     n = 2 if fn == "sparkline" else 1
-    add(template.format(v="'next tuesday'"), arg(fn, n, "x", "'next tuesday'", TIME + X_HINT))
-    add(template.format(v="'2026-W05'"), arg(fn, n, "x", "'2026-W05'", TIME + X_HINT))
+    if fn != "svg_bar_chart":  # DESIGN: a bar chart's TEXT x that is no time is a category
+        add(template.format(v="'next tuesday'"), arg(fn, n, "x", "'next tuesday'", TIME + X_HINT))
+        add(template.format(v="'2026-W05'"), arg(fn, n, "x", "'2026-W05'", TIME + X_HINT))
     add(template.format(v="X'00'"), arg(fn, n, "x", "a BLOB of 1 byte", "expected a number or a time value, not a BLOB"))
     add(template.format(v="9e999"), arg(fn, n, "x", "inf", "expected a finite number"))
 
@@ -221,6 +224,12 @@ for options, shown, expected in (
     add(f"svg_line_chart(1, 1, 'a', 'raw', {options})", arg("svg_line_chart", 5, "options", shown, expected))
 add("svg_line_chart(1, 1, X'00')", arg("svg_line_chart", 3, "series", "a BLOB of 1 byte",
                                       "expected TEXT or a number as the series name, not a BLOB"))
+add("svg_bar_chart(1, 1, X'00')", arg("svg_bar_chart", 3, "series", "a BLOB of 1 byte",
+                                     "expected TEXT or a number as the series name, not a BLOB"))
+for options, shown, expected in (
+        ("'{'", "'{'", "invalid JSON at byte 2: expected a key in double quotes"),
+        ("printf('%.100001c', ' ')", "'" + " " * 60 + "...'", "options are at most 100000 bytes of JSON; these have 100001")):
+    add(f"svg_bar_chart(1, 1, 'a', {options})", arg("svg_bar_chart", 4, "options", shown, expected))
 # to_time and to_amount
 add("to_time('2026-01-01', '%Q')", arg("to_time", 2, "format", "'%Q'",
     "unknown directive at character 1 ('%Q'); expected one of %Y %y %m %d %e %H %I %M %S %f %p %b %B %a %A %j %z %%, or the word excel"))
@@ -255,6 +264,8 @@ add("SELECT * FROM periods('2026-01-01')", Error("periods(): stop is missing; ex
 add("SELECT * FROM periods('2026-01-01', '2026-02-01')", Error("periods(): spec is missing; expected periods(start, stop, spec [, zone])"))
 add("period_end('9999-12-31', 'day')", Error("period_end(): the result falls outside years 0000 through 9999"))
 SERIES_65 = "(WITH RECURSIVE s(n) AS (SELECT 1 UNION ALL SELECT n + 1 FROM s WHERE n < 65) SELECT svg_line_chart(n, n, 'item ' || n) FROM s)"
+add(SERIES_65.replace("svg_line_chart", "svg_bar_chart"), Error("svg_bar_chart(): more than 64 series; a chart holds "
+                                                              "at most 64 (8 colours x 8 dash patterns): chart the top items only"))
 add(SERIES_65, Error("svg_line_chart(): more than 64 series; a chart holds at most 64 (8 colours x 8 dash patterns): chart the top items only"))
 
 # ---- results: NULL by SQL's rules, frames of one row and of all rows, no rows ------------
