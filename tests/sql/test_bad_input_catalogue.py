@@ -251,6 +251,11 @@ add("to_amount(X'00')", arg("to_amount", 1, "text", "a BLOB of 1 byte", "expecte
 add("to_amount('12', ';')", arg("to_amount", 2, "decimal_mark", "';'", "expected '.' or ','"))
 add("to_amount('12', CAST(X'00' AS TEXT))", arg("to_amount", 2, "decimal_mark", f"'{NUL}'", "expected '.' or ','"))
 
+add("SELECT * FROM period_totals('no_such_table', 'day')", arg(
+    "period_totals", 1, "source", "'no_such_table'", "no table or view of that name (expected 'name' or 'schema.name')"))
+add("SELECT * FROM period_totals('no_such_table', 'fortnight')",  # the spec is read first
+    arg("period_totals", 2, "spec", "'fortnight'", "unknown unit 'fortnight'; " + GRAMMAR))
+
 # ---- errors about the rows as a whole ----------------------------------------------------
 add("SELECT * FROM periods('2026-01-01', '2026-04-26 17:46:41', 'second')",
     Error("periods(): the range holds 10000001 periods; at most 10000000 per call: narrow the range or use a longer spec"))
