@@ -20,6 +20,8 @@
 //  6. valid_time(t): 1 when t is a time value every function accepts, else 0;
 //     NULL for NULL; never raises.
 //  7. almanac_version(): TEXT.
+//  8. almanac_tz_version(): TEXT, the tz release in use and where its data
+//     came from: "2025b (/usr/share/zoneinfo)" or "2025b (built in)".
 //  Any NULL argument gives NULL. A time that is not a time value, a spec that
 //  does not parse, an unknown zone, or a result outside years 0000-9999 is an
 //  error naming the function, the argument and the value. The forms without a
@@ -28,6 +30,7 @@
 #include "almanac_version.h"
 #include "arguments.h"
 #include "core/text/error.h"
+#include "core/time/zone_database.h"
 #include "period_context.h"
 #include "registration.h"
 
@@ -148,6 +151,13 @@ void almanac_version(sqlite3_context* context, int, sqlite3_value**) {
     sqlite3_result_text(context, ALMANAC_VERSION, -1, SQLITE_STATIC);
 }
 
+void almanac_tz_version(sqlite3_context* context, int, sqlite3_value**) {
+    guarded(context, [&] {
+        std::string text = zone_data_description();
+        sqlite3_result_text(context, text.c_str(), static_cast<int>(text.size()), SQLITE_TRANSIENT);
+    });
+}
+
 void valid_time(sqlite3_context* context, int, sqlite3_value** argv) {
     if (sqlite3_value_type(argv[0]) == SQLITE_NULL) return sqlite3_result_null(context);
     // Never raises for bad input, but running out of memory while reading it
@@ -179,6 +189,7 @@ int register_period_functions(sqlite3* db) {
     add("period_of_serial", 3, kZoned, nullptr, period_of_serial);
     add("valid_time", 1, kPure, nullptr, valid_time);
     add("almanac_version", 0, kPure, nullptr, almanac_version);
+    add("almanac_tz_version", 0, kZoned, nullptr, almanac_tz_version);
     return rc;
 }
 

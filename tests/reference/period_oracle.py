@@ -220,6 +220,31 @@ class ZoneClock:
         return high
 
 
+def offset_changes(name, first_year, last_year):
+    """Every change of UTC offset of zone `name` in [first_year, last_year], as
+    (instant ms, offset before, offset after), from zoneinfo alone: a daily scan,
+    then bisection to the millisecond."""
+    clock = ZoneClock(name)
+    t = ms_of(dt.datetime(first_year, 1, 1))
+    stop = ms_of(dt.datetime(last_year + 1, 1, 1))
+    found = []
+    before = clock.offset_at(t)
+    while t < stop:
+        after = clock.offset_at(t + MS_PER_DAY)
+        if after != before:
+            low, high = t, t + MS_PER_DAY
+            while high - low > 1:
+                middle = (low + high) // 2
+                if clock.offset_at(middle) == before:
+                    low = middle
+                else:
+                    high = middle
+            found.append((high, before, after))
+            before = after
+        t += MS_PER_DAY
+    return found
+
+
 @dataclass
 class Period:
     start: int     # ms, inclusive

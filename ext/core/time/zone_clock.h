@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: MIT
-// A wall clock: UTC, or an IANA zone read through the date library's tz
-// database (which reads the operating system's zoneinfo). The only place in
-// almanac where a time zone matters.
+// A wall clock: UTC, or an IANA zone whose rules come from the zone database
+// (the OS's zoneinfo or the built-in data; zone_database.h). The only place
+// in almanac where a time zone matters.
 #pragma once
 
 #include <chrono>
@@ -10,10 +10,7 @@
 #include <vector>
 
 #include "core/time/time_value.h"
-
-namespace date {
-class time_zone;
-}
+#include "core/time/zone_rules.h"
 
 namespace almanac {
 
@@ -30,7 +27,7 @@ class ZoneClock {
     // Throws Error for a name not in the tz database. Never opens a path.
     static ZoneClock named(std::string_view iana_name);
 
-    bool is_utc() const { return zone_ == nullptr; }
+    bool is_utc() const { return rules_ == nullptr; }
     std::string name() const;
 
     Regime regime_at(Instant t) const;
@@ -41,16 +38,19 @@ class ZoneClock {
     Instant first_instant_at(LocalTime local) const;
 
   private:
-    explicit ZoneClock(const date::time_zone* zone) : zone_(zone) {}
-    const date::time_zone* zone_ = nullptr;
+    ZoneClock(const ZoneRules* rules, std::string_view name) : rules_(rules), name_(name) {}
+    Regime regime_of_span(Instant t) const;
+    // Rules are shared by every clock of the process and never freed.
+    const ZoneRules* rules_ = nullptr;
+    std::string name_;
     // Rows of one query are usually close in time, so the last regime looked
     // up answers most questions without a search of the zone's transitions.
     // A clock belongs to one statement, which runs on one thread at a time.
     mutable Regime last_{};
     mutable bool has_last_ = false;
     // Every regime looked up so far, in time order, so rows spread over many
-    // years are answered by a short binary search instead of the tz
-    // database's own look-up (which also builds the abbreviation string).
+    // years are answered by a short binary search instead of a walk
+    // through the zone's rules.
     mutable std::vector<Regime> known_;
 };
 
