@@ -9,15 +9,22 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 # test (tests/packaging) needs CPack's dpkg-shlibdeps and file, lintian, gcc and
 # pkgconf for its C program (zlib1g-dev for SQLite's private -lz in a static
 # link), g++-multilib builds unit.32bit, locales gives the locale test its
-# localedef, and GNU time measures the processes of the job benchmark (bench.jobs).
+# localedef, GNU time measures the processes of the job benchmark (bench.jobs);
+# g++-mingw-w64-x86-64-posix, wine64 and npm (which fetches the SQLite
+# amalgamation) serve the Windows stage.
 "$root/tests/setup.sh" --tests chromium fonts-dejavu-core poppler-utils \
   clang libclang-rt-14-dev valgrind \
-  dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales time
+  dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales time \
+  g++-mingw-w64-x86-64-posix gcc-mingw-w64-x86-64-posix wine64 npm
 cd "$root/build"
 # The 32-bit unit tests are built only where -m32 links (g++-multilib, installed above).
 ctest -N -R '^unit[.]32bit$' | grep -q 'Total Tests: 1' ||
   { echo "almanac: unit.32bit was not built (g++-multilib missing?)" >&2; exit 1; }
 ctest --output-on-failure -j 2 "$@"
+# almanac.dll under wine against the Linux module (about 1 minute on a warm
+# machine, 5 on a fresh one); skipped, like the stages below, when arguments
+# choose a subset of the ctests.
+[ $# -gt 0 ] || "$root/tests/windows/run.sh"
 # Sanitizers, fuzzing, threads and valgrind (about 10 minutes); skipped when
 # arguments choose a subset of the ctests.
 [ $# -gt 0 ] || "$root/tests/hardening/stages.sh"

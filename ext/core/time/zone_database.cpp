@@ -137,7 +137,7 @@ const ZoneRules* find_zone_rules(std::string_view iana_name) {
 
 std::string zone_data_description() {
     const Source& from = source();
-    if (from.release.empty()) return "none (no zoneinfo on this machine and none built in)";
+    if (from.release.empty()) return "none (no zone data built into this module, and the OS's not used)";
     return from.release + (from.system ? " (" + from.folder + ")" : std::string(" (built in)"));
 }
 
