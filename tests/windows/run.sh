@@ -27,7 +27,7 @@ mkdir -p "$out"
 cmake -S "$root/ext/windows" -B "$out" \
   -DCMAKE_TOOLCHAIN_FILE="$root/ext/windows/mingw-w64-x86_64.cmake" > "$out/build.log" 2>&1 ||
   { cat "$out/build.log"; exit 1; }
-cmake --build "$out" -j 2 >> "$out/build.log" 2>&1 || { cat "$out.log"; exit 1; }
+cmake --build "$out" -j 2 >> "$out/build.log" 2>&1 || { cat "$out/build.log"; exit 1; }
 # The DLL must need nothing a bare Windows lacks, and export the entry point.
 headers="$(x86_64-w64-mingw32-objdump -p "$out/almanac.dll")"
 imports=$(sed -n 's/^\s*DLL Name: //p' <<< "$headers" | sort | tr '\n' ' ')
