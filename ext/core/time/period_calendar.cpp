@@ -11,6 +11,9 @@
 #include "core/time/period_calendar.h"
 
 #include <algorithm>
+#include <map>
+#include <mutex>
+#include <tuple>
 #include <vector>
 
 #include "core/exact/floor_division.h"
@@ -306,12 +309,37 @@ class SubDayGrid {
     std::vector<RegimeSerials> regimes_;
 };
 
+// A zone's grid walks every offset regime from year 0000 to 9999: about
+// 16,000 for a zone that keeps daylight saving by its footer rule, a few
+// milliseconds of work. Statements repeat the same zone and spec, and zone
+// rules never change while the process runs, so zoned grids are built once
+// and shared by every statement and thread of the process.
+std::shared_ptr<const SubDayGrid> shared_sub_day_grid(const PeriodSpec& spec,
+                                                      const ZoneClock& clock) {
+    if (clock.is_utc()) return std::make_shared<const SubDayGrid>(spec, clock);
+    using Key = std::tuple<std::string, std::int64_t, std::int64_t>;
+    static std::mutex mutex;
+    static std::map<Key, std::shared_ptr<const SubDayGrid>> grids;
+    // A bound on the cache: a process that cycles through many zones and
+    // specs starts over rather than keeping every grid (about 1 MB each).
+    constexpr std::size_t kMostGrids = 64;
+    Key key{clock.name(), spec.sub_day_length().count(),
+            spec.from ? spec.from->time_since_epoch().count() : 0};
+    std::lock_guard<std::mutex> lock(mutex);
+    auto found = grids.find(key);
+    if (found != grids.end()) return found->second;
+    auto grid = std::make_shared<const SubDayGrid>(spec, clock);
+    if (grids.size() >= kMostGrids) grids.clear();
+    grids.emplace(std::move(key), grid);
+    return grid;
+}
+
 // ---------------------------------------------------------------------------
 
 PeriodCalendar::PeriodCalendar(PeriodSpec spec, ZoneClock clock)
     : spec_(std::move(spec)), clock_(clock) {
     if (spec_.is_sub_day()) {
-        sub_day_ = std::make_shared<SubDayGrid>(spec_, clock_);
+        sub_day_ = shared_sub_day_grid(spec_, clock_);
     } else {
         grid_ = std::make_shared<CalendarGrid>(spec_);
         writes_dates_ = !grid_->has_time_of_day();
