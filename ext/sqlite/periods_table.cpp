@@ -11,6 +11,9 @@
 //  4. A NULL start, stop, spec or zone gives no rows; stop <= start gives
 //     no rows. A missing start, stop or spec, or a bad one, is an error
 //     naming the argument.
+//  5. Reading past the 10,000,000th row of one call is an error that says
+//     how many periods the range holds (a mistyped range would otherwise run
+//     for hours); a LIMIT below that never meets it.
 #include <memory>
 #include <optional>
 
@@ -38,6 +41,7 @@ struct Cursor {
     Instant stop{};
     bool done = true;
     sqlite3_int64 row = 0;
+    std::int64_t periods_in_range = 0;
     sqlite3_value* arguments[kArguments] = {nullptr, nullptr, nullptr, nullptr};
 
     ~Cursor() { release_arguments(); }
@@ -155,14 +159,11 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         if (first >= cursor->stop) return SQLITE_OK;
         cursor->current = cursor->calendar->period_of(first);
         // Rows are streamed, so memory is bounded anyway; the limit bounds the
-        // time a mistyped range (seconds over centuries) can take.
+        // time a mistyped range (seconds over centuries) can take. It is met
+        // when the rows are read, not when the range is set, so a LIMIT that
+        // takes the first rows of a huge range still works.
         std::int64_t last = cursor->calendar->period_of(cursor->stop - Millis(1)).serial;
-        if (last - cursor->current.serial >= kMostPeriods)
-            return set_error(cursor->base.pVtab,
-                             std::string(kName) + "(): the range holds " +
-                                 std::to_string(last - cursor->current.serial + 1) +
-                                 " periods; at most " + std::to_string(kMostPeriods) +
-                                 " per call: narrow the range or use a longer spec");
+        cursor->periods_in_range = last - cursor->current.serial + 1;
         cursor->done = false;
         return SQLITE_OK;
     } catch (const std::bad_alloc&) {
@@ -193,7 +194,15 @@ int next(sqlite3_vtab_cursor* base) {
         cursor->done = true;  // the calendar's end, year 9999
     }
     ++cursor->row;
-    return SQLITE_OK;
+    if (cursor->done || cursor->row < kMostPeriods) return SQLITE_OK;
+    try {
+        return set_error(base->pVtab, std::string(kName) + "(): the range holds " +
+                                          std::to_string(cursor->periods_in_range) +
+                                          " periods; at most " + std::to_string(kMostPeriods) +
+                                          " per call: narrow the range or use a longer spec");
+    } catch (const std::bad_alloc&) {
+        return SQLITE_NOMEM;
+    }
 }
 
 int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
