@@ -127,3 +127,35 @@ SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, me
 FROM temp.almanac_weekday_rows WHERE @by_segment = 1
 ORDER BY segment <> 'all segments', segment, item, weekday_number;
 DROP TABLE temp.almanac_weekday_rows;
+
+-- A name that matches no item gets one row that says so and names the item
+-- closest to it: the most letter pairs in common, ignoring case (Dice's
+-- coefficient of the two sets of pairs), ties by name; as totals.sql does.
+WITH
+missing AS (
+  SELECT @item AS wanted
+  WHERE @item IS NOT NULL AND @item <> '*' AND NOT EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item)
+),
+positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
+name_pairs AS (
+  SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
+  FROM (SELECT DISTINCT item FROM sales WHERE item IS NOT NULL) AS n, positions, missing
+  WHERE positions.k < length(n.item)
+),
+wanted_pairs AS (
+  SELECT DISTINCT substr(lower(missing.wanted), positions.k, 2) AS pair
+  FROM missing, positions WHERE positions.k < length(missing.wanted)
+),
+closest AS (
+  SELECT 'no item named ' || quote(missing.wanted) || '; the closest item is '
+           || coalesce(quote((SELECT n.item FROM name_pairs AS n
+                              GROUP BY n.item
+                              ORDER BY 2.0 * count(DISTINCT CASE WHEN n.pair IN wanted_pairs THEN n.pair END)
+                                         / (count(DISTINCT n.pair) + (SELECT count(*) FROM wanted_pairs)) DESC,
+                                       n.item
+                              LIMIT 1)), 'none: the table has no items') AS message
+  FROM missing
+)
+SELECT NULL AS weekday, message AS item, NULL AS days, NULL AS days_with_sales, NULL AS qty, NULL AS amount,
+       NULL AS share_pct, NULL AS mean_per_day, NULL AS median_per_day, NULL AS "index"
+FROM closest;
