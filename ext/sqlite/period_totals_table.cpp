@@ -406,9 +406,8 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     for (int argument = 0; argument < 2; ++argument) {
         if (!given[argument]) {
             return set_error(base->pVtab,
-                             std::string(kName) + "(): argument " + std::to_string(argument + 1) +
-                                 " (" + names[argument] +
-                                 ") is missing: expected period_totals(source, spec [, zone])");
+                             std::string(kName) + "(): " + names[argument] +
+                                 " is missing; expected period_totals(source, spec [, zone])");
         }
     }
     try {

@@ -343,7 +343,7 @@ def test_bad_sources_and_times_name_what_was_expected():
     assert error_of(db, "SELECT * FROM period_totals('sales', 'week', 'Mars/Olympus')").startswith(
         "period_totals(): argument 3 (zone) = 'Mars/Olympus': ")
     assert error_of(db, "SELECT * FROM period_totals()") == (
-        "period_totals(): argument 1 (source) is missing: expected period_totals(source, spec [, zone])")
+        "period_totals(): source is missing; expected period_totals(source, spec [, zone])")
 
 
 def test_more_item_periods_than_the_limit_is_a_clear_error():
