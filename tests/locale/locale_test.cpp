@@ -6,7 +6,7 @@
 //
 // The program runs one set of queries under "C", then after
 // setlocale(LC_ALL, <locale>) (a locale generated into the test's own folder
-// by locale_test.sh, see there), and requires the two transcripts to be
+// by locale_test.sh, see there), and requires the two records of results to be
 // identical byte for byte. REAL results are compared by their bits, so the
 // check itself formats no number through the C library.
 //
@@ -75,7 +75,7 @@ std::string hex_bits(double value) {
 }
 
 // One line per query: its SQL, then every column of every row, or the error.
-std::string transcript(sqlite3* db) {
+std::string record_of_results(sqlite3* db) {
     std::string out;
     for (const char* sql : kQueries) {
         out += sql;
@@ -127,7 +127,7 @@ std::string run_queries() {
         std::cerr << "cannot open a database with almanac registered\n";
         std::exit(2);
     }
-    std::string text = transcript(db);
+    std::string text = record_of_results(db);
     sqlite3_close(db);
     return text;
 }
