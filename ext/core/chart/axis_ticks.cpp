@@ -23,8 +23,11 @@ double round_step(double range, int max_intervals) {
 std::string tick_label(double value, double step) {
     if (std::fabs(value) < step * 1e-9) value = 0;  // -0 and 1e-17 are zero
     if (std::fabs(value) >= 1e15 || step < 1e-6 || step >= 1e15) {
-        int digits = 1 + std::max(0, int(std::ceil(std::log10(std::fabs(value) / step + 1))));
-        return general_double(value, std::min(digits, 17));
+        // value / step overflows to inf for a huge value over a tiny step; more
+        // than 17 significant digits never helps, so clamp before converting.
+        double wanted = std::ceil(std::log10(std::fabs(value) / step + 1));
+        int digits = !(wanted < 16) ? 17 : 1 + std::max(0, int(wanted));
+        return general_double(value, digits);
     }
     int decimals = std::max(0, -int(std::floor(std::log10(step) + 1e-9)));
     std::string text = fixed_double(value, decimals);
