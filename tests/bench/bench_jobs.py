@@ -7,9 +7,13 @@ Ways: almanac with period_totals (where it applies), almanac with GROUP BY,
 the plain SQLite SQL a user would write without almanac, and pandas end to
 end (read the rows from the same database, compute). SQL ways run in the real
 `sqlite3` shell; every process is measured by /usr/bin/time (wall seconds
-including process start, peak resident memory). Prints one table, the bare
-scan as the floor, and the per-row key cost (bench_periods.py) with callgrind
-instruction counts on 200,000 rows. Not a test: it asserts nothing about time.
+including process start and writing the answer, peak resident memory).
+Prints one table with each of the issue's targets marked met or NOT met, the
+bare scan as the floor; at 10,000,000 rows and more also the almanac ways'
+peak memory at 1,000,000 rows beside it; and the index-on-the-expression
+recipe. Asserts nothing about time, but exits 1 when the ways' answers to a job
+differ (same_answers.py: keys, counts, sums within stated rounding bounds).
+Best of ALMANAC_BENCH_REPEAT runs (3 from 1,000,000 rows, else 1).
 """
 import datetime
 import os
