@@ -64,6 +64,7 @@ enum Column {
 };
 constexpr int kFirstArgument = kSource;
 constexpr int kArguments = 3;
+constexpr int kReadsQty = 1 << kArguments;  // an idxNum bit beside the argument bits
 
 struct Table {
     sqlite3_vtab base{};
@@ -76,6 +77,7 @@ struct Cursor {
     std::unique_ptr<PeriodTotals> totals;
     std::vector<std::size_t> order;
     bool has_qty = false;
+    bool reads_qty = false;  // the query uses qty, so the pass read it
     TimeValue like;
     std::size_t item = 0;  // position in order
     Period current{};
@@ -144,6 +146,9 @@ int best_index(sqlite3_vtab*, sqlite3_index_info* info) {
         info->aConstraintUsage[where[argument]].omit = 1;
         mask |= 1 << argument;
     }
+    // qty is read from the source only when the query uses it: its column
+    // costs a read and an exact add per row (README "Performance").
+    if (info->colUsed & (sqlite3_uint64{1} << kQty)) mask |= kReadsQty;
     info->idxNum = mask;
     // A full scan of the source: expensive, so SQLite runs it once.
     info->estimatedCost = 1e6;
@@ -227,9 +232,11 @@ struct SourceQuery {
     std::string sql;
     bool has_item = false;
     bool has_qty = false;
+    bool reads_qty = false;  // the query uses qty, so the pass read it
 };
 
-SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_value* source) {
+SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_value* source,
+                         bool wants_qty) {
     std::string text = *read_text(source_arg, source);
     // 'schema.name' when the part before the first dot is an attached
     // database holding such a table; otherwise the whole text is the name, so
@@ -271,7 +278,7 @@ SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_val
     query.has_qty = !found[3].empty();
     query.sql = "SELECT " + quote_identifier(found[0]) + ", " + quote_identifier(found[1]);
     if (query.has_item) query.sql += ", " + quote_identifier(found[2]);
-    if (query.has_qty) query.sql += ", " + quote_identifier(found[3]);
+    if (query.has_qty && wants_qty) query.sql += ", " + quote_identifier(found[3]);
     query.sql += " FROM ";
     if (!schema.empty()) query.sql += quote_identifier(schema) + ".";
     query.sql += quote_identifier(name);
@@ -302,16 +309,72 @@ void add_value(ExactTotal& total, sqlite3_value* cell, const ArgumentRef& source
     }
 }
 
-// The one pass: every row of the source into the totals.
-void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqlite3_value* source) {
-    SourceQuery query = source_query(db, source_arg, source);
+// The item of one source row as PeriodTotals keys it.
+struct ItemOfRow {
+    ItemKey::Kind kind = ItemKey::Kind::Null;
+    std::int64_t integer = 0;
+    double real = 0;
+    std::string_view bytes;
+};
+
+ItemOfRow item_of(sqlite3_value* item) {
+    ItemOfRow read;
+    switch (sqlite3_value_type(item)) {
+        case SQLITE_INTEGER:
+            read.kind = ItemKey::Kind::Integer;
+            read.integer = sqlite3_value_int64(item);
+            break;
+        case SQLITE_FLOAT:
+            read.kind = ItemKey::Kind::Real;
+            read.real = sqlite3_value_double(item);
+            break;
+        case SQLITE_TEXT: {
+            read.kind = ItemKey::Kind::Text;
+            const char* text = reinterpret_cast<const char*>(sqlite3_value_text(item));
+            read.bytes = std::string_view(text ? text : "",
+                                          static_cast<std::size_t>(sqlite3_value_bytes(item)));
+            break;
+        }
+        case SQLITE_BLOB: {
+            read.kind = ItemKey::Kind::Blob;
+            const char* blob = static_cast<const char*>(sqlite3_value_blob(item));
+            read.bytes = std::string_view(blob ? blob : "",
+                                          static_cast<std::size_t>(sqlite3_value_bytes(item)));
+            break;
+        }
+        default:
+            break;
+    }
+    return read;
+}
+
+// The period serial of a TEXT time in a common form on a calendar of UTC
+// midnights, by day numbers alone (PeriodCalendar::utc_period_serial_of_day);
+// nothing when the general path must answer.
+std::optional<std::int64_t> serial_by_day_number(const PeriodCalendar& calendar,
+                                                 sqlite3_value* ts) {
+    if (!calendar.has_utc_midnights() || sqlite3_value_type(ts) != SQLITE_TEXT) return std::nullopt;
+    const char* text = reinterpret_cast<const char*>(sqlite3_value_text(ts));
+    auto day = common_form_day(
+        std::string_view(text ? text : "", static_cast<std::size_t>(sqlite3_value_bytes(ts))));
+    if (!day) return std::nullopt;
+    return calendar.utc_period_serial_of_day(*day);
+}
+
+// The one pass: every row of the source into the totals. Each column is
+// fetched once (every sqlite3_column_* call takes the connection's mutex)
+// and read with the sqlite3_value_* functions.
+void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqlite3_value* source,
+                bool wants_qty) {
+    SourceQuery query = source_query(db, source_arg, source, wants_qty);
     Statement statement;
     if (sqlite3_prepare_v2(db, query.sql.c_str(), static_cast<int>(query.sql.size()),
                            &statement.handle, nullptr) != SQLITE_OK)
         throw SqlError(database_error(db));
     cursor.has_qty = query.has_qty;
+    cursor.reads_qty = wants_qty;
     const int item_column = query.has_item ? 2 : -1;
-    const int qty_column = query.has_qty ? (query.has_item ? 3 : 2) : -1;
+    const int qty_column = query.has_qty && wants_qty ? (query.has_item ? 3 : 2) : -1;
     const PeriodCalendar& calendar = *cursor.calendar;
     PeriodTotals& totals = *cursor.totals;
     bool have_like = false;
@@ -321,58 +384,24 @@ void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqli
         sqlite3_value* ts = sqlite3_column_value(statement.handle, 0);
         if (sqlite3_value_type(ts) == SQLITE_NULL) continue;
         std::int64_t serial;
-        TimeValue time;
         try {
-            time = time_value_of(ts);
-            serial = calendar.serial_of(calendar.place_on_time_line(time));
+            auto quick = serial_by_day_number(calendar, ts);
+            serial =
+                quick ? *quick : calendar.serial_of(calendar.place_on_time_line(time_value_of(ts)));
+            // Results are written like the earliest row's ts (period_floor's rule).
+            if (!have_like || serial < like_serial) {
+                cursor.like = time_value_of(ts);
+                like_serial = serial;
+                have_like = true;
+            }
         } catch (const Error& error) {
             raise_cell_error(source_arg, source, "ts", ts, error.what());
         }
-        if (!have_like || serial < like_serial) {
-            cursor.like = time;
-            like_serial = serial;
-            have_like = true;
-        }
-        ItemKey::Kind kind = ItemKey::Kind::Null;
-        std::int64_t integer = 0;
-        double real = 0;
-        std::string_view bytes;
-        if (item_column >= 0) {
-            sqlite3_stmt* s = statement.handle;
-            switch (sqlite3_column_type(s, item_column)) {
-                case SQLITE_INTEGER:
-                    kind = ItemKey::Kind::Integer;
-                    integer = sqlite3_column_int64(s, item_column);
-                    break;
-                case SQLITE_FLOAT:
-                    kind = ItemKey::Kind::Real;
-                    real = sqlite3_column_double(s, item_column);
-                    break;
-                case SQLITE_TEXT: {
-                    kind = ItemKey::Kind::Text;
-                    const char* text =
-                        reinterpret_cast<const char*>(sqlite3_column_text(s, item_column));
-                    bytes = std::string_view(
-                        text ? text : "",
-                        static_cast<std::size_t>(sqlite3_column_bytes(s, item_column)));
-                    break;
-                }
-                case SQLITE_BLOB: {
-                    kind = ItemKey::Kind::Blob;
-                    const char* blob =
-                        static_cast<const char*>(sqlite3_column_blob(s, item_column));
-                    bytes = std::string_view(
-                        blob ? blob : "",
-                        static_cast<std::size_t>(sqlite3_column_bytes(s, item_column)));
-                    break;
-                }
-                default:
-                    break;
-            }
-        }
+        ItemOfRow item;
+        if (item_column >= 0) item = item_of(sqlite3_column_value(statement.handle, item_column));
         PeriodCell* cell;
         try {
-            cell = &totals.cell(kind, integer, real, bytes, serial);
+            cell = &totals.cell(item.kind, item.integer, item.real, item.bytes, serial);
         } catch (const Error& error) {
             raise_argument_error(source_arg, source, error.what());
         }
@@ -420,7 +449,7 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         cursor->calendar.emplace(
             make_calendar(spec_arg, given[1], given[2] ? &zone_arg : nullptr, given[2]));
         cursor->totals = std::make_unique<PeriodTotals>(kMaxCells);
-        accumulate(table->db, *cursor, source_arg, given[0]);
+        accumulate(table->db, *cursor, source_arg, given[0], (mask & kReadsQty) != 0);
         if (cursor->totals->empty()) return SQLITE_OK;
         cursor->order = cursor->totals->items_in_order();
         cursor->item = 0;
@@ -511,6 +540,8 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
                 }
                 case kQty:
                     if (!cursor->has_qty) return sqlite3_result_null(context);
+                    // SQLite names every column a scan reads in colUsed.
+                    if (!cursor->reads_qty) throw Error("qty was not read for this query");
                     return result_total(context, cursor->totals->at(item, cursor->current.serial),
                                         &PeriodCell::qty);
                 case kAmount:

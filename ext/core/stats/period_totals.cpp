@@ -46,21 +46,28 @@ int compare_numbers(const ItemKey& a, const ItemKey& b) {
     return -compare_integer_real(b.integer, a.real);
 }
 
-std::uint64_t hash_bytes(std::uint64_t seed, std::string_view bytes) {
-    // FNV-1a: short keys (item names) dominate, and it needs no tables.
-    std::uint64_t h = 1469598103934665603ull ^ seed;
-    for (unsigned char c : bytes) {
-        h ^= c;
-        h *= 1099511628211ull;
-    }
-    return h;
-}
-
 std::uint64_t mix(std::uint64_t x) {
     x ^= x >> 33;
     x *= 0xff51afd7ed558ccdull;
     x ^= x >> 33;
     return x;
+}
+
+// Up to eight bytes as one number (the missing high bytes zero), in the
+// machine's byte order: only equality of hashes matters.
+std::uint64_t load_up_to_8(const char* p, std::size_t n) {
+    std::uint64_t x = 0;
+    std::memcpy(&x, p, n);
+    return x;
+}
+
+std::uint64_t hash_bytes(std::uint64_t seed, std::string_view bytes) {
+    // Eight bytes per step: item names are short, and this runs per row.
+    std::uint64_t h = mix(seed * 0x9e3779b97f4a7c15ull + bytes.size());
+    const char* p = bytes.data();
+    std::size_t n = bytes.size();
+    for (; n >= 8; p += 8, n -= 8) h = mix(h ^ load_up_to_8(p, 8)) * 0x9e3779b97f4a7c15ull;
+    return mix(h ^ load_up_to_8(p, n));
 }
 
 }  // namespace
@@ -146,8 +153,6 @@ std::size_t PeriodTotals::find_or_add(ItemKey::Kind kind, std::int64_t integer, 
                 return item.key.bytes == bytes;
         }
     };
-    if (!items_.empty() && same(items_[last_item_])) return last_item_;
-
     std::uint64_t h;
     switch (kind) {
         case Kind::Integer:
@@ -162,6 +167,10 @@ std::size_t PeriodTotals::find_or_add(ItemKey::Kind kind, std::int64_t integer, 
         default:
             h = hash_bytes(static_cast<std::uint64_t>(kind), bytes);
     }
+    // Rows of one item often come together; the hash is compared first, so
+    // a different item costs no comparison of bytes.
+    if (!items_.empty() && items_[last_item_].hash == h && same(items_[last_item_]))
+        return last_item_;
     if (slots_.empty()) slots_.assign(64, 0);
     std::size_t mask = slots_.size() - 1;
     std::size_t slot = static_cast<std::size_t>(h) & mask;

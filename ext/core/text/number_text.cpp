@@ -176,27 +176,6 @@ std::string general_double(double value, int digits) {
     return std::string(buffer, result.ptr);
 }
 
-namespace {
-constexpr char kDigitPairs[] =
-    "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
-    "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
-    "8081828384858687888990919293949596979899";
-}  // namespace
-
-char* write_padded(char* out, unsigned v, int width) {
-    // Two digits at a time: this runs once per row for every TEXT result.
-    int i = width;
-    while (i >= 2) {
-        i -= 2;
-        const char* pair = kDigitPairs + 2 * (v % 100);
-        out[i] = pair[0];
-        out[i + 1] = pair[1];
-        v /= 100;
-    }
-    if (i == 1) out[0] = static_cast<char>('0' + v % 10);
-    return out + width;
-}
-
 std::string padded(unsigned v, int width) {
     char buffer[16];
     return std::string(buffer, write_padded(buffer, v, width));

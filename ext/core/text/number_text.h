@@ -47,9 +47,28 @@ std::string fixed_double(double value, int decimals);
 // printf's %.*g: `digits` significant digits, trailing zeros removed.
 std::string general_double(double value, int digits);
 
+namespace number_text_detail {
+inline constexpr char kDigitPairs[] =
+    "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
+    "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
+    "8081828384858687888990919293949596979899";
+}  // namespace number_text_detail
+
 // Writes v as exactly `width` decimal digits, zero-padded (v < 10^width), at
-// out and returns the end. No allocation: time texts are written per row.
-char* write_padded(char* out, unsigned v, int width);
+// out and returns the end. No allocation, two digits at a time, and inline:
+// time texts are written once per row of every period key.
+inline char* write_padded(char* out, unsigned v, int width) {
+    int i = width;
+    while (i >= 2) {
+        i -= 2;
+        const char* pair = number_text_detail::kDigitPairs + 2 * (v % 100);
+        out[i] = pair[0];
+        out[i + 1] = pair[1];
+        v /= 100;
+    }
+    if (i == 1) out[0] = static_cast<char>('0' + v % 10);
+    return out + width;
+}
 
 // The same as a string ("07" for 7, 2).
 std::string padded(unsigned v, int width);

@@ -28,6 +28,7 @@ using namespace std::chrono;
 using date::days;
 
 constexpr std::int64_t kMillisPerDay = 86400000;
+constexpr std::int64_t kFirstSupportedDay = -719528;  // 0000-01-01
 
 std::int64_t month_index(date::year_month_day ymd) {
     return std::int64_t(int(ymd.year())) * 12 + (unsigned(ymd.month()) - 1);
@@ -93,6 +94,20 @@ class CalendarGrid {
             }
         }
         epoch_index_ = index_of(local_epoch());
+        anchor_day_number_ = date::floor<days>(anchor_).time_since_epoch().count();
+    }
+
+    // index_of and boundary in day numbers (days since 1970-01-01), for grids
+    // whose boundaries are midnights: the period keys' shortcut.
+    std::int64_t index_of_day(std::int64_t day) const {
+        if (length_days_ == 7) return floor_div_by<7>(day - anchor_day_number_);
+        if (length_days_ == 1) return day - anchor_day_number_;
+        if (length_days_ > 0) return floor_div(day - anchor_day_number_, length_days_);
+        return index_of(LocalTime{Millis{day * kMillisPerDay}});
+    }
+    std::int64_t boundary_day(std::int64_t k) const {
+        if (length_days_ > 0) return anchor_day_number_ + k * length_days_;
+        return date::floor<days>(boundary(k)).time_since_epoch().count();
     }
 
     LocalTime boundary(std::int64_t k) const {
@@ -148,6 +163,7 @@ class CalendarGrid {
     unsigned anchor_day_ = 1;
     Millis anchor_time_{0};
     std::int64_t epoch_index_ = 0;
+    std::int64_t anchor_day_number_ = 0;  // anchor_'s day (days since 1970-01-01)
 };
 
 // ---------------------------------------------------------------------------
@@ -343,7 +359,20 @@ PeriodCalendar::PeriodCalendar(PeriodSpec spec, ZoneClock clock)
     } else {
         grid_ = std::make_shared<CalendarGrid>(spec_);
         writes_dates_ = !grid_->has_time_of_day();
+        utc_midnights_ = writes_dates_ && clock_.is_utc();
     }
+}
+
+std::optional<date::local_days> PeriodCalendar::utc_period_start_day(date::local_days day) const {
+    if (!utc_midnights_) return std::nullopt;
+    std::int64_t start = grid_->boundary_day(grid_->index_of_day(day.time_since_epoch().count()));
+    if (start < kFirstSupportedDay) return std::nullopt;
+    return date::local_days{date::days{start}};
+}
+
+std::optional<std::int64_t> PeriodCalendar::utc_period_serial_of_day(date::local_days day) const {
+    if (!utc_midnights_) return std::nullopt;
+    return grid_->index_of_day(day.time_since_epoch().count()) - grid_->epoch_index();
 }
 
 Period PeriodCalendar::period_of(Instant t) const {
@@ -373,12 +402,18 @@ Instant PeriodCalendar::floor(Instant t) const {
 
 std::int64_t PeriodCalendar::serial_of(Instant t) const {
     if (sub_day_) return sub_day_->period_of(t).serial;
-    std::int64_t k = grid_->index_of(clock_.to_local(t));
-    if (clock_.is_utc()) return k - grid_->epoch_index();
-    // As in floor(): only an offset change inside the period needs the full path.
-    Instant start = clock_.first_instant_at(grid_->boundary(k));
-    if (clock_.regime_at(t).begin > start) return period_of(t).serial;
-    return k - grid_->epoch_index();
+    if (clock_.is_utc()) return grid_->index_of(clock_.to_local(t)) - grid_->epoch_index();
+    // One look-up of the offset: when the period's first reading falls in
+    // t's own regime, more than a day after the regime began, no change of
+    // offset lies between the period's start and t, and no earlier regime
+    // can have shown that reading or the next boundary's (offsets change by
+    // at most 26 hours), so the period is the one the reading names.
+    // Otherwise period_of sorts it out.
+    ZoneClock::Regime regime = clock_.regime_at(t);
+    std::int64_t k = grid_->index_of(LocalTime{t.time_since_epoch()} + regime.offset);
+    Instant start{(grid_->boundary(k) - regime.offset).time_since_epoch()};
+    if (start >= regime.begin + std::chrono::hours{26}) return k - grid_->epoch_index();
+    return period_of(t).serial;
 }
 
 Instant PeriodCalendar::start_of_day(date::local_days day) const {

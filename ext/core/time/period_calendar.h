@@ -6,6 +6,7 @@
 
 #include <cstdint>
 #include <memory>
+#include <optional>
 #include <string>
 #include <utility>
 
@@ -72,6 +73,15 @@ class PeriodCalendar {
     // boundaries fall at midnight) or date-times.
     bool writes_dates() const { return writes_dates_; }
 
+    // The shortcut of the period keys for the common case, a calendar whose
+    // periods all start at a UTC midnight (no zone, a unit of a day or
+    // longer, no time of day in `from`): the period holding the UTC day
+    // `day` by day numbers alone. Nothing for other calendars, and for a
+    // start before year 0000 (the general path then gives the error).
+    bool has_utc_midnights() const { return utc_midnights_; }
+    std::optional<date::local_days> utc_period_start_day(date::local_days day) const;
+    std::optional<std::int64_t> utc_period_serial_of_day(date::local_days day) const;
+
   private:
     LocalTime shift_reading(LocalTime local, std::int64_t n) const;
 
@@ -80,7 +90,8 @@ class PeriodCalendar {
     // Immutable after construction, so copies may share them.
     std::shared_ptr<const CalendarGrid> grid_;
     std::shared_ptr<const SubDayGrid> sub_day_;
-    bool writes_dates_ = false;  // decided once: write_boundary runs per row
+    bool writes_dates_ = false;   // decided once: write_boundary runs per row
+    bool utc_midnights_ = false;  // the shortcut above applies
 };
 
 }  // namespace almanac

@@ -63,6 +63,14 @@ struct TimeValue {
 // Parsers throw almanac::Error saying what was expected. They accept exactly
 // what valid_time() accepts.
 TimeValue parse_time_text(std::string_view text);
+// The general reader behind parse_time_text, without its fixed-place
+// shortcut for the common forms; the test of the shortcut compares the two.
+TimeValue parse_time_text_in_full(std::string_view text);
+// The calendar day (the UTC day, for a date-time) of a text in one of the
+// forms exports write most, YYYY-MM-DD or YYYY-MM-DD HH:MM[:SS] with a space
+// or a T; nothing for any other text, valid or not. The period keys'
+// shortcut: no TimeValue is built.
+std::optional<date::local_days> common_form_day(std::string_view text);
 TimeValue parse_time_real(double value);
 TimeValue parse_time_integer(std::int64_t value);
 
