@@ -57,38 +57,52 @@
 -- The rows are gathered in a temporary table first, so that the segment column
 -- appears only with @by_segment = 1; the table is dropped at the end.
 DROP TABLE IF EXISTS temp.almanac_noise_rows;
+-- period_totals keys by item only: for @by_segment it reads this view, whose
+-- item is [segment, item], so each segment's days are totalled on their own.
+DROP VIEW IF EXISTS temp.almanac_noise_segments;
+CREATE TEMP VIEW almanac_noise_segments AS
+  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_noise_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment
 ),
--- Every row counts for 'all segments', and with @by_segment also for its own
--- segment; everything below is computed per segment, so a segment's rows are
--- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
--- sales.segment when the table has one (sql/totals.sql does the same).
-source AS (
-  SELECT s.ts, s.item, s.amount, 'all segments' AS segment FROM sales AS s
+-- Day totals per item, read in one pass without sorting the rows (period_totals):
+-- 'all segments' from sales, and with @by_segment each segment from the view
+-- above (a NULL source reads nothing); everything below is computed per
+-- segment, so a segment's figures are those of the report run on that segment
+-- alone. Every item has a row for every day from the first sale to the last;
+-- sales = 0 on a day without any.
+day_totals AS MATERIALIZED (
+  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.amount
+  FROM settings, period_totals('sales', 'day', settings.zone) AS t
   UNION ALL
-  SELECT s.ts, s.item, s.amount, coalesce(segment, '(none)')
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
-  WHERE settings.by_segment = 1
+  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
+         t.sales, t.amount
+  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_noise_segments' END,
+                               'day', settings.zone) AS t
 ),
+-- The local days of a segment's first and last sale, of any item.
 range AS (
-  SELECT s.segment, coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
-         coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM source AS s, settings
-  GROUP BY s.segment
+  SELECT segment, coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
+  FROM day_totals
+  WHERE sales > 0
+  GROUP BY segment
 ),
 weeks AS (
   SELECT range.segment, p.serial, p.label
   FROM settings, range, periods(range.start, range.stop, 'week', settings.zone) AS p
 ),
+-- The day totals of the range summed per week; only weeks with sales appear here.
 weekly_sales AS (
-  SELECT s.segment, period_serial(s.ts, 'week', settings.zone) AS serial, s.item, exact_sum(s.amount) AS amount
-  FROM source AS s JOIN range USING (segment), settings
-  WHERE period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
-    AND period_serial(s.ts, 'day', settings.zone) < period_serial(range.stop, 'day', settings.zone)
+  SELECT d.segment, period_serial(d.period_start, 'week', settings.zone) AS serial, d.item,
+         exact_sum(d.amount) AS amount
+  FROM day_totals AS d JOIN range USING (segment), settings
+  WHERE d.serial >= period_serial(range.start, 'day', settings.zone)
+    AND d.serial < period_serial(range.stop, 'day', settings.zone)
   GROUP BY 1, 2, 3
+  HAVING sum(d.sales) > 0
 ),
 -- Every week for every item: an item's week without sales is 0, not missing,
 -- or the line would be fitted to the good weeks only.
@@ -118,3 +132,4 @@ FROM temp.almanac_noise_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY rank;
 SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1
 ORDER BY segment <> 'all segments', segment, rank;
 DROP TABLE temp.almanac_noise_rows;
+DROP VIEW temp.almanac_noise_segments;
