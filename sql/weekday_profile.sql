@@ -52,40 +52,54 @@
 -- The rows are gathered in a temporary table first, so that the segment column
 -- appears only with @by_segment = 1; the table is dropped at the end.
 DROP TABLE IF EXISTS temp.almanac_weekday_rows;
+-- period_totals keys by item only: for @by_segment it reads this view, whose
+-- item is [segment, item], so each segment's days are totalled on their own.
+DROP VIEW IF EXISTS temp.almanac_weekday_segments;
+CREATE TEMP VIEW almanac_weekday_segments AS
+  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.qty, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_weekday_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice, coalesce(@by_segment, 0) AS by_segment
 ),
--- Every row counts for 'all segments', and with @by_segment also for its own
--- segment; everything below is computed per segment, so a segment's rows are
--- those of the report run on that segment alone. The NATURAL LEFT JOIN finds
--- sales.segment when the table has one (sql/totals.sql does the same).
-source AS (
-  SELECT s.ts, s.item, s.qty, s.amount, 'all segments' AS segment FROM sales AS s
+-- Day totals per item, read in one pass without sorting the rows (period_totals):
+-- 'all segments' from sales, and with @by_segment each segment from the view
+-- above (a NULL source reads nothing); everything below is computed per
+-- segment, so a segment's figures are those of the report run on that segment
+-- alone. Every item has a row for every day from the first sale to the last;
+-- sales = 0 on a day without any.
+day_totals AS MATERIALIZED (
+  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.qty, t.amount
+  FROM settings, period_totals('sales', 'day', settings.zone) AS t
   UNION ALL
-  SELECT s.ts, s.item, s.qty, s.amount, coalesce(segment, '(none)')
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
-  WHERE settings.by_segment = 1
+  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
+         t.sales, t.qty, t.amount
+  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_weekday_segments' END,
+                               'day', settings.zone) AS t
 ),
-chosen AS (
-  SELECT s.segment, s.ts, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE s.item END AS item,
-         s.qty, s.amount, period_serial(s.ts, 'day', settings.zone) AS day
-  FROM source AS s, settings
-  WHERE settings.item_choice IS NULL OR settings.item_choice = '*' OR s.item = settings.item_choice
-),
+-- The local days of a segment's first and last sale, of any item.
 range AS (
-  SELECT s.segment, coalesce(@start, min(period_floor(s.ts, 'day', settings.zone))) AS start,
-         coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM source AS s, settings
-  GROUP BY s.segment
+  SELECT segment, coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
+  FROM day_totals
+  WHERE sales > 0
+  GROUP BY segment
+),
+-- The chosen item's days with sales; all items together are the exact sum of
+-- the items' day totals.
+chosen AS (
+  SELECT t.segment, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE t.item END AS item,
+         t.serial AS day, exact_sum(t.qty) AS qty, exact_sum(t.amount) AS amount
+  FROM day_totals AS t, settings
+  WHERE t.sales > 0
+    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR t.item = settings.item_choice)
+  GROUP BY 1, 2, 3
 ),
 daily_sales AS (
-  SELECT c.segment, c.day AS serial, c.item, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount
+  SELECT c.segment, c.day AS serial, c.item, c.qty, c.amount
   FROM chosen AS c JOIN range USING (segment), settings
   WHERE c.day >= period_serial(range.start, 'day', settings.zone)
     AND c.day < period_serial(range.stop, 'day', settings.zone)
-  GROUP BY 1, 2, 3
 ),
 -- Every day of the range for every item. Day serial 0 is 1970-01-01, a
 -- Thursday, so (serial + 3) mod 7 counts from Monday = 0 (the outer + 7 keeps
@@ -127,6 +141,7 @@ SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, me
 FROM temp.almanac_weekday_rows WHERE @by_segment = 1
 ORDER BY segment <> 'all segments', segment, item, weekday_number;
 DROP TABLE temp.almanac_weekday_rows;
+DROP VIEW temp.almanac_weekday_segments;
 
 -- A name that matches no item gets one row that says so and names the item
 -- closest to it: the most letter pairs in common, ignoring case (Dice's
