@@ -59,23 +59,44 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.parameter set @unit month' -cmd '.mode column' shop.db < sql/totals.sql
+-- period_totals keys by item only: for @by_segment it reads this view, whose
+-- item is [segment, item], so each segment's days are totalled on their own.
+-- The NATURAL LEFT JOIN finds sales.segment when the table has one and
+-- otherwise joins nothing, leaving segment NULL: one view for both shapes.
+DROP VIEW IF EXISTS temp.almanac_totals_segments;
+CREATE TEMP VIEW almanac_totals_segments AS
+  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.qty, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 WITH
 settings AS (
-  SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, @item AS item_choice,
-         coalesce(@by_segment, 0) AS by_segment
+  SELECT spec, zone, item_choice, by_segment,
+         -- Periods of whole local days: not those of hours, minutes or seconds,
+         -- nor periods that start at a time of day ('week from 2024-01-15 06:00').
+         NOT (lower(spec) GLOB '*hour*' OR lower(spec) GLOB '*minute*' OR lower(spec) GLOB '*second*'
+              OR replace(upper(spec), ' ', '') GLOB 'PT*' OR spec GLOB '*:*') AS whole_days
+  FROM (SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, @item AS item_choice,
+               coalesce(@by_segment, 0) AS by_segment)
 ),
--- The NATURAL LEFT JOIN finds sales.segment when the table has one and
--- otherwise joins nothing, leaving segment NULL: one query for both shapes.
-source AS (
-  SELECT s.ts, s.item, s.qty, s.amount, segment
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment
+-- Day totals per item, read in one pass without sorting the rows (period_totals):
+-- 'all segments' from sales, and with @by_segment each segment from the view
+-- above (a NULL source reads nothing). Every item has a row for every day from
+-- the first sale to the last; sales = 0 on a day without any. A period's
+-- totals are the sums of its days' totals, which also count its days with sales.
+day_totals AS MATERIALIZED (
+  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.qty, t.amount
+  FROM settings, period_totals('sales', 'day', settings.zone) AS t
+  UNION ALL
+  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
+         t.sales, t.qty, t.amount
+  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_totals_segments' END,
+                               'day', settings.zone) AS t
 ),
 -- The range is that of the whole table, also when one item is chosen, so every
 -- item's rows cover the same periods.
 range AS (
-  SELECT coalesce(@start, min(period_floor(src.ts, 'day', settings.zone))) AS start,
-         coalesce(@stop, max(period_end(src.ts, 'day', settings.zone))) AS stop
-  FROM source AS src, settings
+  SELECT coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
+  FROM day_totals
+  WHERE segment = 'all segments' AND sales > 0
 ),
 days AS (
   SELECT period_serial(range.start, 'day', settings.zone) AS first_day,
@@ -83,32 +104,49 @@ days AS (
   FROM range, settings
 ),
 chosen AS (
-  SELECT src.ts, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE src.item END AS item,
-         src.qty, src.amount, period_serial(src.ts, 'day', settings.zone) AS day,
-         coalesce(src.segment, '(none)') AS segment
-  FROM source AS src, settings
-  WHERE settings.item_choice IS NULL OR settings.item_choice = '*' OR src.item = settings.item_choice
+  SELECT d.segment, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE d.item END AS item,
+         d.serial AS day, d.period_start, d.sales, d.qty, d.amount
+  FROM day_totals AS d, settings
+  WHERE d.sales > 0
+    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR d.item = settings.item_choice)
 ),
--- Every row counts for all segments, and with @by_segment also for its own.
+-- A period shorter than a day, or one that starts at a time of day, is not
+-- made of whole days: its sales are summed from the rows themselves. Every
+-- row counts for all segments, and with @by_segment also for its own.
 counted AS (
-  SELECT c.ts, c.item, c.qty, c.amount, c.day, 'all segments' AS segment FROM chosen AS c
+  SELECT s.ts, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE s.item END AS item,
+         s.qty, s.amount, period_serial(s.ts, 'day', settings.zone) AS day, 'all segments' AS segment
+  FROM settings, sales AS s
+  WHERE NOT settings.whole_days
+    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR s.item = settings.item_choice)
   UNION ALL
-  SELECT c.ts, c.item, c.qty, c.amount, c.day, c.segment FROM chosen AS c, settings
-  WHERE settings.by_segment = 1
+  SELECT s.ts, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE s.item END,
+         s.qty, s.amount, period_serial(s.ts, 'day', settings.zone), coalesce(segment, '(none)')
+  FROM settings, sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment
+  WHERE NOT settings.whole_days AND settings.by_segment = 1
+    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR s.item = settings.item_choice)
 ),
--- Sales summed per period; only periods that have sales appear here.
+-- Sales summed per period; only periods that have sales appear here. Periods of
+-- whole days sum their days' totals.
 totals AS (
+  SELECT period_serial(c.period_start, settings.spec, settings.zone) AS serial, c.segment, c.item,
+         sum(c.sales) AS sales, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount,
+         count(DISTINCT c.day) AS days_with_sales
+  FROM settings, days, chosen AS c
+  WHERE settings.whole_days AND c.day >= days.first_day AND c.day < days.after_day
+  GROUP BY 1, 2, 3
+  UNION ALL
   SELECT period_serial(c.ts, settings.spec, settings.zone) AS serial, c.segment, c.item,
          count(*) AS sales, exact_sum(c.qty) AS qty, exact_sum(c.amount) AS amount,
          count(DISTINCT c.day) AS days_with_sales
-  FROM counted AS c, settings, days
+  FROM settings, days, counted AS c
   WHERE c.day >= days.first_day AND c.day < days.after_day
   GROUP BY 1, 2, 3
 ),
 segments AS (
   SELECT 'all segments' AS segment
   UNION ALL
-  SELECT DISTINCT coalesce(src.segment, '(none)') FROM source AS src, settings WHERE settings.by_segment = 1
+  SELECT DISTINCT segment FROM day_totals WHERE segment <> 'all segments' AND sales > 0
 ),
 -- Every period of the range for every segment and item; the LEFT JOIN leaves the
 -- empty ones NULL. A period's days are counted on the local calendar.
@@ -135,12 +173,14 @@ report AS (
 missing AS (
   SELECT settings.item_choice AS wanted FROM settings
   WHERE settings.item_choice IS NOT NULL AND settings.item_choice <> '*'
-    AND NOT EXISTS (SELECT 1 FROM source AS src WHERE src.item = settings.item_choice)
+    AND NOT EXISTS (SELECT 1 FROM day_totals AS d
+                    WHERE d.segment = 'all segments' AND d.item = settings.item_choice)
 ),
 positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
 name_pairs AS (
   SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM source WHERE item IS NOT NULL) AS n, positions, missing
+  FROM (SELECT DISTINCT item FROM day_totals WHERE segment = 'all segments' AND item IS NOT NULL) AS n,
+       positions, missing
   WHERE positions.k < length(n.item)
 ),
 wanted_pairs AS (
@@ -171,3 +211,4 @@ SELECT period, segment, item, days_in_period, days_covered, complete,
        sales, qty, amount, days_with_sales, amount_per_day, mean_sale
 FROM output
 ORDER BY serial IS NULL, serial, segment <> 'all segments', segment, item;
+DROP VIEW temp.almanac_totals_segments;
