@@ -16,7 +16,10 @@ import pytest
 from conftest import MODULE
 
 MODULE_NAME = MODULE[:-3] if MODULE.endswith(".so") else MODULE
-ROWS_10M = "WITH RECURSIVE r(n) AS (SELECT 1 UNION ALL SELECT n + 1 FROM r WHERE n < {n}) "
+# The rows 1..n: the sqlite3 shell's own generate_series, about a third of the
+# work of a recursive CTE for the same 10,000,000 values (the values and their
+# order are the same, so the results are too).
+ROWS_10M = "WITH r(n) AS (SELECT value FROM generate_series(1, {n})) "
 
 
 # A fresh Python process runs the shell and reports the kernel's peak for its one child.
