@@ -14,21 +14,26 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 # amalgamation) serve the Windows stage.
 # Debian's npm package is asked for only when no npm is on the PATH: a machine
 # whose Node.js comes with its own npm (NodeSource's nodejs) refuses Debian's.
+# Each stage prints its elapsed seconds (the whole must stay under 30 minutes).
+started=$SECONDS
+took() { echo "almanac: $1 took $((SECONDS - started)) s"; started=$SECONDS; }
 npm_package=()
 command -v npm > /dev/null || npm_package=(npm)
 "$root/tests/setup.sh" --tests chromium fonts-dejavu-core poppler-utils \
   clang libclang-rt-14-dev valgrind \
   dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales time \
   g++-mingw-w64-x86-64-posix gcc-mingw-w64-x86-64-posix wine64 "${npm_package[@]}"
+took "installing and building"
 cd "$root/build"
 # The 32-bit unit tests are built only where -m32 links (g++-multilib, installed above).
 ctest -N -R '^unit[.]32bit$' | grep -q 'Total Tests: 1' ||
   { echo "almanac: unit.32bit was not built (g++-multilib missing?)" >&2; exit 1; }
 ctest --output-on-failure -j 2 "$@"
+took ctest
 # almanac.dll under wine against the Linux module (about 1 minute on a warm
 # machine, 5 on a fresh one); skipped, like the stages below, when arguments
 # choose a subset of the ctests.
-[ $# -gt 0 ] || "$root/tests/windows/run.sh"
+[ $# -gt 0 ] || { "$root/tests/windows/run.sh"; took "the Windows stage"; }
 # Sanitizers, fuzzing, threads and valgrind (about 10 minutes); skipped when
 # arguments choose a subset of the ctests.
-[ $# -gt 0 ] || "$root/tests/hardening/stages.sh"
+[ $# -gt 0 ] || { "$root/tests/hardening/stages.sh"; took "the hardening stages"; }

@@ -4,7 +4,8 @@
 #   1. a clang build with ASan+UBSan and the libFuzzer harnesses (build-asan/):
 #      the unit tests, the fuzz replays and the SQL-level tests run in it (the
 #      Python ones load the sanitized module with the ASan runtime preloaded);
-#   2. each fuzz harness for ALMANAC_FUZZ_SECONDS (default 25) under ASan+UBSan;
+#   2. each fuzz harness for ALMANAC_FUZZ_SECONDS (default 25) under ASan+UBSan,
+#      two at a time (one core each);
 #      a crash, hang or leak fails the stage and leaves the input in build-asan/fuzz/;
 #   3. eight threads for ALMANAC_THREAD_SECONDS (default 20) under TSan (build-tsan/);
 #   4. the SQL-level tests that drive the sqlite3 shell, with the shell under
@@ -32,7 +33,15 @@ configure() {  # folder, cmake options...
 stage_asan() {
   echo "hardening: ASan+UBSan build (build-asan/)"
   configure build-asan -DALMANAC_SANITIZE=address,undefined -DALMANAC_FUZZ=ON
-  cmake --build "$root/build-asan" -j "$jobs" >> "$root/build-asan.log" 2>&1 ||
+  # Only what the tests below run: the module, the unit and embedded tests and
+  # the fuzz harnesses (the shared library, the locale and number-text tools
+  # are not run here, and TSan builds the thread test for itself).
+  local targets=(almanac almanac_unit_tests almanac_unit_tests_portable_int128 almanac_embedded_test)
+  for source in "$root"/tests/fuzz/fuzz_*.cpp; do
+    source="${source##*/}"
+    targets+=("${source%.cpp}")
+  done
+  cmake --build "$root/build-asan" -j "$jobs" --target "${targets[@]}" >> "$root/build-asan.log" 2>&1 ||
     { tail -50 "$root/build-asan.log"; exit 1; }
   cd "$root/build-asan"
   ASAN_OPTIONS=halt_on_error=1 ctest --output-on-failure -j "$jobs" -R '^(unit|embedded|fuzz_replay\.)'
@@ -45,23 +54,39 @@ stage_asan() {
 }
 
 stage_fuzz() {
-  echo "hardening: fuzzing, ${fuzz_seconds} s per harness"
+  echo "hardening: fuzzing, ${fuzz_seconds} s per harness, ${jobs} harnesses at a time"
   [ -d "$root/build-asan" ] || stage_asan
   local work="$root/build-asan/fuzz"
   mkdir -p "$work"
-  for harness in "$root"/build-asan/tests/fuzz/fuzz_*; do
+  # A libFuzzer harness runs on one core: $jobs of them run side by side, each
+  # still for its full time (the same executions per harness, half the wait).
+  local harnesses=("$root"/build-asan/tests/fuzz/fuzz_*) pids=() names=() failed=()
+  for harness in "${harnesses[@]}"; do
     local name="${harness##*/fuzz_}"
     mkdir -p "$work/$name"
     # New inputs go to the scratch folder; the checked-in corpus is only read.
-    if ! "$harness" -max_total_time="$fuzz_seconds" -timeout=10 -rss_limit_mb=2048 \
-        -artifact_prefix="$work/$name-" "$work/$name" "$root/tests/fuzz/corpus/$name" \
-        > "$work/$name.log" 2>&1; then
-      tail -40 "$work/$name.log"
-      echo "hardening: fuzz_$name found a problem; keep the input in tests/fuzz/regressions/$name/" >&2
-      exit 1
+    "$harness" -max_total_time="$fuzz_seconds" -timeout=10 -rss_limit_mb=2048 \
+      -artifact_prefix="$work/$name-" "$work/$name" "$root/tests/fuzz/corpus/$name" \
+      > "$work/$name.log" 2>&1 &
+    pids+=($!)
+    names+=("$name")
+    if [ ${#pids[@]} -eq "$jobs" ] || [ "$harness" = "${harnesses[-1]}" ]; then
+      for i in "${!pids[@]}"; do
+        if wait "${pids[$i]}"; then
+          echo "  fuzz_${names[$i]}: $(grep -E '^Done' "$work/${names[$i]}.log")"
+        else
+          failed+=("${names[$i]}")
+        fi
+      done
+      pids=()
+      names=()
     fi
-    echo "  fuzz_$name: $(grep -E '^Done' "$work/$name.log")"
   done
+  for name in "${failed[@]}"; do
+    tail -40 "$work/$name.log"
+    echo "hardening: fuzz_$name found a problem; keep the input in tests/fuzz/regressions/$name/" >&2
+  done
+  [ ${#failed[@]} -eq 0 ] || exit 1
 }
 
 stage_tsan() {
