@@ -45,8 +45,9 @@ namespace almanac::sqlite {
 namespace {
 
 constexpr const char* kName = "period_totals";
-// About 300 bytes per item-period cell while it accumulates, and room to grow
-// up to twice that: at most about 600 MiB.
+constexpr const char* kPassName = "period_totals_pass";  // its reading step, an aggregate
+// About 100 bytes per item-period cell while it accumulates, and room to
+// grow up to twice that: at most about 200 MiB.
 constexpr std::uint64_t kMaxCells = 1000000;
 
 enum Column {
@@ -276,10 +277,11 @@ SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_val
     SourceQuery query;
     query.has_item = !found[2].empty();
     query.has_qty = !found[3].empty();
-    query.sql = "SELECT " + quote_identifier(found[0]) + ", " + quote_identifier(found[1]);
-    if (query.has_item) query.sql += ", " + quote_identifier(found[2]);
-    if (query.has_qty && wants_qty) query.sql += ", " + quote_identifier(found[3]);
-    query.sql += " FROM ";
+    // One aggregate call per row inside SQLite's own loop (see accumulate).
+    query.sql = std::string("SELECT ") + kPassName + "(?1, " + quote_identifier(found[0]) + ", " +
+                quote_identifier(found[1]) + ", " +
+                (query.has_item ? quote_identifier(found[2]) : "NULL") + ", " +
+                (query.has_qty && wants_qty ? quote_identifier(found[3]) : "NULL") + ") FROM ";
     if (!schema.empty()) query.sql += quote_identifier(schema) + ".";
     query.sql += quote_identifier(name);
     return query;
@@ -294,7 +296,7 @@ SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_val
 }
 
 // Adds one qty or amount value with exact_sum's rules (summand.h).
-void add_value(ExactTotal& total, sqlite3_value* cell, const ArgumentRef& source_arg,
+void add_value(CompactTotal& total, sqlite3_value* cell, const ArgumentRef& source_arg,
                sqlite3_value* source, const char* column) {
     Summand summand = read_summand(cell);
     switch (summand.kind) {
@@ -361,9 +363,80 @@ std::optional<std::int64_t> serial_by_day_number(const PeriodCalendar& calendar,
     return calendar.utc_period_serial_of_day(*day);
 }
 
-// The one pass: every row of the source into the totals. Each column is
-// fetched once (every sqlite3_column_* call takes the connection's mutex)
-// and read with the sqlite3_value_* functions.
+// What the pass needs, handed to its aggregate as a bound pointer.
+struct Pass {
+    Cursor* cursor = nullptr;
+    const ArgumentRef* source_arg = nullptr;
+    sqlite3_value* source = nullptr;
+    bool reads_qty = false;
+    bool have_like = false;
+    std::int64_t like_serial = 0;
+    std::string error;  // the first error, as the user sees it
+};
+
+// One source row (argv: the pass, ts, amount, item, qty) into the totals.
+void add_row(Pass& pass, sqlite3_value** argv) {
+    sqlite3_value* ts = argv[1];
+    if (sqlite3_value_type(ts) == SQLITE_NULL) return;
+    Cursor& cursor = *pass.cursor;
+    const PeriodCalendar& calendar = *cursor.calendar;
+    std::int64_t serial;
+    try {
+        auto quick = serial_by_day_number(calendar, ts);
+        serial =
+            quick ? *quick : calendar.serial_of(calendar.place_on_time_line(time_value_of(ts)));
+        // Results are written like the earliest row's ts (period_floor's rule).
+        if (!pass.have_like || serial < pass.like_serial) {
+            cursor.like = time_value_of(ts);
+            pass.like_serial = serial;
+            pass.have_like = true;
+        }
+    } catch (const Error& error) {
+        raise_cell_error(*pass.source_arg, pass.source, "ts", ts, error.what());
+    }
+    ItemOfRow item = item_of(argv[3]);
+    PeriodCell* cell;
+    try {
+        cell = &cursor.totals->cell(item.kind, item.integer, item.real, item.bytes, serial);
+    } catch (const Error& error) {
+        raise_argument_error(*pass.source_arg, pass.source, error.what());
+    }
+    ++cell->rows;
+    add_value(cell->amount, argv[2], *pass.source_arg, pass.source, "amount");
+    if (pass.reads_qty) add_value(cell->qty_total(), argv[4], *pass.source_arg, pass.source, "qty");
+}
+
+constexpr const char* kPassPointer = "almanac.period_totals.pass";
+
+// The pass's aggregate step. Running inside SQLite's loop, it gets each
+// row's values directly: no sqlite3_step and no sqlite3_column_* call (each
+// takes the connection's mutex) per row. Called from SQL by anybody else,
+// it finds no pass pointer (SQL cannot make one) and refuses.
+void pass_step(sqlite3_context* context, int, sqlite3_value** argv) {
+    auto* pass = static_cast<Pass*>(sqlite3_value_pointer(argv[0], kPassPointer));
+    try {
+        if (!pass) {
+            raise_argument_error(ArgumentRef{kPassName, 1, "pass"}, argv[0],
+                                 "expected the pass of a running period_totals(), whose own "
+                                 "reading step this is; call period_totals() instead");
+        }
+        add_row(*pass, argv);
+    } catch (const std::bad_alloc&) {
+        sqlite3_result_error_nomem(context);
+    } catch (const SqlError& error) {
+        if (pass) pass->error = error.what();
+        sqlite3_result_error(context, error.what(), -1);
+    } catch (const std::exception& error) {
+        std::string message = std::string(kName) + "(): " + error.what();
+        if (pass) pass->error = message;
+        sqlite3_result_error(context, message.c_str(), -1);
+    }
+}
+
+void pass_final(sqlite3_context* context) { sqlite3_result_null(context); }
+
+// The one pass: every row of the source into the totals, by one aggregate
+// query over the source (see pass_step).
 void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqlite3_value* source,
                 bool wants_qty) {
     SourceQuery query = source_query(db, source_arg, source, wants_qty);
@@ -373,47 +446,18 @@ void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqli
         throw SqlError(database_error(db));
     cursor.has_qty = query.has_qty;
     cursor.reads_qty = wants_qty;
-    const int item_column = query.has_item ? 2 : -1;
-    const int qty_column = query.has_qty && wants_qty ? (query.has_item ? 3 : 2) : -1;
-    const PeriodCalendar& calendar = *cursor.calendar;
-    PeriodTotals& totals = *cursor.totals;
-    bool have_like = false;
-    std::int64_t like_serial = 0;
-    int rc;
-    while ((rc = sqlite3_step(statement.handle)) == SQLITE_ROW) {
-        sqlite3_value* ts = sqlite3_column_value(statement.handle, 0);
-        if (sqlite3_value_type(ts) == SQLITE_NULL) continue;
-        std::int64_t serial;
-        try {
-            auto quick = serial_by_day_number(calendar, ts);
-            serial =
-                quick ? *quick : calendar.serial_of(calendar.place_on_time_line(time_value_of(ts)));
-            // Results are written like the earliest row's ts (period_floor's rule).
-            if (!have_like || serial < like_serial) {
-                cursor.like = time_value_of(ts);
-                like_serial = serial;
-                have_like = true;
-            }
-        } catch (const Error& error) {
-            raise_cell_error(source_arg, source, "ts", ts, error.what());
-        }
-        ItemOfRow item;
-        if (item_column >= 0) item = item_of(sqlite3_column_value(statement.handle, item_column));
-        PeriodCell* cell;
-        try {
-            cell = &totals.cell(item.kind, item.integer, item.real, item.bytes, serial);
-        } catch (const Error& error) {
-            raise_argument_error(source_arg, source, error.what());
-        }
-        ++cell->rows;
-        add_value(cell->amount, sqlite3_column_value(statement.handle, 1), source_arg, source,
-                  "amount");
-        if (qty_column >= 0) {
-            add_value(cell->qty, sqlite3_column_value(statement.handle, qty_column), source_arg,
-                      source, "qty");
-        }
-    }
-    if (rc != SQLITE_DONE) throw SqlError(database_error(db));
+    Pass pass;
+    pass.cursor = &cursor;
+    pass.source_arg = &source_arg;
+    pass.source = source;
+    pass.reads_qty = query.has_qty && wants_qty;
+    if (sqlite3_bind_pointer(statement.handle, 1, &pass, kPassPointer, nullptr) != SQLITE_OK)
+        throw SqlError(database_error(db));
+    int rc = sqlite3_step(statement.handle);
+    if (rc == SQLITE_ROW) return;
+    if (!pass.error.empty()) throw SqlError(pass.error);
+    if (rc == SQLITE_NOMEM) throw std::bad_alloc();
+    throw SqlError(database_error(db));
 }
 
 int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_value** argv) {
@@ -488,9 +532,9 @@ int next(sqlite3_vtab_cursor* base) {
 
 int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
 
-void result_total(sqlite3_context* context, PeriodCell* cell, ExactTotal PeriodCell::*column) {
+void result_total(sqlite3_context* context, const PeriodCell* cell, const CompactTotal* total) {
     if (!cell) return sqlite3_result_int(context, 0);
-    auto value = (cell->*column).value();
+    auto value = total ? total->value() : std::nullopt;
     if (!value) return sqlite3_result_null(context);
     if (value->is_integer) return sqlite3_result_int64(context, value->integer);
     sqlite3_result_double(context, value->real);
@@ -542,11 +586,14 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
                     if (!cursor->has_qty) return sqlite3_result_null(context);
                     // SQLite names every column a scan reads in colUsed.
                     if (!cursor->reads_qty) throw Error("qty was not read for this query");
-                    return result_total(context, cursor->totals->at(item, cursor->current.serial),
-                                        &PeriodCell::qty);
-                case kAmount:
-                    return result_total(context, cursor->totals->at(item, cursor->current.serial),
-                                        &PeriodCell::amount);
+                    {
+                        PeriodCell* cell = cursor->totals->at(item, cursor->current.serial);
+                        return result_total(context, cell, cell ? cell->qty.get() : nullptr);
+                    }
+                case kAmount: {
+                    PeriodCell* cell = cursor->totals->at(item, cursor->current.serial);
+                    return result_total(context, cell, cell ? &cell->amount : nullptr);
+                }
                 default: {
                     sqlite3_value* argument = cursor->arguments[index - kFirstArgument];
                     if (argument) sqlite3_result_value(context, argument);
@@ -588,6 +635,9 @@ const sqlite3_module kModule = make_module();
 }  // namespace
 
 int register_period_totals_table(sqlite3* db) {
+    int rc = sqlite3_create_function(db, kPassName, 5, SQLITE_UTF8 | SQLITE_DIRECTONLY, nullptr,
+                                     nullptr, pass_step, pass_final);
+    if (rc != SQLITE_OK) return rc;
     return sqlite3_create_module(db, kName, &kModule, nullptr);
 }
 

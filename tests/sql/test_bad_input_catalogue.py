@@ -251,6 +251,15 @@ add("to_amount(X'00')", arg("to_amount", 1, "text", "a BLOB of 1 byte", "expecte
 add("to_amount('12', ';')", arg("to_amount", 2, "decimal_mark", "';'", "expected '.' or ','"))
 add("to_amount('12', CAST(X'00' AS TEXT))", arg("to_amount", 2, "decimal_mark", f"'{NUL}'", "expected '.' or ','"))
 
+# period_totals' own reading step: SQL cannot make the pointer it needs (SQLite's
+# pointer-passing interface, sqlite3_bind_pointer), so a direct call is refused.
+PASS_ONLY = ("expected the pass of a running period_totals(), whose own reading step this is; "
+             "call period_totals() instead")
+add("SELECT period_totals_pass(1, '2026-01-01', 1, 'a', 1)", arg("period_totals_pass", 1, "pass", "1", PASS_ONLY))
+add("SELECT period_totals_pass(NULL, '2026-01-01', 1, 'a', 1)",
+    arg("period_totals_pass", 1, "pass", "NULL", PASS_ONLY))
+add("SELECT period_totals_pass(x'00', ts, 1, 2, 3) FROM (SELECT '2026-01-01' AS ts)",
+    arg("period_totals_pass", 1, "pass", "a BLOB of 1 byte", PASS_ONLY))
 add("SELECT * FROM period_totals('no_such_table', 'day')", arg(
     "period_totals", 1, "source", "'no_such_table'", "no table or view of that name (expected 'name' or 'schema.name')"))
 add("SELECT * FROM period_totals('no_such_table', 'fortnight')",  # the spec is read first

@@ -1,0 +1,116 @@
+// SPDX-License-Identifier: MIT
+#include "core/exact/compact_total.h"
+
+#include <cstring>
+#include <limits>
+
+namespace almanac {
+
+namespace {
+constexpr std::int64_t kLargestExactInteger = std::int64_t{1} << 53;
+}  // namespace
+
+bool CompactTotal::add_narrow(std::uint64_t magnitude, std::int64_t exponent, bool negative) {
+    // ExactSum::add_narrow's rule: the sum stays below 2^125 with the term
+    // within 72 bits of its lowest bit.
+    if (narrow_ == 0) {
+        exponent_ = static_cast<std::int32_t>(exponent);
+        narrow_ = negative ? -Int128(magnitude) : Int128(magnitude);
+        return true;
+    }
+    if (exponent < exponent_) {
+        std::int64_t up = exponent_ - exponent;
+        if (up > 72) return false;
+        Int128 limit = Int128(1) << (125 - up);
+        if (narrow_ >= limit || narrow_ <= -limit) return false;
+        narrow_ *= Int128(1) << up;
+        exponent_ = static_cast<std::int32_t>(exponent);
+    }
+    std::int64_t d = exponent - exponent_;
+    if (d > 72) return false;
+    Int128 term = Int128(magnitude) << d;
+    Int128 sum;
+    if (add_overflows(narrow_, negative ? -term : term, &sum)) return false;
+    narrow_ = sum;
+    return true;
+}
+
+void CompactTotal::add_narrow_into(ExactSum& sum) const {
+    if (narrow_ == 0) return;
+    bool negative = narrow_ < 0;
+    Uint128 magnitude = negative ? Uint128(0) - Uint128(narrow_) : Uint128(narrow_);
+    // 32-bit digits are exact doubles.
+    for (int i = 0; i < 4; ++i) {
+        auto digit = static_cast<double>(static_cast<std::uint32_t>(magnitude >> (32 * i)));
+        if (digit != 0) sum.add_scaled(negative ? -digit : digit, exponent_ + 32 * i);
+    }
+}
+
+void CompactTotal::spill() {
+    auto spilled = std::make_unique<Spilled>();
+    add_narrow_into(spilled->reals);
+    if (!has_real_) spilled->integers = narrow_;  // integers only: exponent 0
+    spilled_ = std::move(spilled);
+    narrow_ = 0;
+}
+
+void CompactTotal::add_integer(std::int64_t v) {
+    if (!spilled_) {
+        // Up to 2^53 an integer is its own double, so one exact sum serves
+        // both the INTEGER total and the REAL one.
+        if (v >= -kLargestExactInteger && v <= kLargestExactInteger) {
+            bool negative = v < 0;
+            auto magnitude = negative ? std::uint64_t{0} - static_cast<std::uint64_t>(v)
+                                      : static_cast<std::uint64_t>(v);
+            if (add_narrow(magnitude, 0, negative)) {
+                has_value_ = true;
+                return;
+            }
+        }
+        spill();
+    }
+    // The REAL total first: it is the one that can run out of memory, and a
+    // failed add must leave the total as it was.
+    spilled_->reals.add(static_cast<double>(v));
+    spilled_->integers += Int128(v);
+    has_value_ = true;
+}
+
+void CompactTotal::add_real(double v) {
+    if (!spilled_) {
+        std::uint64_t bits;
+        std::memcpy(&bits, &v, sizeof bits);
+        int biased = static_cast<int>((bits >> 52) & 0x7ff);
+        std::uint64_t mantissa = bits & ((std::uint64_t(1) << 52) - 1);
+        std::int64_t exponent = -1074;
+        if (biased != 0) {
+            mantissa |= std::uint64_t(1) << 52;
+            exponent = biased - 1075;
+        }
+        // ±0 adds nothing but still makes the total a REAL one.
+        if (mantissa == 0 || (biased != 0x7ff && add_narrow(mantissa, exponent, bits >> 63 != 0))) {
+            has_value_ = has_real_ = true;
+            return;
+        }
+        spill();
+    }
+    spilled_->reals.add(v);  // throws for a non-finite v, as ExactSum does
+    has_value_ = has_real_ = true;
+}
+
+std::optional<ExactTotal::Value> CompactTotal::value() const {
+    if (!has_value_) return std::nullopt;
+    constexpr auto kLeast = std::numeric_limits<std::int64_t>::min();
+    constexpr auto kMost = std::numeric_limits<std::int64_t>::max();
+    if (!has_real_) {
+        Int128 integers = spilled_ ? spilled_->integers : narrow_;
+        if (integers >= kLeast && integers <= kMost)
+            return ExactTotal::Value{true, static_cast<std::int64_t>(integers), 0.0};
+    }
+    if (spilled_) return ExactTotal::Value{false, 0, spilled_->reals.to_double()};
+    ExactSum sum;
+    add_narrow_into(sum);
+    return ExactTotal::Value{false, 0, sum.to_double()};
+}
+
+}  // namespace almanac
