@@ -303,10 +303,10 @@ def main():
 # What one period_totals pass does per row, added one part at a time to the
 # bare scan, each in its own process: the measured reason behind its ratios.
 PARTS = [
-    ("+ the week key", "SELECT count(*), sum(amount), count(period_floor(ts, 'week')) FROM sales"),
-    ("+ the item read", "SELECT count(*), sum(amount), count(period_floor(ts, 'week')), "
+    ("bare scan + the week key", "SELECT count(*), sum(amount), count(period_floor(ts, 'week')) FROM sales"),
+    ("bare scan + the week key + reading item", "SELECT count(*), sum(amount), count(period_floor(ts, 'week')), "
                         "count(item) FROM sales"),
-    ("exact_sum in place of sum", "SELECT count(*), exact_sum(amount) FROM sales"),
+    ("bare scan with exact_sum in place of sum", "SELECT count(*), exact_sum(amount) FROM sales"),
     ("period_totals('sales', 'week'), rows counted",
      "SELECT count(*) FROM period_totals('sales', 'week')"),
 ]
