@@ -34,43 +34,74 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           shop.db < sql/period_bars.sql > weekly.svg
-WITH
-settings AS (
-  SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, coalesce(@last, 13) AS last,
-         coalesce(@by_segment, 0) AS by_segment
-),
+-- period_totals keys by item only: for @by_segment it reads this view, whose
+-- item is [segment, item], so each segment's days are totalled on their own.
 -- The NATURAL LEFT JOIN finds sales.segment when the table has one and
 -- otherwise joins nothing, leaving segment NULL (sql/totals.sql does the same).
+DROP VIEW IF EXISTS temp.almanac_bars_segments;
+CREATE TEMP VIEW almanac_bars_segments AS
+  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
+WITH
+settings AS (
+  SELECT spec, zone, last, by_segment,
+         -- Periods of whole local days: not those of hours, minutes or seconds,
+         -- nor periods that start at a time of day ('week from 2024-01-15 06:00').
+         NOT (lower(spec) GLOB '*hour*' OR lower(spec) GLOB '*minute*' OR lower(spec) GLOB '*second*'
+              OR replace(upper(spec), ' ', '') GLOB 'PT*' OR spec GLOB '*:*') AS whole_days
+  FROM (SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, coalesce(@last, 13) AS last,
+               coalesce(@by_segment, 0) AS by_segment)
+),
+-- Day totals per item, read in one pass without sorting the rows
+-- (period_totals), from sales or, with @by_segment, from the view above; only
+-- the chosen item's days with sales.
+days AS MATERIALIZED (
+  SELECT CASE WHEN settings.by_segment = 1 THEN json_extract(t.item, '$[0]') ELSE 'all segments' END AS segment,
+         t.serial, t.period_start, t.period_end, t.amount
+  FROM settings,
+       period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_bars_segments' ELSE 'sales' END,
+                     'day', settings.zone) AS t
+  WHERE t.sales > 0
+    AND (@item IS NULL OR CASE WHEN settings.by_segment = 1 THEN json_extract(t.item, '$[1]') ELSE t.item END = @item)
+),
+range AS (
+  SELECT period_shift(period_floor(max(days.period_end), settings.spec), 1 - settings.last, settings.spec) AS start,
+         max(days.period_end) AS stop
+  FROM days, settings
+),
+-- A period of whole days sums its days' totals; one that is not (a spec of
+-- hours, or one starting at a time of day) sums the rows themselves.
 source AS (
   SELECT s.ts, s.item, s.amount, CASE WHEN settings.by_segment = 1 THEN coalesce(segment, '(none)')
                                       ELSE 'all segments' END AS segment
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
-  WHERE @item IS NULL OR s.item = @item
-),
-range AS (
-  SELECT period_shift(period_floor(max(period_end(src.ts, 'day', settings.zone)), settings.spec),
-                      1 - settings.last, settings.spec) AS start,
-         max(period_end(src.ts, 'day', settings.zone)) AS stop
-  FROM source AS src, settings
+  FROM settings, sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment
+  WHERE NOT settings.whole_days AND (@item IS NULL OR s.item = @item)
 ),
 totals AS (
+  SELECT period_serial(d.period_start, settings.spec, settings.zone) AS serial, d.segment,
+         exact_sum(d.amount) AS amount
+  FROM settings, range, days AS d
+  WHERE settings.whole_days AND d.serial >= period_serial(range.start, 'day', settings.zone)
+  GROUP BY 1, 2
+  UNION ALL
   SELECT period_serial(src.ts, settings.spec, settings.zone) AS serial, src.segment,
          exact_sum(src.amount) AS amount
-  FROM source AS src, settings, range
+  FROM settings, range, source AS src
   WHERE period_serial(src.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
   GROUP BY 1, 2
 ),
 bars AS (
   SELECT p.period_start, g.segment, coalesce(t.amount, 0) AS amount
   FROM settings, range, periods(range.start, range.stop, settings.spec, settings.zone) AS p
-  CROSS JOIN (SELECT DISTINCT segment FROM source) AS g
+  CROSS JOIN (SELECT DISTINCT segment FROM days) AS g
   LEFT JOIN totals AS t ON t.serial = p.serial AND t.segment = g.segment
 )
 SELECT svg_bar_chart(period_start, round(amount, 2), segment,
                      json_object('title', coalesce(@title, 'Amount per period'),
                                  'y_caption', 'amount', 'period', settings.spec,
                                  'width', coalesce(@width, 960), 'height', coalesce(@height, 360)))
-FROM bars, settings
+-- Bars in period order, segments by name within a period: the same SVG on every run.
+FROM (SELECT * FROM bars ORDER BY period_start, segment) AS bars, settings
 -- A name that matches no item prints the one row below instead of a chart.
 HAVING @item IS NULL OR @item = '*' OR EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item);
 
@@ -104,3 +135,4 @@ closest AS (
 )
 SELECT message
 FROM closest;
+DROP VIEW temp.almanac_bars_segments;
