@@ -59,29 +59,37 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           shop.db < sql/daily_chart.sql > chart.svg
 DROP TABLE IF EXISTS temp.chart_points;
+-- period_totals keys by item only: for @by_segment it reads this view, whose
+-- item is [segment, item], so each segment's days are totalled on their own.
+DROP VIEW IF EXISTS temp.almanac_chart_segments;
+CREATE TEMP VIEW almanac_chart_segments AS
+  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
+-- Day totals per item, read in one pass without sorting the rows (period_totals):
+-- segment NULL from sales, and with @by_segment each segment from the view
+-- above (a NULL source reads nothing); only days with sales. Kept in a temp
+-- table for the chart's points and for its order of items, and dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_chart_days;
+CREATE TEMP TABLE almanac_chart_days AS
+SELECT NULL AS segment, t.item, t.serial, t.period_start, t.period_end, t.amount
+FROM period_totals('sales', 'day', coalesce(@zone, 'UTC')) AS t
+WHERE t.sales > 0
+UNION ALL
+SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end, t.amount
+FROM period_totals(CASE WHEN coalesce(@by_segment, 0) = 1 THEN 'temp.almanac_chart_segments' END, 'day',
+                   coalesce(@zone, 'UTC')) AS t
+WHERE t.sales > 0;
 CREATE TEMP TABLE chart_points AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment
 ),
--- The series a sale counts for: its item; with @by_segment, 'all segments' and
--- its own segment. The NATURAL LEFT JOIN finds sales.segment when the table has
--- one (sql/totals.sql does the same).
-source AS (
-  SELECT s.ts, CASE WHEN settings.by_segment = 1 THEN 'all segments' ELSE s.item END AS series, s.item,
-         s.amount
-  FROM sales AS s, settings
-  UNION ALL
-  SELECT s.ts, coalesce(segment, '(none)'), s.item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment, settings
-  WHERE settings.by_segment = 1
-),
 -- 1,092 days of three items do not fit in 960 pixels: by default the chart
 -- shows the last 13 weeks, where a day is still a few pixels wide.
 data_range AS (
-  SELECT min(period_floor(s.ts, 'day', settings.zone)) AS first,
-         coalesce(@stop, max(period_end(s.ts, 'day', settings.zone))) AS stop
-  FROM sales AS s, settings
+  SELECT min(d.period_start) AS first, coalesce(@stop, max(d.period_end)) AS stop
+  FROM temp.almanac_chart_days AS d
+  WHERE d.segment IS NULL
 ),
 range AS (
   SELECT coalesce(@start, CASE WHEN coalesce(@weeks, 13) = 0 THEN first
@@ -89,14 +97,17 @@ range AS (
          stop
   FROM data_range
 ),
+-- The series a day counts for: its item; with @by_segment, 'all segments' (the
+-- items' day totals from sales) and its own segment (those from the view).
 daily_sales AS (
   -- A day's takings in cents, so the smooth line is the mean of the amounts the raw line shows.
-  SELECT period_serial(s.ts, 'day', settings.zone) AS serial, s.series AS item,
-         round(exact_sum(s.amount), 2) AS amount
-  FROM source AS s, settings, range
-  WHERE (@item IS NULL OR s.item = @item)
-    AND period_serial(s.ts, 'day', settings.zone) >= period_serial(range.start, 'day', settings.zone)
-    AND period_serial(s.ts, 'day', settings.zone) < period_serial(range.stop, 'day', settings.zone)
+  SELECT d.serial, CASE WHEN settings.by_segment = 1 THEN coalesce(d.segment, 'all segments') ELSE d.item END AS item,
+         round(exact_sum(d.amount), 2) AS amount
+  FROM temp.almanac_chart_days AS d, settings, range
+  WHERE (@item IS NULL OR d.item = @item)
+    AND (settings.by_segment = 1 OR d.segment IS NULL)
+    AND d.serial >= period_serial(range.start, 'day', settings.zone)
+    AND d.serial < period_serial(range.stop, 'day', settings.zone)
   GROUP BY 1, 2
 ),
 chosen AS (
@@ -136,13 +147,11 @@ SELECT svg_line_chart(day, value, item, layer,
                                     THEN (SELECT json_group_array(segment) FROM (
                                       SELECT 'all segments' AS segment
                                       UNION ALL
-                                      SELECT * FROM (SELECT DISTINCT coalesce(segment, '(none)')
-                                                     FROM sales AS s NATURAL LEFT JOIN
-                                                          (SELECT NULL AS segment) AS no_segment
-                                                     ORDER BY 1)))
+                                      SELECT * FROM (SELECT DISTINCT segment FROM temp.almanac_chart_days
+                                                     WHERE segment IS NOT NULL ORDER BY 1)))
                                     ELSE (SELECT json_group_array(item) FROM (
-                                      SELECT item FROM sales GROUP BY item
-                                      ORDER BY exact_sum(amount) DESC, item)) END)))
+                                      SELECT item FROM temp.almanac_chart_days WHERE segment IS NULL
+                                      GROUP BY item ORDER BY exact_sum(amount) DESC, item)) END)))
 FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step)
 -- A name that matches no item prints the one row below instead of a chart.
 HAVING @item IS NULL OR @item = '*' OR EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item);
@@ -177,3 +186,5 @@ closest AS (
 )
 SELECT message
 FROM closest;
+DROP TABLE temp.almanac_chart_days;
+DROP VIEW temp.almanac_chart_segments;
