@@ -79,21 +79,38 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' -cmd '.headers on' shop.db < sql/compare.sql
+-- period_totals keys by item only: for @by_segment it reads this view, whose
+-- item is [segment, item], so each segment's days are totalled on their own.
+-- The NATURAL LEFT JOIN finds sales.segment when the table has one and
+-- otherwise joins nothing, leaving segment NULL: one view for both shapes.
+DROP VIEW IF EXISTS temp.almanac_compare_segments;
+CREATE TEMP VIEW almanac_compare_segments AS
+  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
+  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 WITH
 settings AS (
   SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, @item AS item_choice,
          coalesce(@by_segment, 0) AS by_segment, @against AS against
 ),
--- The NATURAL LEFT JOIN finds sales.segment when the table has one and
--- otherwise joins nothing, leaving segment NULL: one query for both shapes.
-source AS (
-  SELECT s.ts, s.item, s.amount, segment
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment
+-- Day totals per item, read in one pass without sorting the rows (period_totals):
+-- 'all segments' from sales, and with @by_segment each segment from the view
+-- above (a NULL source reads nothing); only days with sales. A span's amount is
+-- the sum of its days' totals, its trading days the days listed.
+day_totals AS MATERIALIZED (
+  SELECT 'all segments' AS segment, t.item, t.serial AS day, t.period_start, t.period_end, t.amount
+  FROM settings, period_totals('sales', 'day', settings.zone) AS t
+  WHERE t.sales > 0
+  UNION ALL
+  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
+         t.amount
+  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_compare_segments' END,
+                               'day', settings.zone) AS t
+  WHERE t.sales > 0
 ),
 range AS (
-  SELECT coalesce(@start, min(period_floor(src.ts, 'day', settings.zone))) AS start,
-         coalesce(@stop, max(period_end(src.ts, 'day', settings.zone))) AS stop
-  FROM source AS src, settings
+  SELECT coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
+  FROM day_totals
+  WHERE segment = 'all segments'
 ),
 -- Local dates from here on: period starts and day serials are plain calendar
 -- arithmetic on them (a local date's day serial is the same with or without
@@ -140,24 +157,13 @@ windows AS (
          data_after
   FROM spans
 ),
-located AS (
-  SELECT period_serial(src.ts, 'day', settings.zone) AS day, src.item, src.amount,
-         coalesce(src.segment, '(none)') AS segment
-  FROM source AS src, settings
-),
--- Every row counts for all segments, and with @by_segment also for its own; only
--- rows of the days compared are kept.
-counted AS (
-  SELECT l.day, l.item, l.amount, 'all segments' AS segment FROM located AS l
-  UNION ALL
-  SELECT l.day, l.item, l.amount, l.segment FROM located AS l, settings WHERE settings.by_segment = 1
-),
+-- Only the days compared are kept.
 in_spans AS (
   SELECT w.against, 'latest' AS side, c.segment, c.item, c.amount, c.day
-  FROM windows AS w JOIN counted AS c ON c.day >= w.first_day AND c.day < w.data_after
+  FROM windows AS w JOIN day_totals AS c ON c.day >= w.first_day AND c.day < w.data_after
   UNION ALL
   SELECT w.against, 'base', c.segment, c.item, c.amount, c.day
-  FROM windows AS w JOIN counted AS c ON c.day >= w.base_first_day AND c.day < w.base_after_day
+  FROM windows AS w JOIN day_totals AS c ON c.day >= w.base_first_day AND c.day < w.base_after_day
   WHERE w.base_covered
 ),
 trading AS (
@@ -175,12 +181,13 @@ amounts AS (
 segments AS (
   SELECT 'all segments' AS segment
   UNION ALL
-  SELECT DISTINCT coalesce(src.segment, '(none)') FROM source AS src, settings WHERE settings.by_segment = 1
+  SELECT DISTINCT segment FROM day_totals WHERE segment <> 'all segments'
 ),
 items AS (
-  SELECT DISTINCT CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE src.item END AS item
-  FROM source AS src, settings
-  WHERE settings.item_choice IS NULL OR settings.item_choice = '*' OR src.item = settings.item_choice
+  SELECT DISTINCT CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE d.item END AS item
+  FROM day_totals AS d, settings
+  WHERE d.segment = 'all segments'
+    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR d.item = settings.item_choice)
 ),
 compared AS (
   SELECT g.segment, i.item, w.against, w.start, w.base_start, w.base_covered,
@@ -207,12 +214,14 @@ compared AS (
 missing AS (
   SELECT settings.item_choice AS wanted FROM settings
   WHERE settings.item_choice IS NOT NULL AND settings.item_choice <> '*'
-    AND NOT EXISTS (SELECT 1 FROM source AS src WHERE src.item = settings.item_choice)
+    AND NOT EXISTS (SELECT 1 FROM day_totals AS d
+                    WHERE d.segment = 'all segments' AND d.item = settings.item_choice)
 ),
 positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
 name_pairs AS (
   SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM source WHERE item IS NOT NULL) AS n, positions, missing
+  FROM (SELECT DISTINCT item FROM day_totals WHERE segment = 'all segments' AND item IS NOT NULL) AS n,
+       positions, missing
   WHERE positions.k < length(n.item)
 ),
 wanted_pairs AS (
@@ -254,3 +263,4 @@ SELECT segment, item, period, days_in_period, days_covered, complete, span, trad
        base_per_trading_day, change_pct, change_per_day_pct
 FROM output
 ORDER BY message_row, segment <> 'all segments', segment, item, against <> 'previous';
+DROP VIEW temp.almanac_compare_segments;
