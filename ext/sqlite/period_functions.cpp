@@ -30,6 +30,7 @@
 #include "almanac_version.h"
 #include "arguments.h"
 #include "core/text/error.h"
+#include "core/time/common_form.h"
 #include "core/time/zone_database.h"
 #include "period_context.h"
 #include "registration.h"

@@ -37,6 +37,7 @@
 #include "arguments.h"
 #include "core/stats/period_totals.h"
 #include "core/text/error.h"
+#include "core/time/common_form.h"
 #include "period_context.h"
 #include "registration.h"
 #include "summand.h"

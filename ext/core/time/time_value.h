@@ -19,6 +19,9 @@
 #include <string_view>
 #include <variant>
 
+#include "core/text/number_text.h"
+#include "core/time/civil_days.h"
+
 namespace almanac {
 
 using Millis = std::chrono::duration<std::int64_t, std::milli>;
@@ -66,11 +69,6 @@ TimeValue parse_time_text(std::string_view text);
 // The general reader behind parse_time_text, without its fixed-place
 // shortcut for the common forms; the test of the shortcut compares the two.
 TimeValue parse_time_text_in_full(std::string_view text);
-// The calendar day (the UTC day, for a date-time) of a text in one of the
-// forms exports write most, YYYY-MM-DD or YYYY-MM-DD HH:MM[:SS] with a space
-// or a T; nothing for any other text, valid or not. The period keys'
-// shortcut: no TimeValue is built.
-std::optional<date::local_days> common_form_day(std::string_view text);
 TimeValue parse_time_real(double value);
 TimeValue parse_time_integer(std::int64_t value);
 
@@ -87,8 +85,17 @@ std::int64_t to_unix_seconds_integer(Instant t);  // floor to the second
 
 // Text writers. A local reading with an offset gets it appended as ±HH:MM.
 std::string format_date(date::local_days day);
-// Writes YYYY-MM-DD (10 bytes) at out and returns the end; no allocation.
-char* write_date(char* out, date::local_days day);
+// Writes YYYY-MM-DD (10 bytes) at out and returns the end; no allocation,
+// and inline: period keys write one per row.
+inline char* write_date(char* out, date::local_days day) {
+    CivilDate civil =
+        civil_from_day_number(static_cast<std::int32_t>(day.time_since_epoch().count()));
+    out = write_padded(out, static_cast<unsigned>(civil.year), 4);
+    *out++ = '-';
+    out = write_padded(out, civil.month, 2);
+    *out++ = '-';
+    return write_padded(out, civil.day, 2);
+}
 std::string format_date_time(LocalTime t, TextForm::Precision precision, bool t_separator);
 std::string format_offset(std::chrono::seconds offset);
 

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "core/text/error.h"
+#include "core/time/common_form.h"
 #include "core/time/period_calendar.h"
 #include "core/time/period_spec.h"
 #include "core/time/time_value.h"
