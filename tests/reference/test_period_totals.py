@@ -376,3 +376,48 @@ def test_qty_and_amount_are_what_exact_sum_gives_over_the_same_rows():
                             FROM sales GROUP BY item, serial ORDER BY item, serial""").fetchall()
     assert got == grouped
     count("cells", len(got))
+
+
+def test_qty_is_read_only_when_the_query_uses_it():
+    # README "period_totals": qty is read only when the query uses the qty column.
+    db = connect()
+    make_sales(db, [("2026-01-05", "x", x, 2.5) for x in (1, 2, "3 boxes")])
+    assert db.execute("SELECT item, sales, amount FROM period_totals('sales', 'week')").fetchall() == [
+        ("x", 3, 7.5)]  # 3 rows of 2.5: 7.5 (arithmetic)
+    assert error_of(db, "SELECT qty FROM period_totals('sales', 'week')") == (
+        "period_totals(): argument 1 (source) = 'sales': column qty holds '3 boxes':"
+        " expected a number; money or quantities written as text must be read with to_amount()"
+        " in the view that maps your table (README: \"Your data\")")
+    db.execute("UPDATE sales SET qty = 4 WHERE qty = '3 boxes'")
+    assert db.execute("SELECT qty FROM period_totals('sales', 'week')").fetchall() == [(7,)]
+
+
+def test_totals_far_apart_in_magnitude_are_still_exact_sums():
+    # Cells whose totals leave the compact 128-bit form (magnitudes 1e300 and 1e-300 in one
+    # cell, integers past 2^53 and near 2^63) against exact_sum over the same rows, which is
+    # itself compared with math.fsum (test_exact_sum*.py); and against math.fsum directly.
+    rng = random.Random(5)
+    values = [1e300, -1e300, 1e-300, 5e-324, 2.0**53 + 1, 2**62, 2**62, -(2**62), 0.1, -0.0, 3]
+    rows = []
+    for i in range(2000):
+        v = rng.choice(values)
+        if isinstance(v, float) and rng.random() < 0.5:
+            v = v * rng.random()
+        rows.append((f"2026-01-{1 + i % 28:02d}", f"item {i % 7}", rng.choice(values[6:]), v))
+    db = connect()
+    make_sales(db, rows)
+    got = db.execute("SELECT item, serial, sales, qty, amount FROM period_totals('sales', 'week')"
+                     " WHERE sales > 0").fetchall()
+    grouped = db.execute("""SELECT item, period_serial(ts, 'week') AS serial, count(*), exact_sum(qty),
+                                   exact_sum(amount)
+                            FROM sales GROUP BY item, serial ORDER BY item, serial""").fetchall()
+    assert got == grouped
+    by_cell = {}
+    for ts, item, _, amount in rows:
+        serial = db.execute("SELECT period_serial(?, 'week')", (ts,)).fetchone()[0]
+        by_cell.setdefault((item, serial), []).append(amount)
+    for item, serial, _, _, amount in got:
+        cell = by_cell[(item, serial)]
+        if any(isinstance(v, float) for v in cell):
+            assert amount == math.fsum(cell)  # Python's math.fsum, integers as their doubles
+    count("cells", len(got))
