@@ -179,7 +179,12 @@ std::string quote_identifier(const std::string& name) {
     return quoted + "\"";
 }
 
-std::string database_error(sqlite3* db) { return std::string(kName) + "(): " + sqlite3_errmsg(db); }
+// A failed call on the connection: out of memory stays SQLITE_NOMEM for the
+// caller (as every other function reports it), anything else is named.
+[[noreturn]] void raise_database_error(sqlite3* db) {
+    if (sqlite3_errcode(db) == SQLITE_NOMEM) throw std::bad_alloc();
+    throw SqlError(std::string(kName) + "(): " + sqlite3_errmsg(db));
+}
 
 // The columns of `name` in `schema` (any database, searched as SQLite
 // searches, when schema is empty); empty when there is no such table or view.
@@ -188,7 +193,7 @@ std::vector<std::string> columns_of(sqlite3* db, const std::string& schema,
     Statement query;
     if (sqlite3_prepare_v2(db, "SELECT name FROM pragma_table_xinfo(?1, ?2)", -1, &query.handle,
                            nullptr) != SQLITE_OK)
-        throw SqlError(database_error(db));
+        raise_database_error(db);
     sqlite3_bind_text(query.handle, 1, name.data(), static_cast<int>(name.size()),
                       SQLITE_TRANSIENT);
     if (!schema.empty()) {
@@ -201,7 +206,7 @@ std::vector<std::string> columns_of(sqlite3* db, const std::string& schema,
         const char* column = reinterpret_cast<const char*>(sqlite3_column_text(query.handle, 0));
         columns.emplace_back(column ? column : "");
     }
-    if (rc != SQLITE_DONE) throw SqlError(database_error(db));
+    if (rc != SQLITE_DONE) raise_database_error(db);
     return columns;
 }
 
@@ -211,10 +216,12 @@ std::string schema_named(sqlite3* db, const std::string& name) {
     if (sqlite3_prepare_v2(db,
                            "SELECT name FROM pragma_database_list WHERE name = ?1 COLLATE NOCASE",
                            -1, &query.handle, nullptr) != SQLITE_OK)
-        throw SqlError(database_error(db));
+        raise_database_error(db);
     sqlite3_bind_text(query.handle, 1, name.data(), static_cast<int>(name.size()),
                       SQLITE_TRANSIENT);
-    if (sqlite3_step(query.handle) != SQLITE_ROW) return {};
+    int rc = sqlite3_step(query.handle);
+    if (rc == SQLITE_DONE) return {};
+    if (rc != SQLITE_ROW) raise_database_error(db);
     const char* found = reinterpret_cast<const char*>(sqlite3_column_text(query.handle, 0));
     return found ? found : "";
 }
@@ -444,7 +451,7 @@ void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqli
     Statement statement;
     if (sqlite3_prepare_v2(db, query.sql.c_str(), static_cast<int>(query.sql.size()),
                            &statement.handle, nullptr) != SQLITE_OK)
-        throw SqlError(database_error(db));
+        raise_database_error(db);
     cursor.has_qty = query.has_qty;
     cursor.reads_qty = wants_qty;
     Pass pass;
@@ -453,12 +460,12 @@ void accumulate(sqlite3* db, Cursor& cursor, const ArgumentRef& source_arg, sqli
     pass.source = source;
     pass.reads_qty = query.has_qty && wants_qty;
     if (sqlite3_bind_pointer(statement.handle, 1, &pass, kPassPointer, nullptr) != SQLITE_OK)
-        throw SqlError(database_error(db));
+        raise_database_error(db);
     int rc = sqlite3_step(statement.handle);
     if (rc == SQLITE_ROW) return;
     if (!pass.error.empty()) throw SqlError(pass.error);
     if (rc == SQLITE_NOMEM) throw std::bad_alloc();
-    throw SqlError(database_error(db));
+    raise_database_error(db);
 }
 
 int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_value** argv) {

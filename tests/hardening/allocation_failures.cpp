@@ -106,7 +106,10 @@ const char* const kData =
     "WITH RECURSIVE d(n) AS (SELECT 0 UNION ALL SELECT n + 1 FROM d WHERE n < 24) "
     "INSERT INTO sales SELECT datetime('2026-03-01 10:00', '+' || n || ' days', '+' || (n % 5) "
     "|| ' hours'), CASE n % 2 WHEN 0 THEN 'tea' ELSE 'cocoa' END, 1 + n % 4, "
-    "round(2.5 + (n * 7 % 11) * 1.25, 2) FROM d;";
+    "round(2.5 + (n * 7 % 11) * 1.25, 2) FROM d;"
+    // Totals far apart in magnitude, so period_totals' compact totals spill.
+    "CREATE VIEW spread AS SELECT ts, item, qty, CASE WHEN rowid % 3 = 0 THEN amount * 1e300 "
+    "ELSE amount * 1e-300 END AS amount FROM sales;";
 
 // One query per function family: scalar and zoned periods, periods(),
 // aggregates and sliding windows, order statistics, exponential weights, charts.
@@ -141,6 +144,8 @@ std::vector<std::string> queries() {
         "strftime('%w', ts)), theil_sen_slope(amount, julianday(ts), strftime('%w', ts)), "
         "mad(amount) FROM sales",
         "SELECT mad(amount) OVER (ORDER BY ts ROWS 6 PRECEDING) FROM sales",
+        "SELECT * FROM period_totals('sales', 'week')",
+        "SELECT item, label, amount FROM period_totals('main.spread', 'day', 'America/Denver')",
     };
 }
 
