@@ -41,14 +41,15 @@ const PeriodCalendar* cached_calendar(sqlite3_context* context, int spec_index,
                                       int zone_index, const ArgumentRef* zone_arg) {
     sqlite3_value* spec = argv[spec_index];
     sqlite3_value* zone = zone_arg ? argv[zone_index] : nullptr;
-    if (sqlite3_value_type(spec) == SQLITE_NULL) return nullptr;
-    if (zone && sqlite3_value_type(zone) == SQLITE_NULL) return nullptr;
     // SQLite keeps auxdata only on constant arguments and drops it after each
     // call otherwise, so a calendar found here was built from these very
-    // values. With a zone, the calendar hangs on the spec and is marked on
-    // the zone: both must still be there for it to be used.
+    // values (never NULL ones: the NULL checks can wait). With a zone, the
+    // calendar hangs on the spec and is marked on the zone: both must still
+    // be there for it to be used.
     auto* cached = static_cast<PeriodCalendar*>(sqlite3_get_auxdata(context, spec_index));
     if (cached && (!zone || sqlite3_get_auxdata(context, zone_index) == cached)) return cached;
+    if (sqlite3_value_type(spec) == SQLITE_NULL) return nullptr;
+    if (zone && sqlite3_value_type(zone) == SQLITE_NULL) return nullptr;
     auto* fresh = new PeriodCalendar(make_calendar(spec_arg, spec, zone_arg, zone));
     // SQLite owns the object from here on, and frees it at once if it cannot keep it.
     sqlite3_set_auxdata(context, spec_index, fresh, delete_calendar);
