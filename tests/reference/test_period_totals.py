@@ -362,6 +362,16 @@ def test_more_item_periods_than_the_limit_is_a_clear_error():
         " item-period rows than the limit of 1000000: use a longer period or a smaller source")
 
 
+def weekly_cells_both_ways(db):
+    """The non-empty weekly cells from period_totals, and the same from GROUP BY with exact_sum."""
+    got = db.execute("SELECT item, serial, sales, qty, amount FROM period_totals('sales', 'week')"
+                     " WHERE sales > 0").fetchall()
+    grouped = db.execute("""SELECT item, period_serial(ts, 'week') AS serial, count(*), exact_sum(qty),
+                                   exact_sum(amount)
+                            FROM sales GROUP BY item, serial ORDER BY item, serial""").fetchall()
+    return got, grouped
+
+
 def test_qty_and_amount_are_what_exact_sum_gives_over_the_same_rows():
     # DESIGN.md: "qty and amount are exact_sums"; whole-number TEXT counts as an INTEGER there.
     rows = seeded_rows(17, 1500, oracle.dt.datetime(2025, 1, 1), oracle.dt.datetime(2025, 7, 1))
@@ -369,11 +379,7 @@ def test_qty_and_amount_are_what_exact_sum_gives_over_the_same_rows():
             for ts, item, qty, amount in rows]
     db = connect()
     make_sales(db, rows)
-    got = db.execute("SELECT item, serial, sales, qty, amount FROM period_totals('sales', 'week')"
-                     " WHERE sales > 0").fetchall()
-    grouped = db.execute("""SELECT item, period_serial(ts, 'week') AS serial, count(*), exact_sum(qty),
-                                   exact_sum(amount)
-                            FROM sales GROUP BY item, serial ORDER BY item, serial""").fetchall()
+    got, grouped = weekly_cells_both_ways(db)
     assert got == grouped
     count("cells", len(got))
 
@@ -406,11 +412,7 @@ def test_totals_far_apart_in_magnitude_are_still_exact_sums():
         rows.append((f"2026-01-{1 + i % 28:02d}", f"item {i % 7}", rng.choice(values[6:]), v))
     db = connect()
     make_sales(db, rows)
-    got = db.execute("SELECT item, serial, sales, qty, amount FROM period_totals('sales', 'week')"
-                     " WHERE sales > 0").fetchall()
-    grouped = db.execute("""SELECT item, period_serial(ts, 'week') AS serial, count(*), exact_sum(qty),
-                                   exact_sum(amount)
-                            FROM sales GROUP BY item, serial ORDER BY item, serial""").fetchall()
+    got, grouped = weekly_cells_both_ways(db)
     assert got == grouped
     by_cell = {}
     for ts, item, _, amount in rows:
