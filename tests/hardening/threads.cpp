@@ -51,6 +51,9 @@ const char* const kQueries[] = {
     "period_position(ts, 'hour', 'day', 'Europe/London') FROM sales",
     "SELECT item, exact_sum(amount), mad(amount), mann_kendall_p(amount, julianday(ts), "
     "strftime('%w', ts)) FROM sales GROUP BY item",
+    "SELECT * FROM period_totals('sales', 'week')",
+    "SELECT item, label, sales, amount FROM period_totals('sales', '3 hours', 'America/Denver')",
+    "SELECT svg_bar_chart(label, amount, item) FROM period_totals('sales', 'month')",
 };
 constexpr std::size_t kQueryCount = sizeof kQueries / sizeof kQueries[0];
 
