@@ -309,6 +309,8 @@ PARTS = [
     ("bare scan with exact_sum in place of sum", "SELECT count(*), exact_sum(amount) FROM sales"),
     ("period_totals('sales', 'week'), rows counted",
      "SELECT count(*) FROM period_totals('sales', 'week')"),
+    ("period_totals('sales', 'day'), rows counted (the smoothing job's pass)",
+     "SELECT count(*) FROM period_totals('sales', 'day')"),
 ]
 
 
