@@ -47,9 +47,11 @@ namespace {
 
 constexpr const char* kName = "period_totals";
 constexpr const char* kPassName = "period_totals_pass";  // its reading step, an aggregate
-// About 100 bytes per item-period cell while it accumulates, and room to
-// grow up to twice that: at most about 200 MiB.
-constexpr std::uint64_t kMaxCells = 1000000;
+// 48 bytes per item-period cell while it adds up (32 more when qty is
+// read), with room to grow to at most twice that: about 1 GiB at the limit.
+// Reports hold items x days, so the limit is set for a shop's catalogue:
+// 5,000 items over five and a half years.
+constexpr std::uint64_t kMaxCells = 10000000;
 
 enum Column {
     kItem,

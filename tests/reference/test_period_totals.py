@@ -348,18 +348,23 @@ def test_bad_sources_and_times_name_what_was_expected():
 
 def test_more_item_periods_than_the_limit_is_a_clear_error():
     db = connect()
-    # 2026-01-05 to 2026-02-05 in seconds: 31 days * 86400 + 1 periods (common practice)
-    make_sales(db, [("2026-01-05", "x", 1, 1.0), ("2026-02-05", "x", 1, 1.0)])
+    # 2026-01-05 to 2026-05-05 in seconds: 120 days * 86400 + 1 periods (arithmetic)
+    make_sales(db, [("2026-01-05", "x", 1, 1.0), ("2026-05-05", "x", 1, 1.0)])
     assert error_of(db, "SELECT * FROM period_totals('sales', 'second')") == (
-        "period_totals(): argument 1 (source) = 'sales': 1 item over 2678401 periods are more"
-        " item-period rows than the limit of 1000000: use a longer period or a smaller source")
-    # 2 items x 600,000 days: past the limit only once the second item arrives
+        "period_totals(): argument 1 (source) = 'sales': 1 item over 10368001 periods are more"
+        " item-period rows than the limit of 10000000: use a longer period or a smaller source")
+    # 10 items x 1,000,001 seconds: past the limit only once the tenth item arrives
+    # (2026-01-05 00:00:00 + 1,000,000 s = 2026-01-16 13:46:40, arithmetic)
     db.execute("DELETE FROM sales")
     db.executemany("INSERT INTO sales VALUES (?, ?, 1, 1)",
-                   [("2026-01-05 00:00:00", "x"), ("2026-01-11 22:39:59", "x"), ("2026-01-06", "y")])
+                   [("2026-01-05 00:00:00", "x"), ("2026-01-16 13:46:40", "x")] +
+                   [("2026-01-06", f"y{k}") for k in range(1, 10)])
     assert error_of(db, "SELECT * FROM period_totals('sales', 'second')") == (
-        "period_totals(): argument 1 (source) = 'sales': 2 items over 600000 periods are more"
-        " item-period rows than the limit of 1000000: use a longer period or a smaller source")
+        "period_totals(): argument 1 (source) = 'sales': 10 items over 1000001 periods are more"
+        " item-period rows than the limit of 10000000: use a longer period or a smaller source")
+    db.execute("DELETE FROM sales WHERE item = 'y9'")  # nine items: 9,000,009 rows, within it
+    assert db.execute("SELECT count(*), sum(sales) FROM period_totals('sales', 'second')").fetchone() == (
+        9000009, 10)
 
 
 def weekly_cells_both_ways(db):
