@@ -243,7 +243,6 @@ struct SourceQuery {
     std::string sql;
     bool has_item = false;
     bool has_qty = false;
-    bool reads_qty = false;  // the query uses qty, so the pass read it
 };
 
 SourceQuery source_query(sqlite3* db, const ArgumentRef& source_arg, sqlite3_value* source,
