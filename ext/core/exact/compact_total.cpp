@@ -1,7 +1,6 @@
 // SPDX-License-Identifier: MIT
 #include "core/exact/compact_total.h"
 
-#include <cstring>
 #include <limits>
 
 namespace almanac {
@@ -9,31 +8,6 @@ namespace almanac {
 namespace {
 constexpr std::int64_t kLargestExactInteger = std::int64_t{1} << 53;
 }  // namespace
-
-bool CompactTotal::add_narrow(std::uint64_t magnitude, std::int64_t exponent, bool negative) {
-    // ExactSum::add_narrow's rule: the sum stays below 2^125 with the term
-    // within 72 bits of its lowest bit.
-    if (narrow_ == 0) {
-        exponent_ = static_cast<std::int32_t>(exponent);
-        narrow_ = negative ? -Int128(magnitude) : Int128(magnitude);
-        return true;
-    }
-    if (exponent < exponent_) {
-        std::int64_t up = exponent_ - exponent;
-        if (up > 72) return false;
-        Int128 limit = Int128(1) << (125 - up);
-        if (narrow_ >= limit || narrow_ <= -limit) return false;
-        narrow_ *= Int128(1) << up;
-        exponent_ = static_cast<std::int32_t>(exponent);
-    }
-    std::int64_t d = exponent - exponent_;
-    if (d > 72) return false;
-    Int128 term = Int128(magnitude) << d;
-    Int128 sum;
-    if (add_overflows(narrow_, negative ? -term : term, &sum)) return false;
-    narrow_ = sum;
-    return true;
-}
 
 void CompactTotal::add_narrow_into(ExactSum& sum) const {
     if (narrow_ == 0) return;
@@ -62,7 +36,7 @@ void CompactTotal::add_integer(std::int64_t v) {
             bool negative = v < 0;
             auto magnitude = negative ? std::uint64_t{0} - static_cast<std::uint64_t>(v)
                                       : static_cast<std::uint64_t>(v);
-            if (add_narrow(magnitude, 0, negative)) {
+            if (add_to_narrow(narrow_, exponent_, magnitude, 0, negative)) {
                 has_value_ = true;
                 return;
             }
@@ -78,17 +52,11 @@ void CompactTotal::add_integer(std::int64_t v) {
 
 void CompactTotal::add_real(double v) {
     if (!spilled_) {
-        std::uint64_t bits;
-        std::memcpy(&bits, &v, sizeof bits);
-        int biased = static_cast<int>((bits >> 52) & 0x7ff);
-        std::uint64_t mantissa = bits & ((std::uint64_t(1) << 52) - 1);
-        std::int64_t exponent = -1074;
-        if (biased != 0) {
-            mantissa |= std::uint64_t(1) << 52;
-            exponent = biased - 1075;
-        }
+        DoubleParts parts = split_double(v);
         // ±0 adds nothing but still makes the total a REAL one.
-        if (mantissa == 0 || (biased != 0x7ff && add_narrow(mantissa, exponent, bits >> 63 != 0))) {
+        if (parts.finite &&
+            (parts.mantissa == 0 ||
+             add_to_narrow(narrow_, exponent_, parts.mantissa, parts.exponent, parts.negative))) {
             has_value_ = has_real_ = true;
             return;
         }

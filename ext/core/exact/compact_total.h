@@ -20,6 +20,7 @@
 
 #include "core/exact/exact_sum.h"
 #include "core/exact/exact_total.h"
+#include "core/exact/narrow_sum.h"
 #include "core/exact/wide_integer.h"
 
 namespace almanac {
@@ -39,7 +40,6 @@ class CompactTotal {
         ExactSum reals;
         Int128 integers = 0;
     };
-    bool add_narrow(std::uint64_t magnitude, std::int64_t exponent, bool negative);
     void spill();
     // Adds narrow_ * 2^exponent_ into `sum`, exactly.
     void add_narrow_into(ExactSum& sum) const;

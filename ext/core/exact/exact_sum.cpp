@@ -9,17 +9,6 @@ namespace almanac {
 
 void ExactSum::throw_not_finite() { throw Error("expected a finite number"); }
 
-bool ExactSum::rescale_narrow(std::int64_t exponent) {
-    std::int64_t up = narrow_exponent_ - exponent;
-    // The rescaled sum must stay below 2^125, with room for the term.
-    if (up > 72) return widen();
-    Int128 limit = Int128(1) << (125 - up);
-    if (narrow_ >= limit || narrow_ <= -limit) return widen();
-    narrow_ *= Int128(1) << up;  // exact: |narrow_| < 2^125 afterwards
-    narrow_exponent_ = exponent;
-    return true;
-}
-
 bool ExactSum::widen() {
     Int128 value = narrow_;
     if (value != 0) {
@@ -40,30 +29,13 @@ bool ExactSum::widen() {
 }
 
 void ExactSum::add_prod(double a, double b, std::int64_t shift, bool negate) {
-    auto split = [](double x, std::uint64_t& mantissa, int& exponent, bool& negative) {
-        std::uint64_t bits;
-        std::memcpy(&bits, &x, sizeof bits);
-        int biased = static_cast<int>((bits >> 52) & 0x7ff);
-        mantissa = bits & ((std::uint64_t(1) << 52) - 1);
-        negative = bits >> 63;
-        if (biased == 0x7ff) throw_not_finite();
-        if (biased == 0) {
-            exponent = -1074;
-        } else {
-            mantissa |= std::uint64_t(1) << 52;
-            exponent = biased - 1075;
-        }
-    };
-    std::uint64_t ma, mb;
-    int ea, eb;
-    bool na, nb;
-    split(a, ma, ea, na);
-    split(b, mb, eb, nb);
-    if (ma == 0 || mb == 0) return;
+    DoubleParts pa = split_double(a), pb = split_double(b);
+    if (!pa.finite || !pb.finite) throw_not_finite();
+    if (pa.mantissa == 0 || pb.mantissa == 0) return;
     if (!wide_) widen();
-    Uint128 product = Uint128(ma) * mb;  // exact: < 2^106
-    bool negative = negate != (na != nb);
-    std::int64_t exponent = std::int64_t(ea) + eb + shift;
+    Uint128 product = Uint128(pa.mantissa) * pb.mantissa;  // exact: < 2^106
+    bool negative = negate != (pa.negative != pb.negative);
+    std::int64_t exponent = pa.exponent + pb.exponent + shift;
     auto low = static_cast<std::uint64_t>(product);
     auto high = static_cast<std::uint64_t>(product >> 64);
     if (low) add_bits(low, exponent, negative);

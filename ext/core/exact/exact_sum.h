@@ -32,6 +32,7 @@
 #include "core/exact/correct_rounding.h"
 #include "core/exact/exact_number.h"
 #include "core/exact/floor_division.h"
+#include "core/exact/narrow_sum.h"
 #include "core/exact/wide_integer.h"
 
 namespace almanac {
@@ -69,41 +70,18 @@ class ExactSum {
     static constexpr std::uint32_t kNormalizeEvery = 1u << 29;
 
     void add_double(double x, std::int64_t shift, bool negate) {
-        std::uint64_t bits;
-        std::memcpy(&bits, &x, sizeof bits);
-        int biased = static_cast<int>((bits >> 52) & 0x7ff);
-        std::uint64_t mantissa = bits & ((std::uint64_t(1) << 52) - 1);
-        if (biased == 0x7ff) throw_not_finite();
-        int exponent;
-        if (biased == 0) {
-            if (mantissa == 0) return;
-            exponent = -1074;
-        } else {
-            mantissa |= std::uint64_t(1) << 52;
-            exponent = biased - 1075;
-        }
-        bool negative = negate != (bits >> 63 != 0);
-        if (!wide_ && add_narrow(mantissa, exponent + shift, negative)) return;
-        add_bits(mantissa, exponent + shift, negative);
+        DoubleParts parts = split_double(x);
+        if (!parts.finite) throw_not_finite();
+        if (parts.mantissa == 0) return;
+        bool negative = negate != parts.negative;
+        if (!wide_ && add_narrow(parts.mantissa, parts.exponent + shift, negative)) return;
+        add_bits(parts.mantissa, parts.exponent + shift, negative);
     }
     // Adds ±mantissa * 2^exponent to the 128-bit form; false (having moved
     // the sum into the limbs) when it does not fit.
     bool add_narrow(std::uint64_t mantissa, std::int64_t exponent, bool negative) {
-        if (narrow_ == 0) {
-            narrow_exponent_ = exponent;
-            narrow_ = negative ? -Int128(mantissa) : Int128(mantissa);
-            return true;
-        }
-        if (exponent < narrow_exponent_ && !rescale_narrow(exponent)) return false;
-        std::int64_t d = exponent - narrow_exponent_;
-        if (d > 72) return widen();  // the term would need more than 125 bits
-        Int128 term = Int128(mantissa) << d;
-        Int128 sum;
-        if (add_overflows(narrow_, negative ? -term : term, &sum)) return widen();
-        narrow_ = sum;
-        return true;
+        return add_to_narrow(narrow_, narrow_exponent_, mantissa, exponent, negative) || widen();
     }
-    bool rescale_narrow(std::int64_t exponent);
     // Moves the 128-bit form into the limbs; returns false for add_narrow.
     bool widen();
     void add_prod(double a, double b, std::int64_t shift, bool negate);
