@@ -24,7 +24,7 @@ import zipfile
 
 import pytest
 
-from conftest import MODULE, SOURCE
+from conftest import MODULE, SOURCE, connect, run_shell
 
 sys.path.insert(0, str(SOURCE / "tests" / "reference"))
 import report_oracle as oracle  # noqa: E402  (plain-Python reports, see its docstring)
@@ -32,6 +32,8 @@ import report_oracle as oracle  # noqa: E402  (plain-Python reports, see its doc
 ZONE = "America/Denver"
 WHEEL_DIR = pathlib.Path(os.environ.get("ALMANAC_WHEEL_DIR", SOURCE / "build" / "wheel"))
 README = SOURCE / "ext" / "python" / "README.md"
+# The project version, as the module itself reports it.
+VERSION = connect().execute("SELECT almanac_version()").fetchone()[0]
 WEEKLY = ("SELECT period_label(ts, 'week', 'America/Denver') AS week, count(*) AS sales, "
           "exact_sum(amount) AS amount FROM sales GROUP BY week ORDER BY week")
 
@@ -85,16 +87,16 @@ def test_the_wheel_is_tagged_for_this_platform_and_carries_the_built_module(whee
     # The file name tag (PEP 427): any Python 3, no Python ABI, this platform as
     # sysconfig names it (common practice: pip derives linux_x86_64 this way).
     platform = sysconfig.get_platform().replace("-", "_").replace(".", "_")
-    assert wheel.name == f"almanac-0.1.0-py3-none-{platform}.whl"
+    assert wheel.name == f"almanac-{VERSION}-py3-none-{platform}.whl"
     from wheel.wheelfile import WheelFile  # the wheel project's reader checks every RECORD hash
     with WheelFile(wheel) as archive:
         names = set(archive.namelist())
         for name in names:
             archive.read(name)
         carried = archive.read("almanac/almanac.so")
-        wheel_metadata = archive.read("almanac-0.1.0.dist-info/WHEEL").decode()
+        wheel_metadata = archive.read(f"almanac-{VERSION}.dist-info/WHEEL").decode()
     assert {"almanac/__init__.py", "almanac/_version.py", "almanac/almanac.so",
-            "almanac-0.1.0.dist-info/RECORD", "almanac-0.1.0.dist-info/METADATA"} <= names
+            f"almanac-{VERSION}.dist-info/RECORD", f"almanac-{VERSION}.dist-info/METADATA"} <= names
     assert "Root-Is-Purelib: false" in wheel_metadata
     assert f"Tag: py3-none-{platform}" in wheel_metadata
     # The module inside is the one the build made: a stale wheel fails here.
@@ -104,9 +106,10 @@ def test_the_wheel_is_tagged_for_this_platform_and_carries_the_built_module(whee
 
 def test_the_same_inputs_give_the_same_wheel_bytes(wheel, tmp_path):
     subprocess.run([sys.executable, str(SOURCE / "ext" / "python" / "build_wheel.py"), "--module", MODULE,
-                    "--version", "0.1.0", "--out", str(tmp_path)], check=True, capture_output=True)
+                    "--version", VERSION, "--out", str(tmp_path)], check=True, capture_output=True)
     (again,) = tmp_path.glob("*.whl")
-    assert again.read_bytes() == wheel.read_bytes()
+    assert again.read_bytes() == wheel.read_bytes(), \
+        f"{wheel} is not what build_wheel.py makes from the sources now: cmake --build build --target python_wheel"
 
 
 def test_a_weekly_query_through_almanac_load_in_a_fresh_venv(venv, shop):
@@ -128,7 +131,7 @@ print(json.dumps(dict(rows=rows, package=almanac.__file__, module=almanac.module
     venv_root = venv.parent.parent
     assert pathlib.Path(result["package"]).is_relative_to(venv_root), "almanac came from outside the venv"
     assert pathlib.Path(result["module"]).is_relative_to(venv_root)
-    assert result["version"] == result["sql_version"] == "0.1.0"
+    assert result["version"] == result["sql_version"] == VERSION
     # Extension loading is off again once almanac.load returns (SQLite answers "not authorized").
     assert result["switched_off"]
     # oracle: zoneinfo local days, date.isocalendar() weeks, math.fsum sums.
@@ -157,6 +160,36 @@ assert connection.execute("SELECT count(*) FROM temp.sqlite_master").fetchone()[
     assert [row["sales"] for row in got] == [row["sales"] for row in expected]
     assert [row["amount"] for row in got] == [round(row["amount"], 2) for row in expected]
     assert [row["days_covered"] for row in got] == [row["days_covered"] for row in expected]
+
+
+def same_rows(got, expected):
+    """Row lists equal, REAL values to 14 significant digits (the shell's JSON prints 15)."""
+    assert len(got) == len(expected)
+    for row, want in zip(got, expected):
+        assert row.keys() == want.keys()
+        for key, value in row.items():
+            if isinstance(value, float) or isinstance(want[key], float):
+                assert math.isclose(value, want[key], rel_tol=1e-14), (key, row, want)
+            else:
+                assert value == want[key], (key, row, want)
+
+
+def test_a_report_with_a_temporary_table_reads_as_the_shell_prints_it(venv, shop):
+    # sql/trend.sql: temporary table and view, parameters, two queries (the second
+    # prints rows only per segment), clean-up.
+    output = run_in(venv, """
+import json, sqlite3, almanac
+connection = almanac.load(sqlite3.connect("shop.db"))
+tables = almanac.read_report(connection, "sql/trend.sql", zone="America/Denver", spark_weeks=6)
+print(json.dumps([table.astype(object).where(table.notna(), None).to_dict("records") for table in tables]))
+""", cwd=shop)
+    tables = json.loads(output)
+    # oracle: the real sqlite3 shell running the same file, unset parameters NULL.
+    shell = run_shell(".parameter set @zone \"'America/Denver'\"\n.parameter set @spark_weeks 6\n.mode json\n"
+                      + (shop / "sql" / "trend.sql").read_text(), database=str(shop / "shop.db"))
+    expected = json.loads("[" + shell.replace("]\n[", "],\n[") + "]") if shell.strip() else []
+    assert len(tables) == len(expected) == 1
+    same_rows(tables[0], expected[0])
 
 
 def python_blocks(markdown):
