@@ -13,6 +13,12 @@
 //     with an s. With no names at all the message says there are none.
 //  3. NULL names are skipped; a number is compared by its text. `wanted`
 //     and `noun` are read from the first row; over no rows the result is NULL.
+//
+// refuse_parameter(name, value, why): NULL when value is NULL (the parameter
+// is not set); otherwise stops the statement with `name = value: why`, as in
+//   @unit = 'month': trend.sql judges ISO weeks; it takes no @unit
+// so a report refuses a parameter that makes no sense for it instead of
+// ignoring it (SQLite's RAISE works only in triggers).
 #include <memory>
 #include <set>
 #include <string>
@@ -98,6 +104,19 @@ void known_name_final(sqlite3_context* context) {
     });
 }
 
+void refuse_parameter(sqlite3_context* context, int, sqlite3_value** argv) {
+    guarded(context, [&] {
+        if (sqlite3_value_type(argv[1]) == SQLITE_NULL) {
+            sqlite3_result_null(context);
+            return;
+        }
+        auto name = read_text({"refuse_parameter", 1, "name"}, argv[0]);
+        auto why = read_text({"refuse_parameter", 3, "why"}, argv[2]);
+        throw SqlError((name ? *name : std::string("NULL")) + " = " + describe_value(argv[1]) + ": " +
+                       (why ? *why : std::string("not a parameter of this report")));
+    });
+}
+
 }  // namespace
 
 int register_name_functions(sqlite3* db) {
@@ -105,6 +124,8 @@ int register_name_functions(sqlite3* db) {
     int rc = SQLITE_OK;
     for (int argc = 2; argc <= 3 && rc == SQLITE_OK; ++argc)
         rc = sqlite3_create_function(db, kName, argc, flags, nullptr, nullptr, known_name_step, known_name_final);
+    if (rc == SQLITE_OK)
+        rc = sqlite3_create_function(db, "refuse_parameter", 3, flags, nullptr, refuse_parameter, nullptr, nullptr);
     return rc;
 }
 
