@@ -62,7 +62,7 @@ def cases(item, zone, mid_start, mid_stop):
         ("totals", {**z, "item": item, "unit": "month"}),
         ("totals", {**z, "unit": "day", "last": 10, "item": "*"}),
         ("totals", {**z, "unit": "month", "start": mid_start, "stop": mid_stop}),
-        ("totals", {**z, "unit": "6 hours", "start": mid_start, "stop": mid_start[:8] + "04"}),
+        ("totals", {**z, "unit": "6 hours", "start": mid_start, "stop": mid_start[:8] + "08"}),
         ("compare", z),
         ("compare", {**z, "by_segment": 1}),
         ("compare", {**z, "unit": "month", "item": "*"}),
