@@ -90,8 +90,10 @@
 --           -cmd '.mode column' -cmd '.headers on' shop.db < sql/compare.sql
 DROP TABLE IF EXISTS temp.almanac_range;
 CREATE TEMP TABLE almanac_range AS
-SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r
-FROM sales;
+SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
+            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
+FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
+             count(*) - count(amount) AS empty FROM sales);
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment, @against AS against,
@@ -207,5 +209,5 @@ SELECT c.segment, c.item, period_label(c.start, s.spec, s.zone) AS period, c.day
              / nullif(c.base_amount / nullif(c.base_trading_days, 0), 0), 1) AS change_per_day_pct
 FROM compared AS c, settings AS s
 ORDER BY c.segment <> 'all segments', c.segment, c.item, c.against <> 'previous';
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

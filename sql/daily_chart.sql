@@ -67,8 +67,10 @@
 DROP TABLE IF EXISTS temp.chart_points;
 DROP TABLE IF EXISTS temp.almanac_range;
 CREATE TEMP TABLE almanac_range AS
-SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r
-FROM sales;
+SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
+            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
+FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
+             count(*) - count(amount) AS empty FROM sales);
 -- Day totals per segment and item over the data's range, read in one pass
 -- (period_totals), only days with sales: kept in a temp table for the chart's
 -- points and for its order of items, and dropped at the end.
@@ -142,7 +144,7 @@ WHERE @item IS NOT NULL AND @item <> '*';
 SELECT svg_line_chart(day, value, item, layer,
                       json_object('title', coalesce(@title, 'Amount per day and 7-day moving mean')
                                              || (SELECT CASE WHEN json_extract(r, '$.left_out') > 0
-                                                             THEN ' (' || json_extract(r, '$.note') || ')' ELSE '' END
+                                                             THEN ' (' || note || ')' ELSE '' END
                                                  FROM temp.almanac_range),
                                   'y_caption', 'amount per day',
                                   'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
