@@ -65,18 +65,21 @@ settings AS (
 -- Period totals per segment and item, read in one pass (period_totals); an
 -- empty period is a row of 0.
 totals AS MATERIALIZED (
-  SELECT CASE WHEN settings.by_segment = 1 THEN coalesce(t.segment, '(none)') ELSE 'all segments' END AS segment,
-         t.item, t.period_start, t.amount,
+  SELECT CASE WHEN t.all_segments = 0 THEN coalesce(t.segment, '(none)') ELSE 'all segments' END AS segment,
+         t.all_segments, t.item, t.period_start, t.amount,
          t.covered_start <> t.period_start OR t.covered_end <> t.period_end AS partial
   FROM settings, period_totals('sales', settings.spec, settings.zone, settings.start, settings.stop) AS t
-  WHERE t.all_segments = 1 - settings.by_segment
+  WHERE t.all_segments = 1 OR settings.by_segment = 1
 ),
-chosen AS (SELECT known_name(item, @item, 'item') AS item FROM totals),
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM totals WHERE all_segments = 1),
 bars AS (
   SELECT t.period_start, t.segment || CASE WHEN t.partial THEN ' (partial period)' ELSE '' END AS series,
          exact_sum(t.amount) AS amount
   FROM totals AS t, chosen
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item
+  WHERE (chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item)
+    -- by segment: the segments' rows, or all segments for a table without a segment column
+    AND t.all_segments = (SELECT CASE WHEN settings.by_segment = 1 THEN min(all_segments) ELSE 1 END
+                          FROM totals, settings)
   GROUP BY t.period_start, t.segment, t.partial
 )
 SELECT svg_bar_chart(period_start, round(amount, 2), series,

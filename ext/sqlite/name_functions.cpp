@@ -7,8 +7,8 @@
 //  2. Otherwise it stops the statement with one message that names the
 //     closest known name (core/text/name_distance.h: the most letter pairs in
 //     common, ignoring case; ties by name):
-//       known_name(): argument 2 (wanted) = 'Pumpkin lof': expected one of the
-//       12 items; the closest is 'Pumpkin loaf'
+//       known_name(): argument 2 (wanted) = 'Pumpkin lof': expected one of
+//       the items; the closest is 'Pumpkin loaf'
 //     `noun` (default 'name') is the word the message uses, in the plural
 //     with an s. With no names at all the message says there are none.
 //  3. NULL names are skipped; a number is compared by its text. `wanted`
@@ -96,10 +96,8 @@ void known_name_final(sqlite3_context* context) {
         }
         std::vector<std::string> names(state->names.begin(), state->names.end());
         auto closest = closest_name(state->wanted_text, names);
-        std::string expected =
-            closest ? "expected one of the " + std::to_string(names.size()) + " " + state->noun +
-                          (names.size() == 1 ? "" : "s") + "; the closest is '" + *closest + "'"
-                    : "expected one of the " + state->noun + "s, but there are none";
+        std::string expected = closest ? "expected one of the " + state->noun + "s; the closest is '" + *closest + "'"
+                                       : "expected one of the " + state->noun + "s, but there are none";
         raise_argument_error({kName, 2, "wanted"}, state->wanted.get(), expected);
     });
 }
