@@ -66,19 +66,15 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/anomalies.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_anomaly_rows;
 CREATE TEMP TABLE almanac_anomaly_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@threshold, 3.5) AS threshold, coalesce(@by_segment, 0) AS by_segment,
          'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
-         CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.start') END AS start,
-         CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.stop') END AS stop
+         json_extract(r, '$.start_if_cut') AS start, json_extract(r, '$.stop_if_cut') AS stop
   FROM temp.almanac_range
   WHERE refuse_parameter('@unit', @unit, 'anomalies.sql scores days; it takes no @unit') IS NULL
     AND refuse_parameter('@last', @last, 'anomalies.sql lists days of [@start, @stop); set @start instead') IS NULL
@@ -95,10 +91,8 @@ daily AS MATERIALIZED (
 ),
 chosen AS (SELECT known_name(item, @item, 'item') AS item FROM daily WHERE segment = 'all segments'),
 scored AS (
-  SELECT segment, d.item, day, amount,
-         median(amount) OVER same_weekday AS typical,
-         mad(amount) OVER same_weekday AS spread,
-         count(*) OVER same_weekday AS neighbours,
+  SELECT segment, d.item, day, amount, median(amount) OVER same_weekday AS typical,
+         mad(amount) OVER same_weekday AS spread, count(*) OVER same_weekday AS neighbours,
          max(amount <> 0) OVER (PARTITION BY segment, d.item ORDER BY serial
                                 ROWS BETWEEN 3 PRECEDING AND 1 PRECEDING) AS sold_before,
          max(amount <> 0) OVER (PARTITION BY segment, d.item ORDER BY serial
@@ -109,8 +103,7 @@ scored AS (
                           ROWS BETWEEN 8 PRECEDING AND 8 FOLLOWING EXCLUDE CURRENT ROW)
 )
 SELECT sc.segment, sc.day, sc.item, sc.amount, sc.typical,
-       round(0.6745 * (sc.amount - sc.typical) / sc.spread, 1) AS score,
-       CASE WHEN sc.amount > sc.typical THEN 'spike'
+       round(0.6745 * (sc.amount - sc.typical) / sc.spread, 1) AS score, CASE WHEN sc.amount > sc.typical THEN 'spike'
             WHEN sc.amount = 0 THEN 'closed'
             ELSE 'drop' END AS kind
 FROM scored AS sc, settings
@@ -120,8 +113,7 @@ WHERE sc.neighbours >= 8 AND sc.spread > 0 AND (sc.amount <> 0 OR (sc.sold_befor
 -- Without @by_segment the columns are those of the report before segments.
 SELECT day, item, amount, typical, score, kind
 FROM temp.almanac_anomaly_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY day, item;
-SELECT * FROM temp.almanac_anomaly_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, day, item;
+SELECT * FROM temp.almanac_anomaly_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, day, item;
 DROP TABLE temp.almanac_anomaly_rows;
-SELECT note FROM temp.almanac_range;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

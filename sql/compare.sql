@@ -89,11 +89,8 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' -cmd '.headers on' shop.db < sql/compare.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment, @against AS against,
@@ -126,8 +123,7 @@ bases AS (
   FROM latest, settings AS s
   WHERE s.against IS NULL OR s.against = 'previous'
   UNION ALL
-  SELECT 'year',
-         CASE WHEN period_floor(latest.start, s.iso_week, s.zone) = latest.start
+  SELECT 'year', CASE WHEN period_floor(latest.start, s.iso_week, s.zone) = latest.start
                    AND period_end(latest.start, s.iso_week, s.zone) = period_end(latest.start, s.spec, s.zone) THEN
                 CASE period_position(latest.start, 'week', 'year', s.zone)
                   WHEN period_position(period_shift(latest.start, -52, s.iso_week, s.zone), 'week', 'year', s.zone)
@@ -152,46 +148,35 @@ windows AS (
                period_serial(period_end(b.start, s.spec, s.zone), s.day, s.zone) AS base_end_day
         FROM bases AS b, latest, settings AS s)
 ),
+-- Each day of a span, with the side it counts for (a base span ends before the latest starts).
 in_spans AS (
-  SELECT w.against, 'latest' AS side, d.segment, d.item, d.amount, d.day
-  FROM windows AS w JOIN days AS d ON d.day >= w.first_day AND d.day < w.data_after
-  UNION ALL
-  SELECT w.against, 'base', d.segment, d.item, d.amount, d.day
-  FROM windows AS w JOIN days AS d ON d.day >= w.base_first_day AND d.day < w.base_after_day
-  WHERE w.base_covered
+  SELECT w.against, d.day >= w.first_day AS latest, d.segment, d.item, d.amount, d.day
+  FROM windows AS w JOIN days AS d ON (d.day >= w.first_day AND d.day < w.data_after)
+    OR (w.base_covered AND d.day >= w.base_first_day AND d.day < w.base_after_day)
 ),
-trading AS (SELECT against, side, segment, count(DISTINCT day) AS trading_days FROM in_spans GROUP BY 1, 2, 3),
+-- Trading days count the days of every item of the segment; amounts only those of the items chosen.
+trading AS (
+  SELECT against, segment, count(DISTINCT CASE WHEN latest THEN day END) AS trading_days,
+         count(DISTINCT CASE WHEN NOT latest THEN day END) AS base_trading_days
+  FROM in_spans GROUP BY 1, 2
+),
 amounts AS (
-  SELECT i.against, i.side, i.segment, CASE WHEN chosen.item IS NULL THEN 'all items' ELSE i.item END AS item,
-         exact_sum(i.amount) AS amount
-  FROM in_spans AS i, chosen
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR i.item = chosen.item
-  GROUP BY 1, 2, 3, 4
+  SELECT i.against, i.segment, CASE WHEN chosen.item IS NULL THEN 'all items' ELSE i.item END AS item,
+         exact_sum(CASE WHEN latest THEN amount END) AS amount, exact_sum(CASE WHEN NOT latest THEN amount END) AS base
+  FROM in_spans AS i, chosen WHERE chosen.item IS NULL OR chosen.item = '*' OR i.item = chosen.item GROUP BY 1, 2, 3
 ),
-segments AS (SELECT DISTINCT segment FROM days),
 items AS (
-  SELECT DISTINCT CASE WHEN chosen.item IS NULL THEN 'all items' ELSE d.item END AS item
-  FROM days AS d, chosen
+  SELECT DISTINCT CASE WHEN chosen.item IS NULL THEN 'all items' ELSE d.item END AS item FROM days AS d, chosen
   WHERE d.segment = 'all segments' AND (chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item)
 ),
 compared AS (
-  SELECT g.segment, i.item, w.against, w.start, w.base_start, w.base_covered,
-         w.end_day - w.first_day AS days_in_period, w.elapsed,
-         w.base_after_day - w.base_first_day AS base_days,
-         coalesce(now_amount.amount, 0) AS amount, coalesce(now_days.trading_days, 0) AS trading_days,
-         CASE WHEN w.base_covered THEN coalesce(base_amount.amount, 0) END AS base_amount,
-         CASE WHEN w.base_covered THEN coalesce(base_days.trading_days, 0) END AS base_trading_days
-  FROM windows AS w
-  CROSS JOIN segments AS g
-  CROSS JOIN items AS i
-  LEFT JOIN amounts AS now_amount ON now_amount.against = w.against AND now_amount.side = 'latest'
-    AND now_amount.segment = g.segment AND now_amount.item = i.item
-  LEFT JOIN trading AS now_days ON now_days.against = w.against AND now_days.side = 'latest'
-    AND now_days.segment = g.segment
-  LEFT JOIN amounts AS base_amount ON base_amount.against = w.against AND base_amount.side = 'base'
-    AND base_amount.segment = g.segment AND base_amount.item = i.item
-  LEFT JOIN trading AS base_days ON base_days.against = w.against AND base_days.side = 'base'
-    AND base_days.segment = g.segment
+  SELECT g.segment, i.item, w.against, w.start, w.base_start, w.end_day - w.first_day AS days_in_period, w.elapsed,
+         w.base_after_day - w.base_first_day AS base_days, coalesce(a.amount, 0) AS amount,
+         coalesce(t.trading_days, 0) AS trading_days, CASE WHEN w.base_covered THEN coalesce(a.base, 0) END AS base_amount,
+         CASE WHEN w.base_covered THEN coalesce(t.base_trading_days, 0) END AS base_trading_days
+  FROM windows AS w CROSS JOIN (SELECT DISTINCT segment FROM days) AS g CROSS JOIN items AS i
+  LEFT JOIN trading AS t ON t.against = w.against AND t.segment = g.segment
+  LEFT JOIN amounts AS a ON a.against = w.against AND a.segment = g.segment AND a.item = i.item
 )
 SELECT c.segment, c.item, period_label(c.start, s.spec, s.zone) AS period, c.days_in_period,
        c.elapsed AS days_covered, c.elapsed = c.days_in_period AS complete,
@@ -207,7 +192,6 @@ SELECT c.segment, c.item, period_label(c.start, s.spec, s.zone) AS period, c.day
        round(100.0 * (c.amount - c.base_amount) / nullif(c.base_amount, 0), 1) AS change_pct,
        round(100.0 * (c.amount / nullif(c.trading_days, 0) - c.base_amount / nullif(c.base_trading_days, 0))
              / nullif(c.base_amount / nullif(c.base_trading_days, 0), 0), 1) AS change_per_day_pct
-FROM compared AS c, settings AS s
-ORDER BY c.segment <> 'all segments', c.segment, c.item, c.against <> 'previous';
-SELECT note FROM temp.almanac_range;
+FROM compared AS c, settings AS s ORDER BY c.segment <> 'all segments', c.segment, c.item, c.against <> 'previous';
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

@@ -66,11 +66,8 @@
 --           shop.db < sql/daily_chart.sql > chart.svg
 DROP TABLE IF EXISTS temp.chart_points;
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 -- Day totals per segment and item over the data's range, read in one pass
 -- (period_totals), only days with sales: kept in a temp table for the chart's
 -- points and for its order of items, and dropped at the end.
@@ -111,8 +108,7 @@ daily_sales AS (
   FROM temp.almanac_chart_days AS d, settings, range
   WHERE (settings.item IS NULL OR settings.item = '*' OR d.item = settings.item)
     AND d.serial >= period_serial(range.start, settings.day, settings.zone)
-    AND d.serial < period_serial(range.stop, settings.day, settings.zone)
-  GROUP BY 1, 2
+    AND d.serial < period_serial(range.stop, settings.day, settings.zone) GROUP BY 1, 2
 ),
 chosen AS (
   SELECT item FROM (SELECT d.item FROM daily_sales AS d, settings WHERE settings.by_segment <> 1
@@ -129,8 +125,7 @@ daily AS (
 )
 SELECT item, serial, day, 'raw' AS layer, amount AS value, 0 AS step FROM daily
 UNION ALL
-SELECT item, serial, day, 'smooth',
-       moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
+SELECT item, serial, day, 'smooth', moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
                                     RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING), 0
 FROM daily
 UNION ALL
@@ -141,25 +136,19 @@ JOIN json_each('["' || replace(coalesce(@marks, ''), ',', '","') || '"]') AS m O
 CROSS JOIN (SELECT 1 AS step UNION ALL SELECT 2 UNION ALL SELECT 3) AS s
 WHERE @item IS NOT NULL AND @item <> '*';
 
-SELECT svg_line_chart(day, value, item, layer,
-                      json_object('title', coalesce(@title, 'Amount per day and 7-day moving mean')
-                                             || (SELECT CASE WHEN json_extract(r, '$.left_out') > 0
-                                                             THEN ' (' || note || ')' ELSE '' END
-                                                 FROM temp.almanac_range),
-                                  'y_caption', 'amount per day',
-                                  'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
-                                  -- Every item of the table, largest first: each item keeps
-                                  -- its colour in every chart, whichever items it shows.
-                                  -- By segment: 'all segments', then the segments by name.
-                                  'series_order', json(CASE WHEN coalesce(@by_segment, 0) = 1
-                                    THEN (SELECT json_group_array(segment) FROM (
-                                      SELECT 'all segments' AS segment
-                                      UNION ALL
-                                      SELECT * FROM (SELECT DISTINCT segment FROM temp.almanac_chart_days
-                                                     WHERE segment IS NOT NULL ORDER BY 1)))
-                                    ELSE (SELECT json_group_array(item) FROM (
-                                      SELECT item FROM temp.almanac_chart_days WHERE segment IS NULL
-                                      GROUP BY item ORDER BY exact_sum(amount) DESC, item)) END)))
+-- Every item of the table, largest first: each item keeps its colour in every chart, whichever
+-- items it shows. By segment: 'all segments', then the segments by name.
+WITH series AS (
+  SELECT 'all segments' AS name, 0 AS place WHERE coalesce(@by_segment, 0) = 1
+  UNION ALL
+  SELECT coalesce(segment, item), CASE WHEN segment IS NULL THEN -exact_sum(amount) ELSE 1 END
+  FROM temp.almanac_chart_days WHERE (segment IS NOT NULL) = (coalesce(@by_segment, 0) = 1) GROUP BY 1
+)
+SELECT svg_line_chart(day, value, item, layer, json_object(
+         'title', coalesce(@title, 'Amount per day and 7-day moving mean') || (SELECT CASE WHEN json_extract(r,
+           '$.left_out') > 0 THEN ' (' || json_extract(r, '$.note') || ')' ELSE '' END FROM temp.almanac_range),
+         'y_caption', 'amount per day', 'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
+         'series_order', (SELECT json_group_array(name) FROM (SELECT name FROM series ORDER BY place, name))))
 FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step);
 DROP TABLE temp.almanac_chart_days;
 DROP TABLE temp.almanac_range;

@@ -34,7 +34,7 @@
 --           -cmd '.mode column' shop.db < sql/data_check.sql
 DROP TABLE IF EXISTS temp.almanac_range;
 CREATE TEMP TABLE almanac_range AS
-SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r
+SELECT data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r
 FROM sales WHERE valid_time(ts);
 WITH
 settings AS (

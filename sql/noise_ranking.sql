@@ -61,23 +61,18 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/noise_ranking.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_noise_rows;
 CREATE TEMP TABLE almanac_noise_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
          'week' || coalesce(' from 2000-01-03 ' || @day_start, '') AS spec,
-         coalesce(@start, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.start') END) AS start,
-         coalesce(@stop, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.stop') END) AS stop
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
   FROM temp.almanac_range
   WHERE refuse_parameter('@unit', @unit, 'noise_ranking.sql fits whole ISO weeks; it takes no @unit') IS NULL
-    AND refuse_parameter('@last', @last, 'noise_ranking.sql fits every whole week of the range; set @start instead')
-        IS NULL
+    AND refuse_parameter('@last', @last, 'noise_ranking.sql fits every whole week of the range') IS NULL
 ),
 -- Weekly totals, whole weeks only, an item's week without sales as 0 (period_totals' zero fill);
 -- each segment is fitted on its own rows.
@@ -93,23 +88,18 @@ fit AS (
   SELECT segment, w.item, count(*) AS weeks, avg(total) AS mean,
          resid_sd(total, serial) AS resid_sd, stddev_samp(total) AS sd
   FROM weekly AS w, chosen
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR w.item = chosen.item
-  GROUP BY segment, w.item
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR w.item = chosen.item GROUP BY segment, w.item
   HAVING sum(w.sales) > 0
 )
-SELECT segment, row_number() OVER (PARTITION BY segment ORDER BY resid_sd / mean DESC, item) AS rank,
-       item, weeks,
-       round(mean, 2) AS mean_per_week,
-       round(resid_sd, 2) AS resid_sd,
-       round(100.0 * resid_sd / mean, 1) AS noise_pct,
-       round(100.0 * sd / mean, 1) AS sd_pct
+SELECT segment, row_number() OVER (PARTITION BY segment ORDER BY resid_sd / mean DESC, item) AS rank, item, weeks,
+       round(mean, 2) AS mean_per_week, round(resid_sd, 2) AS resid_sd,
+       round(100.0 * resid_sd / mean, 1) AS noise_pct, round(100.0 * sd / mean, 1) AS sd_pct
 FROM fit
 WHERE mean > 0;
 -- Without @by_segment the columns are those of the report before segments.
 SELECT rank, item, weeks, mean_per_week, resid_sd, noise_pct, sd_pct
 FROM temp.almanac_noise_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY rank;
-SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, rank;
+SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, rank;
 DROP TABLE temp.almanac_noise_rows;
-SELECT note FROM temp.almanac_range;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

@@ -45,11 +45,8 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           shop.db < sql/period_bars.sql > weekly.svg
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 WITH
 settings AS (
   SELECT *, period_shift(period_floor(stop, spec, zone), 1 - last, spec, zone) AS start
@@ -57,7 +54,7 @@ settings AS (
                coalesce(@unit, 'week') || coalesce(' from ' || period_floor('2000-01-03', coalesce(@unit, 'week'))
                                                    || ' ' || @day_start, '') AS spec,
                coalesce(@stop, json_extract(r, '$.stop')) AS stop,
-               CASE WHEN json_extract(r, '$.left_out') > 0 THEN ' (' || note || ')' ELSE '' END
+               CASE WHEN json_extract(r, '$.left_out') > 0 THEN ' (' || json_extract(r, '$.note') || ')' ELSE '' END
                  AS left_out
         FROM temp.almanac_range
         WHERE refuse_parameter('@start', @start, 'period_bars.sql draws the last @last periods; set @last') IS NULL)
@@ -79,8 +76,7 @@ bars AS (
   WHERE (chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item)
     -- by segment: the segments' rows, or all segments for a table without a segment column
     AND t.all_segments = (SELECT CASE WHEN settings.by_segment = 1 THEN min(all_segments) ELSE 1 END
-                          FROM totals, settings)
-  GROUP BY t.period_start, t.segment, t.partial
+                          FROM totals, settings) GROUP BY t.period_start, t.segment, t.partial
 )
 SELECT svg_bar_chart(period_start, round(amount, 2), series,
                      json_object('title', coalesce(@title, 'Amount per period') || settings.left_out,

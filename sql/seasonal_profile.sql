@@ -50,24 +50,19 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/seasonal_profile.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_seasonal_rows;
 CREATE TEMP TABLE almanac_seasonal_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
          'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
-         coalesce(@start, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.start') END) AS start,
-         coalesce(@stop, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.stop') END) AS stop
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
   FROM temp.almanac_range
   WHERE refuse_parameter('@unit', @unit, 'seasonal_profile.sql profiles weekdays and months; it takes no @unit')
         IS NULL
-    AND refuse_parameter('@last', @last, 'seasonal_profile.sql profiles every day of the range; set @start instead')
-        IS NULL
+    AND refuse_parameter('@last', @last, 'seasonal_profile.sql profiles every day of the range') IS NULL
 ),
 -- Day totals per segment and item, every day of the segment's range, a day
 -- without sales of the item as 0 (period_totals' zero fill).
@@ -83,64 +78,47 @@ chosen AS (SELECT known_name(item, @item, 'item') AS item FROM daily WHERE segme
 overall AS (
   SELECT segment, d.item, avg(amount) AS mean, count(*) AS days
   FROM daily AS d, chosen
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item
-  GROUP BY segment, d.item
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item GROUP BY segment, d.item
 ),
+-- Each weekday's and month's index, and its place (1: the peak; ties to the earlier one).
 by_weekday AS (
-  SELECT d.segment, d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  SELECT d.segment, d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx,
+         row_number() OVER (PARTITION BY d.segment, d.item ORDER BY 100.0 * avg(d.amount) / o.mean DESC, d.weekday) AS place
   FROM daily AS d JOIN overall AS o USING (segment, item) GROUP BY d.segment, d.item, d.weekday
 ),
 by_month AS (
-  SELECT d.segment, d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  SELECT d.segment, d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx,
+         row_number() OVER (PARTITION BY d.segment, d.item ORDER BY 100.0 * avg(d.amount) / o.mean DESC, d.month) AS place
   FROM daily AS d JOIN overall AS o USING (segment, item) GROUP BY d.segment, d.item, d.month
 ),
-peaks AS (
-  SELECT segment, item,
-         (SELECT position FROM by_weekday AS w WHERE w.segment = o.segment AND w.item = o.item
-          ORDER BY idx DESC, position LIMIT 1) AS day,
-         (SELECT position FROM by_month AS m WHERE m.segment = o.segment AND m.item = o.item
-          ORDER BY idx DESC, position LIMIT 1) AS month
-  FROM overall AS o
-),
 weekdays AS (
-  SELECT segment, item,
-         CAST(round(max(CASE position WHEN 1 THEN idx END)) AS INTEGER) AS mon,
-         CAST(round(max(CASE position WHEN 2 THEN idx END)) AS INTEGER) AS tue,
-         CAST(round(max(CASE position WHEN 3 THEN idx END)) AS INTEGER) AS wed,
-         CAST(round(max(CASE position WHEN 4 THEN idx END)) AS INTEGER) AS thu,
-         CAST(round(max(CASE position WHEN 5 THEN idx END)) AS INTEGER) AS fri,
-         CAST(round(max(CASE position WHEN 6 THEN idx END)) AS INTEGER) AS sat,
+  SELECT segment, item, max(CASE place WHEN 1 THEN position END) AS peak,
+         CAST(round(max(CASE position WHEN 1 THEN idx END)) AS INTEGER) AS mon, CAST(round(max(CASE position WHEN 2 THEN idx END)) AS INTEGER) AS tue,
+         CAST(round(max(CASE position WHEN 3 THEN idx END)) AS INTEGER) AS wed, CAST(round(max(CASE position WHEN 4 THEN idx END)) AS INTEGER) AS thu,
+         CAST(round(max(CASE position WHEN 5 THEN idx END)) AS INTEGER) AS fri, CAST(round(max(CASE position WHEN 6 THEN idx END)) AS INTEGER) AS sat,
          CAST(round(max(CASE position WHEN 7 THEN idx END)) AS INTEGER) AS sun
   FROM by_weekday GROUP BY segment, item
 ),
 months AS (
-  SELECT segment, item,
-         CAST(round(max(CASE position WHEN 1 THEN idx END)) AS INTEGER) AS jan,
-         CAST(round(max(CASE position WHEN 2 THEN idx END)) AS INTEGER) AS feb,
-         CAST(round(max(CASE position WHEN 3 THEN idx END)) AS INTEGER) AS mar,
-         CAST(round(max(CASE position WHEN 4 THEN idx END)) AS INTEGER) AS apr,
-         CAST(round(max(CASE position WHEN 5 THEN idx END)) AS INTEGER) AS may,
-         CAST(round(max(CASE position WHEN 6 THEN idx END)) AS INTEGER) AS jun,
-         CAST(round(max(CASE position WHEN 7 THEN idx END)) AS INTEGER) AS jul,
-         CAST(round(max(CASE position WHEN 8 THEN idx END)) AS INTEGER) AS aug,
-         CAST(round(max(CASE position WHEN 9 THEN idx END)) AS INTEGER) AS sep,
-         CAST(round(max(CASE position WHEN 10 THEN idx END)) AS INTEGER) AS oct,
-         CAST(round(max(CASE position WHEN 11 THEN idx END)) AS INTEGER) AS nov,
-         CAST(round(max(CASE position WHEN 12 THEN idx END)) AS INTEGER) AS "dec"
+  SELECT segment, item, max(CASE place WHEN 1 THEN position END) AS peak,
+         CAST(round(max(CASE position WHEN 1 THEN idx END)) AS INTEGER) AS jan, CAST(round(max(CASE position WHEN 2 THEN idx END)) AS INTEGER) AS feb,
+         CAST(round(max(CASE position WHEN 3 THEN idx END)) AS INTEGER) AS mar, CAST(round(max(CASE position WHEN 4 THEN idx END)) AS INTEGER) AS apr,
+         CAST(round(max(CASE position WHEN 5 THEN idx END)) AS INTEGER) AS may, CAST(round(max(CASE position WHEN 6 THEN idx END)) AS INTEGER) AS jun,
+         CAST(round(max(CASE position WHEN 7 THEN idx END)) AS INTEGER) AS jul, CAST(round(max(CASE position WHEN 8 THEN idx END)) AS INTEGER) AS aug,
+         CAST(round(max(CASE position WHEN 9 THEN idx END)) AS INTEGER) AS sep, CAST(round(max(CASE position WHEN 10 THEN idx END)) AS INTEGER) AS oct,
+         CAST(round(max(CASE position WHEN 11 THEN idx END)) AS INTEGER) AS nov, CAST(round(max(CASE position WHEN 12 THEN idx END)) AS INTEGER) AS "dec"
   FROM by_month GROUP BY segment, item
 )
-SELECT o.segment, o.item, substr('MonTueWedThuFriSatSun', 3 * p.day - 2, 3) AS peak_day,
+SELECT o.segment, o.item, substr('MonTueWedThuFriSatSun', 3 * w.peak - 2, 3) AS peak_day,
        w.mon, w.tue, w.wed, w.thu, w.fri, w.sat, w.sun,
-       substr('JanFebMarAprMayJunJulAugSepOctNovDec', 3 * p.month - 2, 3) AS peak_month,
+       substr('JanFebMarAprMayJunJulAugSepOctNovDec', 3 * m.peak - 2, 3) AS peak_month,
        m.jan, m.feb, m.mar, m.apr, m.may, m.jun, m.jul, m.aug, m.sep, m.oct, m.nov, m."dec", o.days
-FROM overall AS o JOIN peaks AS p USING (segment, item) JOIN weekdays AS w USING (segment, item)
-JOIN months AS m USING (segment, item);
+FROM overall AS o JOIN weekdays AS w USING (segment, item) JOIN months AS m USING (segment, item);
 -- Without @by_segment the columns are those of the report before segments.
 SELECT item, peak_day, mon, tue, wed, thu, fri, sat, sun, peak_month, jan, feb, mar, apr, may, jun, jul, aug,
        sep, oct, nov, "dec", days
 FROM temp.almanac_seasonal_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item;
-SELECT * FROM temp.almanac_seasonal_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, item;
+SELECT * FROM temp.almanac_seasonal_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, item;
 DROP TABLE temp.almanac_seasonal_rows;
-SELECT note FROM temp.almanac_range;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

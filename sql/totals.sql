@@ -72,11 +72,8 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.parameter set @unit month' -cmd '.mode column' shop.db < sql/totals.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
@@ -114,8 +111,7 @@ per_period AS (
          count(DISTINCT CASE WHEN t.sales > 0 THEN period_serial(t.period_start, shape.day, shape.zone) END)
            AS days_with_sales
   FROM totals AS t, chosen, shape
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item
-  GROUP BY 1, 2, 3
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item GROUP BY 1, 2, 3
 )
 -- A period's days are counted on the local calendar (of business days, with @day_start).
 SELECT period_label(t.first_start, s.spec, s.zone) AS period, t.segment, t.item,
@@ -130,5 +126,5 @@ SELECT period_label(t.first_start, s.spec, s.zone) AS period, t.segment, t.item,
 FROM per_period AS t, shape AS s
 WHERE @last IS NULL OR t.period > (SELECT max(period) FROM per_period) - @last
 ORDER BY t.period, t.segment <> 'all segments', t.segment, t.item;
-SELECT note FROM temp.almanac_range;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

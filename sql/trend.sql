@@ -103,11 +103,8 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/trend.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_trend_rows;
 CREATE TEMP TABLE almanac_trend_rows AS
 WITH
@@ -115,8 +112,7 @@ settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@spark_weeks, 4) AS spark_weeks, 10 AS min_weeks,
          104 AS seasonal_weeks, coalesce(@by_segment, 0) AS by_segment,
          'week' || coalesce(' from 2000-01-03 ' || @day_start, '') AS spec,
-         coalesce(@start, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.start') END) AS start,
-         coalesce(@stop, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.stop') END) AS stop
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
   FROM temp.almanac_range
   WHERE refuse_parameter('@unit', @unit, 'trend.sql judges whole ISO weeks; it takes no @unit') IS NULL
     AND refuse_parameter('@last', @last, 'trend.sql judges every whole week of the range; set @start instead') IS NULL
@@ -134,8 +130,7 @@ chosen AS (SELECT known_name(item, @item, 'item') AS item FROM weekly WHERE segm
 span AS (
   SELECT segment, count(DISTINCT serial) AS weeks, min(serial) AS first,
          count(DISTINCT serial) >= (SELECT seasonal_weeks FROM settings) AS seasonal
-  FROM weekly
-  GROUP BY segment
+  FROM weekly GROUP BY segment
 ),
 -- The season of each week for the tests: its ISO week number when the
 -- range is seasonal, else NULL; and NULL as well, in a seasonal range,
@@ -148,8 +143,7 @@ seasons AS (
         FROM weekly GROUP BY 1, 2, 3) AS traded USING (segment, item, week_of_year)
 ),
 fit AS (
-  SELECT s.segment, s.item, span.seasonal,
-         CASE WHEN span.seasonal THEN mann_kendall_p(s.total, s.serial, s.season)
+  SELECT s.segment, s.item, span.seasonal, CASE WHEN span.seasonal THEN mann_kendall_p(s.total, s.serial, s.season)
               ELSE mann_kendall_p(s.total, s.serial) END AS p,
          CASE WHEN span.seasonal THEN theil_sen_slope(s.total, s.serial, s.season)
               ELSE theil_sen_slope(s.total, s.serial) END AS sen,
@@ -157,40 +151,29 @@ fit AS (
               ELSE avg(s.total) END AS traded_mean,
          avg(s.total) AS mean, regr_slope(s.total, s.serial) AS ls
   FROM seasons AS s JOIN span USING (segment), chosen
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR s.item = chosen.item
-  GROUP BY s.segment, s.item
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR s.item = chosen.item GROUP BY s.segment, s.item
   HAVING sum(s.sales) > 0
 ),
 shape AS (
   SELECT segment, item, sparkline(total, block) AS shape
-  FROM (SELECT w.segment, w.item, (w.serial - span.first) / settings.spark_weeks AS block,
-               avg(w.total) AS total
-        FROM weekly AS w JOIN span USING (segment), settings
-        GROUP BY 1, 2, 3)
-  GROUP BY segment, item
+  FROM (SELECT w.segment, w.item, (w.serial - span.first) / settings.spark_weeks AS block, avg(w.total) AS total
+        FROM weekly AS w JOIN span USING (segment), settings GROUP BY 1, 2, 3) GROUP BY segment, item
 )
-SELECT f.segment, f.item,
-       CASE WHEN span.weeks < settings.min_weeks THEN 'too few periods'
+SELECT f.segment, f.item, CASE WHEN span.weeks < settings.min_weeks THEN 'too few periods'
             WHEN f.p IS NULL OR f.p >= 0.05 THEN 'no clear trend'
             WHEN coalesce(nullif(f.sen, 0), f.ls) > 0 THEN 'rising'
             WHEN coalesce(nullif(f.sen, 0), f.ls) < 0 THEN 'falling'
             ELSE 'no clear trend' END AS verdict,
-       round(100.0 * (365.2425 / 7) * f.sen / f.traded_mean, 1) AS pct_per_year,
-       round(f.p, 4) AS p_value,
-       CASE WHEN f.seasonal THEN 'seasonal (ISO week)' ELSE 'plain' END AS test,
-       span.weeks,
-       round(f.mean, 2) AS mean_per_week,
-       round(f.sen, 2) AS sen_slope,
-       round(f.ls, 2) AS ls_slope,
-       s.shape,
+       round(100.0 * (365.2425 / 7) * f.sen / f.traded_mean, 1) AS pct_per_year, round(f.p, 4) AS p_value,
+       CASE WHEN f.seasonal THEN 'seasonal (ISO week)' ELSE 'plain' END AS test, span.weeks,
+       round(f.mean, 2) AS mean_per_week, round(f.sen, 2) AS sen_slope, round(f.ls, 2) AS ls_slope, s.shape,
        row_number() OVER (PARTITION BY f.segment ORDER BY f.sen / f.traded_mean DESC, f.item) AS place
 FROM fit AS f JOIN shape AS s USING (segment, item) JOIN span USING (segment), settings;
 -- Without @by_segment the columns are those of the report before segments.
 SELECT item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
 FROM temp.almanac_trend_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY place;
 SELECT segment, item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
-FROM temp.almanac_trend_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, place;
+FROM temp.almanac_trend_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, place;
 DROP TABLE temp.almanac_trend_rows;
-SELECT note FROM temp.almanac_range;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

@@ -55,23 +55,18 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/weekday_profile.sql
 DROP TABLE IF EXISTS temp.almanac_range;
-CREATE TEMP TABLE almanac_range AS
-SELECT r, json_extract(r, '$.note') || CASE WHEN empty = 0 THEN '' ELSE '; ' || empty || ' rows without an amount'
-            || ' (counted in sales, not in amount; sql/data_check.sql lists them)' END AS note
-FROM (SELECT data_range(ts, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r,
-             count(*) - count(amount) AS empty FROM sales);
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_weekday_rows;
 CREATE TEMP TABLE almanac_weekday_rows AS
 WITH
 settings AS (
   SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
          'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
-         coalesce(@start, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.start') END) AS start,
-         coalesce(@stop, CASE WHEN json_extract(r, '$.left_out') > 0 THEN json_extract(r, '$.stop') END) AS stop
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
   FROM temp.almanac_range
   WHERE refuse_parameter('@unit', @unit, 'weekday_profile.sql profiles days; it takes no @unit') IS NULL
-    AND refuse_parameter('@last', @last, 'weekday_profile.sql profiles every day of the range; set @start instead')
-        IS NULL
+    AND refuse_parameter('@last', @last, 'weekday_profile.sql profiles every day of the range') IS NULL
 ),
 -- Day totals per segment and item, every day of the segment's range (period_totals' zero fill).
 totals AS MATERIALIZED (
@@ -88,37 +83,29 @@ daily AS (
          period_position(t.period_start, 'day', 'week', settings.zone) - 1 AS weekday,
          sum(t.sales) AS sales, exact_sum(t.qty) AS qty, exact_sum(t.amount) AS amount
   FROM totals AS t, chosen, settings
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item
-  GROUP BY 1, 2, t.period_start
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item GROUP BY 1, 2, t.period_start
 ),
 profile AS (
   SELECT segment, item, weekday, count(*) AS days, count(CASE WHEN sales > 0 THEN 1 END) AS days_with_sales,
          exact_sum(qty) AS qty, exact_sum(amount) AS amount,
          avg(CASE WHEN sales > 0 THEN amount END) AS mean, median(CASE WHEN sales > 0 THEN amount END) AS median
-  FROM daily
-  GROUP BY segment, item, weekday
+  FROM daily GROUP BY segment, item, weekday
 ),
 overall AS (
   SELECT segment, item, exact_sum(amount) AS amount, exact_sum(amount) / exact_sum(days_with_sales) AS mean_day
-  FROM profile
-  GROUP BY segment, item
+  FROM profile GROUP BY segment, item
 )
 SELECT p.segment, p.weekday AS weekday_number, CASE p.weekday WHEN 0 THEN 'Monday' WHEN 1 THEN 'Tuesday' WHEN 2 THEN 'Wednesday'
          WHEN 3 THEN 'Thursday' WHEN 4 THEN 'Friday' WHEN 5 THEN 'Saturday' ELSE 'Sunday' END AS weekday,
-       p.item, p.days, p.days_with_sales, p.qty,
-       round(p.amount, 2) AS amount,
-       round(100.0 * p.amount / o.amount, 1) AS share_pct,
-       round(p.mean, 2) AS mean_per_day,
-       round(p.median, 2) AS median_per_day,
-       round(100.0 * p.mean / o.mean_day, 1) AS "index"
+       p.item, p.days, p.days_with_sales, p.qty, round(p.amount, 2) AS amount,
+       round(100.0 * p.amount / o.amount, 1) AS share_pct, round(p.mean, 2) AS mean_per_day,
+       round(p.median, 2) AS median_per_day, round(100.0 * p.mean / o.mean_day, 1) AS "index"
 FROM profile AS p JOIN overall AS o USING (segment, item);
 -- Without @by_segment the columns are those of the report before segments.
 SELECT weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day, "index"
 FROM temp.almanac_weekday_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item, weekday_number;
-SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day,
-       "index"
-FROM temp.almanac_weekday_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, item, weekday_number;
+SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day, "index"
+FROM temp.almanac_weekday_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, item, weekday_number;
 DROP TABLE temp.almanac_weekday_rows;
-SELECT note FROM temp.almanac_range;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
 DROP TABLE temp.almanac_range;

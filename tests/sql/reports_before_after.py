@@ -100,7 +100,22 @@ DATABASES = {
 
 # Case name -> why its output differs after the change of issue 17 (sql/README.md,
 # "Before and after", lists each with its before and after).
-INTENDED = {}
+MEAN = ("mean_per_week is the mean over the weeks counted in `weeks` (every whole week, 0 without sales), "
+        "as in noise_ranking; before, the mean of the weeks of the year in which the item ever sold")
+WHOLE = ("noise_ranking fits whole weeks only; before, a week cut by the start or end of the data "
+         "(or of a segment: Lantern Square opens on a Tuesday) was fitted as a short week")
+PARTIAL = ("period_bars draws a period only partly inside the data (the running last week or month) as its "
+           "own series '<segment> (partial period)', so the legend has one entry more")
+INTENDED = {
+    "trend": MEAN,
+    "trend__by_segment=1": MEAN,
+    "noise_ranking": WHOLE,
+    "noise_ranking__by_segment=1": WHOLE,
+    "period_bars": PARTIAL,
+    "period_bars__by_segment=1": PARTIAL,
+    "period_bars__item=Pumpkin_loaf__last=6__unit=month": PARTIAL,
+    "period_bars__item=item_07__last=6__unit=month": PARTIAL,
+}
 
 
 def case_name(report, params):

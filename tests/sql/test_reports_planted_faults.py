@@ -165,7 +165,7 @@ def test_an_empty_amount_is_named_by_the_data_check_and_counted_in_the_note(clea
     # oracle: the one row planted, rowid 1234
     assert [line.split(",")[0] for line in check] == ["1234"]
     assert "'amount','the amount is empty: the sale counts, its money does not'" in check[0]
-    assert "1 rows without an amount" in range_line(shell("totals"))[0]
+    assert "1 row without an amount" in range_line(shell("totals"))[0]
 
 
 def test_the_data_check_names_rows_that_would_stop_a_report(clean, tmp_path):
