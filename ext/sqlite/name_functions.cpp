@@ -16,7 +16,7 @@
 //
 // refuse_parameter(name, value, why): NULL when value is NULL (the parameter
 // is not set); otherwise stops the statement with `name = value: why`, as in
-//   @unit = 'month': trend.sql judges ISO weeks; it takes no @unit
+//   refuse_parameter(): @unit = 'month': trend.sql judges ISO weeks; it takes no @unit
 // so a report refuses a parameter that makes no sense for it instead of
 // ignoring it (SQLite's RAISE works only in triggers).
 #include <memory>
@@ -110,7 +110,7 @@ void refuse_parameter(sqlite3_context* context, int, sqlite3_value** argv) {
         }
         auto name = read_text({"refuse_parameter", 1, "name"}, argv[0]);
         auto why = read_text({"refuse_parameter", 3, "why"}, argv[2]);
-        throw SqlError((name ? *name : std::string("NULL")) + " = " + describe_value(argv[1]) + ": " +
+        throw SqlError("refuse_parameter(): " + (name ? *name : std::string("NULL")) + " = " + describe_value(argv[1]) + ": " +
                        (why ? *why : std::string("not a parameter of this report")));
     });
 }
