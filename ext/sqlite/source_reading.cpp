@@ -5,6 +5,7 @@
 
 #include "core/text/error.h"
 #include "core/time/common_form.h"
+#include "core/time/period_range.h"
 #include "summand.h"
 
 namespace almanac::sqlite {
@@ -383,8 +384,10 @@ SourceReading read_source(sqlite3* db, const SourceRequest& request) {
     run_pass(db, request.function, pass_query(source, reading.reads_qty), pass);
     reading.totals->finish();
     try {
-        reading.series = list_series(*reading.totals, *request.calendar, request.bounds.start,
-                                     request.bounds.stop);
+        reading.series = list_series(*reading.totals, [&](Instant earliest, Instant latest) {
+            return covering_range(*request.calendar, request.bounds.start, request.bounds.stop,
+                                  earliest, latest);
+        });
     } catch (const Error& error) {
         throw SqlError(pass.source_prefix + error.what());
     }

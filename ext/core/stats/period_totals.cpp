@@ -218,11 +218,8 @@ void TotalsGroup::add(const TotalsGroup& other) {
     rows_ += other.rows_;
 }
 
-std::size_t PeriodTotals::find_or_add(std::vector<Key>& keys, KeyTable& table,
-                                      const ValueView& given, bool& added) {
-    added = false;
-    ValueView view = canonical(given);
-    std::uint64_t h = hash_of(view);
+std::size_t PeriodTotals::find(const std::vector<Key>& keys, KeyTable& table,
+                               const ValueView& view, std::uint64_t h, std::size_t& free_slot) {
     // Rows of one value often come together; the hash is compared first, so
     // a different value costs no comparison of bytes.
     if (!keys.empty() && keys[table.last].hash == h && same(keys[table.last].key, view))
@@ -235,6 +232,12 @@ std::size_t PeriodTotals::find_or_add(std::vector<Key>& keys, KeyTable& table,
         if (key.hash == h && same(key.key, view)) return table.last = table.slots[slot] - 1;
         slot = (slot + 1) & mask;
     }
+    free_slot = slot;
+    return kAbsent;
+}
+
+std::size_t PeriodTotals::add(std::vector<Key>& keys, KeyTable& table, const ValueView& view,
+                              std::uint64_t h, std::size_t free_slot) {
     Key fresh;
     fresh.key.kind = view.kind;
     fresh.key.integer = view.integer;
@@ -242,8 +245,7 @@ std::size_t PeriodTotals::find_or_add(std::vector<Key>& keys, KeyTable& table,
     if (view.kind == Kind::Text || view.kind == Kind::Blob) fresh.key.bytes.assign(view.bytes);
     fresh.hash = h;
     keys.push_back(std::move(fresh));
-    added = true;
-    table.slots[slot] = static_cast<std::uint32_t>(keys.size());
+    table.slots[free_slot] = static_cast<std::uint32_t>(keys.size());
     // Keep the table at most half full.
     if (keys.size() * 2 > table.slots.size()) {
         std::vector<std::uint32_t> wider(table.slots.size() * 2, 0);
@@ -258,28 +260,54 @@ std::size_t PeriodTotals::find_or_add(std::vector<Key>& keys, KeyTable& table,
     return table.last = keys.size() - 1;
 }
 
+std::size_t PeriodTotals::find_or_add(std::vector<Key>& keys, KeyTable& table,
+                                      const ValueView& given) {
+    ValueView view = canonical(given);
+    std::uint64_t h = hash_of(view);
+    std::size_t slot = 0;
+    std::size_t found = find(keys, table, view, h, slot);
+    return found != kAbsent ? found : add(keys, table, view, h, slot);
+}
+
+void PeriodTotals::add_group(const ValueKey& key) {
+    groups_.emplace_back();
+    groups_.back().key_ = key;
+}
+
 PeriodCell& PeriodTotals::cell(const ValueView& segment, const ValueView& item,
                                std::int64_t serial, Instant t) {
-    bool new_item = false, new_group = false;
-    std::size_t item_index = find_or_add(items_, item_table_, item, new_item);
-    std::size_t group_index = 0;
+    ValueView item_view = canonical(item);
+    std::uint64_t item_hash = hash_of(item_view);
+    std::size_t item_slot = 0;
+    std::size_t item_index = find(items_, item_table_, item_view, item_hash, item_slot);
+    ValueView group_view;
+    std::uint64_t group_hash = 0;
+    std::size_t group_slot = 0, group_index = 0;
     if (has_segments_) {
-        group_index = find_or_add(group_keys_, group_table_, segment, new_group);
+        group_view = canonical(segment);
+        group_hash = hash_of(group_view);
+        group_index = find(group_keys_, group_table_, group_view, group_hash, group_slot);
     } else if (groups_.empty()) {
-        group_keys_.emplace_back();
-        new_group = true;
+        group_index = kAbsent;
     }
-    bool wider = empty_span() || serial < first_serial_ || serial > last_serial_;
-    if (new_item || new_group || wider) {
+    bool new_item = item_index == kAbsent, new_group = group_index == kAbsent;
+    if (new_item || new_group || empty_span() || serial < first_serial_ || serial > last_serial_) {
         std::int64_t first = empty_span() ? serial : std::min(first_serial_, serial);
         std::int64_t last = empty_span() ? serial : std::max(last_serial_, serial);
-        // Past the limit the pass ends: these totals are not used again.
-        check_limit(groups_with_rollup(group_keys_.size()), items_.size(), first, last);
+        // Before anything is added: a refused row changes nothing.
+        check_limit(groups_with_rollup(group_keys_.size() + (new_group ? 1 : 0)),
+                    items_.size() + (new_item ? 1 : 0), first, last);
         first_serial_ = first;
         last_serial_ = last;
+        if (new_item) item_index = add(items_, item_table_, item_view, item_hash, item_slot);
         if (new_group) {
-            groups_.emplace_back();
-            groups_.back().key_ = group_keys_.back().key;
+            if (has_segments_) {
+                group_index = add(group_keys_, group_table_, group_view, group_hash, group_slot);
+            } else {
+                group_keys_.emplace_back();
+                group_index = 0;
+            }
+            add_group(group_keys_[group_index].key);
         }
     }
     TotalsGroup& group = groups_[group_index];
@@ -311,24 +339,16 @@ void PeriodTotals::merge(PeriodTotals&& other) {
     }
     if (other.items_.empty()) return;
     std::vector<std::size_t> item_index(other.items_.size());
-    for (std::size_t i = 0; i < other.items_.size(); ++i) {
-        bool added;
-        item_index[i] = find_or_add(items_, item_table_, view_of(other.items_[i].key), added);
-    }
+    for (std::size_t i = 0; i < other.items_.size(); ++i)
+        item_index[i] = find_or_add(items_, item_table_, view_of(other.items_[i].key));
     for (std::size_t g = 0; g < other.groups_.size(); ++g) {
         std::size_t group_index = 0;
-        bool added = false;
         if (has_segments_) {
-            group_index = find_or_add(group_keys_, group_table_, view_of(other.group_keys_[g].key),
-                                      added);
-        } else if (groups_.empty()) {
+            group_index = find_or_add(group_keys_, group_table_, view_of(other.group_keys_[g].key));
+        } else if (group_keys_.empty()) {
             group_keys_.emplace_back();
-            added = true;
         }
-        if (added) {
-            groups_.emplace_back();
-            groups_.back().key_ = group_keys_.back().key;
-        }
+        if (group_index >= groups_.size()) add_group(group_keys_[group_index].key);
         TotalsGroup& into = groups_[group_index];
         TotalsGroup& from = other.groups_[g];
         // The other's series re-indexed by this reading's items, then added.

@@ -133,7 +133,7 @@ class PeriodTotals {
     // every row and merge. Without segments the rows went to the rollup.
     void finish();
 
-    // After an Error from cell() or merge() the totals are not to be used again.
+    // After an Error from merge() the totals are not to be used again.
     // Throws the limit's Error unless every group's items fit over the
     // periods first..last (a listing's span, wider than the rows' own).
     void check_listing(std::int64_t first, std::int64_t last) const;
@@ -164,9 +164,16 @@ class PeriodTotals {
         std::vector<std::uint32_t> slots;
         std::size_t last = 0;  // rows of one value often come together
     };
-    // The index of the value in `keys`, added when new (then `added` is set).
+    static constexpr std::size_t kAbsent = ~std::size_t{0};
+    // The index of a canonical value with hash h in `keys`, or kAbsent and
+    // the free slot where add() puts it.
+    static std::size_t find(const std::vector<Key>& keys, KeyTable& table, const ValueView& view,
+                            std::uint64_t h, std::size_t& free_slot);
+    static std::size_t add(std::vector<Key>& keys, KeyTable& table, const ValueView& view,
+                           std::uint64_t h, std::size_t free_slot);
     static std::size_t find_or_add(std::vector<Key>& keys, KeyTable& table,
-                                   const ValueView& view, bool& added);
+                                   const ValueView& view);
+    void add_group(const ValueKey& key);
     std::size_t groups_with_rollup(std::size_t segments) const {
         return has_segments_ ? segments + 1 : 1;
     }

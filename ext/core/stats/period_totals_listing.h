@@ -13,7 +13,7 @@
 #pragma once
 
 #include <cstddef>
-#include <optional>
+#include <functional>
 #include <vector>
 
 #include "core/stats/period_totals.h"
@@ -28,9 +28,13 @@ struct ListedSeries {
     PeriodRange range;
 };
 
+// A group's range from the earliest and latest instant of its rows: the
+// caller's bounds where given, covering_range (core/time/period_range.h)
+// on the calendar otherwise.
+using RangeOfRows = std::function<PeriodRange(Instant earliest, Instant latest)>;
+
 // The series of finished totals; checks the limit against the widest range
 // listed (explicit bounds may reach beyond the data).
-std::vector<ListedSeries> list_series(const PeriodTotals& totals, const PeriodCalendar& calendar,
-                                      std::optional<Instant> start, std::optional<Instant> stop);
+std::vector<ListedSeries> list_series(const PeriodTotals& totals, const RangeOfRows& range_of);
 
 }  // namespace almanac
