@@ -12,6 +12,9 @@ Rows are tuples (ts, item, qty, amount, segment).
 import datetime as dt
 import math
 import random
+import sqlite3
+
+import pytest
 
 import period_oracle as oracle
 
@@ -209,3 +212,10 @@ def make_sales(db, rows, name="sales", columns=("ts", "item", "qty", "amount", "
     index = {"ts": 0, "item": 1, "qty": 2, "amount": 3, "segment": 4}
     db.executemany(f"INSERT INTO {schema}.{quoted} VALUES ({', '.join('?' * len(columns))})",
                    [tuple(row[index[c]] for c in columns) for row in rows])
+
+
+def error_of(db, sql, parameters=()):
+    """The message of the error a query raises (the tests' own helper, not an oracle)."""
+    with pytest.raises(sqlite3.OperationalError) as raised:
+        db.execute(sql, parameters).fetchall()
+    return str(raised.value)

@@ -34,7 +34,8 @@ def count(name, n):
     counts[name] = counts.get(name, 0) + n
 
 
-from period_totals_oracle import (expected_rows, first_difference, make_sales, same_rows, seeded_rows)
+from period_totals_oracle import (error_of, expected_rows, first_difference, make_sales, same_rows,
+                                  seeded_rows)
 
 NO_SEGMENT = ("ts", "item", "qty", "amount")
 
@@ -179,12 +180,6 @@ def test_null_arguments_give_no_rows_and_null_ts_rows_are_skipped():
     assert db.execute("SELECT amount FROM period_totals('sales', 'week')").fetchall() == [(1.0,)]
     db.execute("CREATE TABLE empty(ts, amount)")
     assert db.execute("SELECT * FROM period_totals('empty', 'week')").fetchall() == []
-
-
-def error_of(db, sql, parameters=()):
-    with pytest.raises(sqlite3.OperationalError) as raised:
-        db.execute(sql, parameters).fetchall()
-    return str(raised.value)
 
 
 def test_a_name_that_is_not_a_table_is_refused_and_never_runs_as_sql():

@@ -19,8 +19,8 @@ import pytest
 from conftest import connect
 import period_oracle as oracle
 from period_oracle import Spec
-from period_totals_oracle import (expected_rows, first_difference, make_sales, same_rows, seeded_rows,
-                                  value_order)
+from period_totals_oracle import (error_of, expected_rows, first_difference, make_sales, same_rows,
+                                  seeded_rows, value_order)
 
 dt = oracle.dt
 DAY_LOW, DAY_HIGH = dt.datetime(2025, 2, 20), dt.datetime(2026, 2, 5)
@@ -66,6 +66,16 @@ def period_totals(db, spec, zone, start, stop, source="sales"):
                       (source, spec, *[value for _, value in given])).fetchall()
 
 
+def check_against_oracle(db, rows, spec_text, spec, zone, start, stop, source="sales", **columns):
+    """period_totals' rows equal period_totals_oracle.expected_rows (dicts, math.fsum, zoneinfo
+    local days) over the same rows and bounds; returns them."""
+    got = period_totals(db, spec_text, zone, start, stop, source)
+    clock = oracle.ZoneClock(zone) if zone else oracle.UtcClock()
+    want = expected_rows(rows, spec, clock, bound_ms(start, clock), bound_ms(stop, clock), **columns)
+    assert same_rows(got, want), first_difference(got, want)  # oracle: period_totals_oracle
+    return got
+
+
 @pytest.mark.parametrize("spec_text,spec,zone,start,stop", CASES,
                          ids=[f"{c[0]}|{c[2]}|{c[3]}|{c[4]}" for c in CASES])
 def test_ranges_and_segments_match_an_independent_aggregation(spec_text, spec, zone, start, stop):
@@ -74,11 +84,7 @@ def test_ranges_and_segments_match_an_independent_aggregation(spec_text, spec, z
     rows = seeded_rows(seed, 2000, low, high, kinds=("text", "text", "text", "date"))
     db = connect()
     make_sales(db, rows)
-    clock = oracle.ZoneClock(zone) if zone else oracle.UtcClock()
-    got = period_totals(db, spec_text, zone, start, stop)
-    # oracle: period_totals_oracle.expected_rows (dicts, math.fsum, zoneinfo local days)
-    want = expected_rows(rows, spec, clock, bound_ms(start, clock), bound_ms(stop, clock))
-    assert same_rows(got, want), first_difference(got, want)
+    got = check_against_oracle(db, rows, spec_text, spec, zone, start, stop)
     assert any(r[1] == 0 and r[0] is None for r in got)  # the NULL segment has its own rows
     db.close()
 
@@ -155,18 +161,10 @@ def test_a_source_without_segment_item_or_qty_with_a_range():
     db = connect()
     make_sales(db, rows, "no_segment", ("ts", "item", "qty", "amount"))
     make_sales(db, rows, "bare", ("ts", "amount"))
-    clock = oracle.ZoneClock("America/Denver")
-    start, stop = bound_ms("2025-06-10", clock), bound_ms("2025-08-20 17:00", clock)
-    got = db.execute("SELECT * FROM period_totals('no_segment', 'week', 'America/Denver', '2025-06-10',"
-                     " '2025-08-20 17:00')").fetchall()
-    want = expected_rows(rows, Spec("week"), clock, start, stop, has_segment=False)  # oracle
-    assert same_rows(got, want), first_difference(got, want)
+    bounds = ("week", Spec("week"), "America/Denver", "2025-06-10", "2025-08-20 17:00")
+    got = check_against_oracle(db, rows, *bounds, source="no_segment", has_segment=False)
     assert {r[1] for r in got} == {1}
-    got = db.execute("SELECT * FROM period_totals('bare', 'week', 'America/Denver', '2025-06-10',"
-                     " '2025-08-20 17:00')").fetchall()
-    want = expected_rows(rows, Spec("week"), clock, start, stop, has_item=False, has_qty=False,
-                         has_segment=False)  # oracle: period_totals_oracle
-    assert same_rows(got, want), first_difference(got, want)
+    check_against_oracle(db, rows, *bounds, source="bare", has_item=False, has_qty=False, has_segment=False)
 
 
 def test_an_attached_source_with_segments_and_a_range(tmp_path):
@@ -177,12 +175,8 @@ def test_an_attached_source_with_segments_and_a_range(tmp_path):
     shop.close()
     db = connect()
     db.execute("ATTACH ? AS shop2", (str(tmp_path / "shop 2.db"),))
-    got = db.execute("SELECT * FROM period_totals('shop2.sales', 'half-month', 'Europe/Berlin',"
-                     " '2025-05-20', '2025-10-02 12:00')").fetchall()
-    clock = oracle.ZoneClock("Europe/Berlin")
-    want = expected_rows(rows, Spec("half-month"), clock, bound_ms("2025-05-20", clock),
-                         bound_ms("2025-10-02 12:00", clock))  # oracle: period_totals_oracle
-    assert same_rows(got, want), first_difference(got, want)
+    check_against_oracle(db, rows, "half-month", Spec("half-month"), "Europe/Berlin", "2025-05-20",
+                         "2025-10-02 12:00", source="shop2.sales")
 
 
 @pytest.mark.parametrize("kind", ["int", "jd"])
@@ -190,12 +184,7 @@ def test_covered_bounds_come_back_in_the_representation_of_ts(kind):
     rows = seeded_rows(11, 500, DAY_LOW, DAY_HIGH, kinds=(kind,))
     db = connect()
     make_sales(db, rows)
-    got = db.execute("SELECT * FROM period_totals('sales', 'month', 'America/Denver', '2025-03-10 12:00',"
-                     " '2025-07-04')").fetchall()
-    clock = oracle.ZoneClock("America/Denver")
-    want = expected_rows(rows, Spec("month"), clock, bound_ms("2025-03-10 12:00", clock),
-                         bound_ms("2025-07-04", clock))  # oracle: period_totals_oracle
-    assert same_rows(got, want), first_difference(got, want)
+    check_against_oracle(db, rows, "month", Spec("month"), "America/Denver", "2025-03-10 12:00", "2025-07-04")
 
 
 def test_a_range_without_rows_lists_nothing_and_an_empty_range_too():
@@ -204,12 +193,6 @@ def test_a_range_without_rows_lists_nothing_and_an_empty_range_too():
     assert db.execute("SELECT * FROM period_totals('sales', 'week', 'UTC', '2030-01-01', NULL)").fetchall() == []
     assert db.execute("SELECT * FROM period_totals('sales', 'week', 'UTC', '2025-06-01', '2025-06-01')"
                       ).fetchall() == []
-
-
-def error_of(db, sql, parameters=()):
-    with pytest.raises(sqlite3.OperationalError) as raised:
-        db.execute(sql, parameters).fetchall()
-    return str(raised.value)
 
 
 def test_a_start_after_the_stop_and_invalid_times_are_errors_naming_the_argument():
