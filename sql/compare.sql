@@ -178,13 +178,13 @@ compared AS (
   LEFT JOIN trading AS t ON t.against = w.against AND t.segment = g.segment
   LEFT JOIN amounts AS a ON a.against = w.against AND a.segment = g.segment AND a.item = i.item
 )
-SELECT c.segment, c.item, period_label(c.start, s.spec, s.zone) AS period, c.days_in_period,
+SELECT c.segment, c.item, period_label(c.start, coalesce(@unit, 'week'), s.zone) AS period, c.days_in_period,
        c.elapsed AS days_covered, c.elapsed = c.days_in_period AS complete,
        period_label(c.start, s.day, s.zone) || '..'
          || period_label(period_shift(c.start, c.elapsed - 1, s.day, s.zone), s.day, s.zone) AS span,
        c.trading_days, round(c.amount, 2) AS amount,
        round(c.amount / nullif(c.trading_days, 0), 2) AS per_trading_day,
-       c.against, period_label(c.base_start, s.spec, s.zone) AS base_period,
+       c.against, period_label(c.base_start, coalesce(@unit, 'week'), s.zone) AS base_period,
        period_label(c.base_start, s.day, s.zone) || '..'
          || period_label(period_shift(c.base_start, c.base_days - 1, s.day, s.zone), s.day, s.zone) AS base_span,
        c.base_trading_days, round(c.base_amount, 2) AS base_amount,

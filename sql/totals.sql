@@ -114,7 +114,7 @@ per_period AS (
   WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item GROUP BY 1, 2, 3
 )
 -- A period's days are counted on the local calendar (of business days, with @day_start).
-SELECT period_label(t.first_start, s.spec, s.zone) AS period, t.segment, t.item,
+SELECT period_label(t.first_start, coalesce(@unit, 'week'), s.zone) AS period, t.segment, t.item,
        period_serial(period_end(t.first_start, s.spec, s.zone), s.day, s.zone)
          - period_serial(period_floor(t.first_start, s.spec, s.zone), s.day, s.zone) AS days_in_period,
        period_serial(t.covered_end, s.day, s.zone) - period_serial(t.covered_start, s.day, s.zone) AS days_covered,
