@@ -61,7 +61,7 @@ done
 
 # 2026-03-05 is a Thursday; its ISO week starts Monday 2026-03-02 (common
 # practice, ISO 8601); in a fiscal year starting April it lies in the fourth
-# quarter of the year ending March 2026, FY2026-Q4 (DESIGN "Labels": fiscal
+# quarter of the year ending March 2026, FY2026-Q4 (ext/README.md "Labels": fiscal
 # years are named for the year they end).
 expected="2026-03-02|FY2026-Q4"
 

@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """An independent aggregation for period_totals' rows.
 
-DESIGN.md "Period totals in one pass", written a second time in plain Python:
+ext/README.md "Period totals", written a second time in plain Python:
 dicts keyed by (segment, item, serial), Python ints and math.fsum for the
 totals, zoneinfo (through period_oracle.ZoneClock) for local days, and
 period_oracle.period_of for every period's bounds, label and serial. Nothing
@@ -54,7 +54,7 @@ def seeded_rows(seed, n, low, high, items=ITEMS, kinds=("text",), segments=SEGME
 
 
 def exact_total(values):
-    """oracle: exact_sum's rule (DESIGN.md) — Python's exact int sum while every
+    """oracle: exact_sum's rule (ext/README.md) — Python's exact int sum while every
     value is an int and the sum fits in 64 bits, else math.fsum; None when no value."""
     values = [v for v in values if v is not None]
     if not values:
@@ -105,7 +105,7 @@ def day_start(clock, ms, days_later=0):
 
 
 def data_range(spec, clock, earliest, latest):
-    """DESIGN: from the start of the local day of the earliest row to the end of the
+    """ext/README.md: from the start of the local day of the earliest row to the end of the
     local day of the latest; sub-day specs: the period of the earliest to the end of
     the period of the latest."""
     if spec.sub_day:

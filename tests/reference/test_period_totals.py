@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """period_totals(source, spec [, zone]) against an independent aggregation.
 
-DESIGN.md "Period totals in one pass": one row per segment (and the rollup)
+ext/README.md "Period totals": one row per segment (and the rollup)
 per item per period over the data's range, empty periods included; sales is
 the row count, qty and amount are exact sums (0 for an empty period). The
 expected rows are built by tests/reference/period_totals_oracle.py with plain
@@ -276,7 +276,7 @@ def weekly_cells_both_ways(db):
 
 
 def test_qty_and_amount_are_what_exact_sum_gives_over_the_same_rows():
-    # DESIGN.md: "qty and amount are exact_sums"; whole-number TEXT counts as an INTEGER there.
+    # ext/README.md: "qty and amount are exact_sums"; whole-number TEXT counts as an INTEGER there.
     rows = seeded_rows(17, 1500, oracle.dt.datetime(2025, 1, 1), oracle.dt.datetime(2025, 7, 1))
     rows = [(ts, item, str(qty) if qty is not None and qty % 3 == 0 else qty, amount, None)
             for ts, item, qty, amount, _ in rows]

@@ -2,7 +2,7 @@
 """period_totals read on several threads: the same rows, bit for bit, as one thread,
 and one thread wherever that equality cannot be proven.
 
-DESIGN.md "Reading in parallel". Each table here is a file database whose rowids are
+ext/README.md "Period totals" (reading in parallel). Each table here is a file database whose rowids are
 spread far apart (gaps everywhere, and not in time order), so a few thousand rows span
 enough rowids to be split over eight threads: the split is by rowid, not by row count.
 Expected rows: tests/reference/period_totals_oracle.py (plain dicts, math.fsum,
@@ -287,7 +287,7 @@ def test_sqlite3_interrupt_stops_a_parallel_read_and_leaves_no_thread(tmp_path):
 
 def test_almanac_threads_sets_and_reports_the_number():
     db = connect()
-    cores = min(os.cpu_count(), 16)  # DESIGN: 0 is one per core, at most 16
+    cores = min(os.cpu_count(), 16)  # ext/README.md: 0 is one per core, at most 16
     assert db.execute("SELECT almanac_threads()").fetchone() == (cores,)
     assert db.execute("SELECT almanac_threads(3), almanac_threads()").fetchone() == (3, 3)
     assert db.execute("SELECT almanac_threads(0)").fetchone() == (cores,)

@@ -2,7 +2,7 @@
 """period_totals(source, spec [, zone [, start [, stop]]]): ranges, coverage and segments
 against an independent aggregation.
 
-DESIGN.md "Period totals in one pass": only rows with start <= ts < stop count, every
+ext/README.md "Period totals": only rows with start <= ts < stop count, every
 period that overlaps [start, stop) is listed, covered_start/covered_end are the part of
 the period inside the range; a missing bound comes from the data (local days, or whole
 periods for sub-day specs); a segment column gives per-segment rows over each segment's
@@ -95,15 +95,15 @@ def test_rows_come_rollup_first_then_segment_item_period_with_consecutive_serial
     make_sales(db, rows)
     got = db.execute("SELECT all_segments, segment, item, serial FROM period_totals('sales', 'week',"
                      " 'America/Denver', '2025-04-02', '2025-11-20 12:00')").fetchall()
-    # DESIGN row order: rollup first, then by segment, item, period (SQLite's value order).
+    # ext/README.md row order: rollup first, then by segment, item, period (SQLite's value order).
     keys = [(-a, value_order(s), value_order(i), serial) for a, s, i, serial in got]
     assert keys == sorted(keys)
     by_series = {}
     for a, s, i, serial in got:
         by_series.setdefault((a, s, i), []).append(serial)
     for serials in by_series.values():
-        assert serials == list(range(serials[0], serials[0] + len(serials)))  # consecutive (DESIGN)
-    # Every (segment, item) of one range lists the same periods: zero fill (DESIGN).
+        assert serials == list(range(serials[0], serials[0] + len(serials)))  # consecutive (ext/README.md)
+    # Every (segment, item) of one range lists the same periods: zero fill (ext/README.md).
     assert len({tuple(v) for v in by_series.values()}) == 1
 
 

@@ -52,12 +52,12 @@ def same_rows(got, want):
 def test_columns_in_order_and_hidden_arguments(db):
     cursor = db.execute("SELECT * FROM periods('2026-01-01', '2027-01-01', 'month')")
     rows = cursor.fetchall()
-    assert [c[0] for c in cursor.description] == ["period_start", "period_end", "label", "serial"]  # DESIGN
+    assert [c[0] for c in cursor.description] == ["period_start", "period_end", "label", "serial"]  # ext/README.md
     want = enumerate_periods(Spec("month"), oracle.ms_of(D(2026, 1, 1)), oracle.ms_of(D(2027, 1, 1)), "text",
                              start_is_day=dt.date(2026, 1, 1))
     assert same_rows(rows, want), rows
     assert rows[0] == ("2026-01-01", "2026-02-01", "2026-01", (2026 - 1970) * 12)  # common practice
-    # the arguments as hidden columns, constrained in WHERE (DESIGN: eponymous virtual table)
+    # the arguments as hidden columns, constrained in WHERE (ext/README.md: eponymous virtual table)
     by_where = db.execute("SELECT * FROM periods WHERE start = '2026-01-01' AND stop = '2027-01-01'"
                           " AND spec = 'month'").fetchall()
     assert by_where == rows
@@ -67,7 +67,7 @@ def test_columns_in_order_and_hidden_arguments(db):
 
 
 def test_hidden_columns_can_be_selected(db):
-    # DESIGN: the arguments are hidden columns — so naming them gives them back (assumption: their names
+    # ext/README.md: the arguments are hidden columns — so naming them gives them back (assumption: their names
     # are the argument names start, stop, spec, zone)
     row = db.execute("SELECT start, stop, spec, label FROM periods('2026-01-01', '2026-03-01', 'month')"
                      " LIMIT 1").fetchone()
@@ -139,18 +139,18 @@ def test_random_ranges(db, text, spec):
 
 
 def test_boundaries_and_empty_ranges(db):
-    # a start on a boundary is the first row; a stop on a boundary ends the last row (DESIGN: [start, stop))
+    # a start on a boundary is the first row; a stop on a boundary ends the last row (ext/README.md: [start, stop))
     rows = db.execute("SELECT period_start, period_end FROM periods('2026-02-01', '2026-04-01', 'month')").fetchall()
     assert rows == [("2026-02-01", "2026-03-01"), ("2026-03-01", "2026-04-01")]  # common practice
     rows = db.execute("SELECT label FROM periods('2026-02-01 00:00:01', '2026-04-01 00:00:01', 'month')").fetchall()
     assert rows == [("2026-02",), ("2026-03",), ("2026-04",)]  # common practice: overlapping periods
-    # no period overlaps an empty range (DESIGN: overlapping [start, stop)); reversed ranges likewise (assumption)
+    # no period overlaps an empty range (ext/README.md: overlapping [start, stop)); reversed ranges likewise (assumption)
     assert db.execute("SELECT count(*) FROM periods('2026-02-01', '2026-02-01', 'day')").fetchone() == (0,)
     assert db.execute("SELECT count(*) FROM periods('2026-03-01', '2026-02-01', 'day')").fetchone() == (0,)
 
 
 def test_numeric_starts_keep_their_representation(db):
-    # DESIGN: period_start/period_end in the representation of start (oracle: datetime below)
+    # ext/README.md: period_start/period_end in the representation of start (oracle: datetime below)
     start, stop = oracle.ms_of(D(2024, 1, 15, 10)), oracle.ms_of(D(2024, 4, 1))
     for value, kind in ((start // 1000, "int"), (start / 1000, "real"), (oracle.julian_day(start), "jd"),
                         ("2024-01-15 10:00:00", "text")):
@@ -174,7 +174,7 @@ def test_zoned_days_of_hours(db, name):
                              (local_day.isoformat(), next_day, text, name)).fetchall()
             want = enumerate_periods(spec, day_period.start, day_period.end, "text", clock, local_day)
             assert same_rows(got, want), (name, local_day, text, got[:4], want[:4])
-            assert len({row[2] for row in got}) == len(got)  # DESIGN: labels never shared
+            assert len({row[2] for row in got}) == len(got)  # ext/README.md: labels never shared
             counts[f"{name} {text}"] = counts.get(f"{name} {text}", 0) + len(got)
             if text == "hour":
                 lengths.add(len(got))

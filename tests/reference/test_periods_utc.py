@@ -170,20 +170,20 @@ def test_every_period_holds_its_time_and_neighbours_meet(loaded):
 REPRESENTATION_CASES = [
     # (SQL expression, expected value, source)
     ("period_floor(2451545.0, 'day')", 2451544.5, "from memory: J2000.0 = JD 2451545.0 = 2000-01-01 12:00"),
-    ("period_floor(2451545, 'day')", 2451544.5, "DESIGN: INTEGER 2451545 is a Julian day by the auto rule"),
+    ("period_floor(2451545, 'day')", 2451544.5, "ext/README.md: INTEGER 2451545 is a Julian day by the auto rule"),
     ("period_end(2451545.0, 'day')", 2451545.5, "from memory: J2000.0"),
-    ("period_floor(-1, 'second')", -1, "DESIGN: -1 is 1969-12-31 23:59:59"),
-    ("period_floor(-1, 'day')", -86400, "DESIGN: -1 is 1969-12-31 23:59:59"),
-    ("period_floor(-1.0, 'day')", -86400.0, "DESIGN: REAL Unix seconds give REAL"),
-    ("period_floor(5373484.5, 'day')", 5356800.0, "DESIGN: 5373484.5 is Unix seconds (1970-03-03)"),
-    ("period_floor(5373484.0, 'day')", 5373483.5, "DESIGN: below 5373484.5 a Julian day (9999-12-31)"),
+    ("period_floor(-1, 'second')", -1, "ext/README.md: -1 is 1969-12-31 23:59:59"),
+    ("period_floor(-1, 'day')", -86400, "ext/README.md: -1 is 1969-12-31 23:59:59"),
+    ("period_floor(-1.0, 'day')", -86400.0, "ext/README.md: REAL Unix seconds give REAL"),
+    ("period_floor(5373484.5, 'day')", 5356800.0, "ext/README.md: 5373484.5 is Unix seconds (1970-03-03)"),
+    ("period_floor(5373484.0, 'day')", 5373483.5, "ext/README.md: below 5373484.5 a Julian day (9999-12-31)"),
     ("period_floor(1700000000, 'hour')", 1699999200, "oracle: datetime (2023-11-14 22:13:20 UTC)"),
-    ("period_floor('2000-01-01 12:00:00', 'day')", "2000-01-01", "DESIGN: TEXT in, TEXT out"),
-    ("period_floor('2000-01-01 12:34:56', 'hour')", "2000-01-01 12:00:00", "DESIGN: sub-day TEXT form"),
-    ("period_floor('2000-01-01', 'hour')", "2000-01-01 00:00:00", "DESIGN: a bare date is its UTC midnight"),
-    ("period_floor('2000-01-01T12:34:56.789Z', 'second')", "2000-01-01 12:34:56", "DESIGN: sub-day TEXT form"),
-    ("period_floor('2000-01-01 01:30+02:00', 'day')", "1999-12-31", "DESIGN: an offset makes an instant"),
-    ("period_floor('2000-01-01 12:34:56.999', 'second')", "2000-01-01 12:34:56", "DESIGN: .fff allowed"),
+    ("period_floor('2000-01-01 12:00:00', 'day')", "2000-01-01", "ext/README.md: TEXT in, TEXT out"),
+    ("period_floor('2000-01-01 12:34:56', 'hour')", "2000-01-01 12:00:00", "ext/README.md: sub-day TEXT form"),
+    ("period_floor('2000-01-01', 'hour')", "2000-01-01 00:00:00", "ext/README.md: a bare date is its UTC midnight"),
+    ("period_floor('2000-01-01T12:34:56.789Z', 'second')", "2000-01-01 12:34:56", "ext/README.md: sub-day TEXT form"),
+    ("period_floor('2000-01-01 01:30+02:00', 'day')", "1999-12-31", "ext/README.md: an offset makes an instant"),
+    ("period_floor('2000-01-01 12:34:56.999', 'second')", "2000-01-01 12:34:56", "ext/README.md: .fff allowed"),
 ]
 
 
@@ -214,7 +214,7 @@ def test_representation_matches_sqlite_julianday(loaded):
 
 
 def test_numeric_text_reads_as_a_number(loaded):
-    # DESIGN: numeric TEXT is read as a number (JD 2451545 = 2000-01-01 12:00, from memory)
+    # ext/README.md: numeric TEXT is read as a number (JD 2451545 = 2000-01-01 12:00, from memory)
     (valid, day) = loaded.execute("SELECT valid_time('2451545'), period_label('2451545', 'day')").fetchone()
     assert (valid, day) == (1, "2000-01-01")
     (label,) = loaded.execute("SELECT period_label('1700000000', 'day')").fetchone()
@@ -277,7 +277,7 @@ def test_shift_random(loaded, text, spec):
 
 @pytest.mark.parametrize("text,spec", SHIFT_SPECS[:12], ids=[s[0] for s in SHIFT_SPECS[:12]])
 def test_shift_keeps_a_trailing_z(loaded, text, spec):
-    # DESIGN: period_shift keeps the input's own TEXT form — read here as keeping
+    # ext/README.md: period_shift keeps the input's own TEXT form — read here as keeping
     # its T separator, precision and trailing Z as well (assumption)
     z_forms = [form for form in oracle.TEXT_FORMS if form[2] == "Z"]
     compared, bad = run_shift(loaded, text, spec, shift_inputs(SEED + 2, z_forms, ("text",), (1,))[:500])
@@ -291,7 +291,7 @@ SHIFT_TABLE = [
     ("2023-01-31", 1, "month", "2023-02-28", "common practice: month-end clamping"),
     ("2024-03-31", -1, "month", "2024-02-29", "common practice: month-end clamping, negative n"),
     ("2024-01-31", 3, "months", "2024-04-30", "common practice: month-end clamping"),
-    ("2024-01-31 10:30", 1, "month", "2024-02-29 10:30", "DESIGN: a date-time keeps its time of day"),
+    ("2024-01-31 10:30", 1, "month", "2024-02-29 10:30", "ext/README.md: a date-time keeps its time of day"),
     ("2024-01-31T23:59:59", 13, "month", "2025-02-28T23:59:59", "common practice: clamping"),
     ("2024-02-29", 1, "year", "2025-02-28", "common practice: Feb 29 clamps in a common year"),
     ("2024-02-29", 4, "year", "2028-02-29", "from memory: 2028 is a leap year"),
@@ -300,13 +300,13 @@ SHIFT_TABLE = [
     ("1904-02-29", -4, "years", "1900-02-28", "from memory: 1900 is not a leap year"),
     ("2024-11-30", 1, "quarter", "2025-02-28", "common practice: clamping"),
     ("2024-05-31", -1, "quarter", "2024-02-29", "common practice: clamping"),
-    ("2024-01-31", 1, "half-month", "2024-02-15", "DESIGN: half-month offset clamped (16 days into a 15-day half)"),
-    ("2024-01-31", 2, "half-month", "2024-02-29", "DESIGN: half-month offset clamped to Feb 16-29"),
-    ("2023-01-31", 2, "half-month", "2023-02-28", "DESIGN: half-month offset clamped to Feb 16-28"),
-    ("2024-01-15 08:00:00", 1, "half-month", "2024-01-30 08:00:00", "DESIGN: offset 14 days kept"),
-    ("2024-01-20", -1, "half-month", "2024-01-05", "DESIGN: offset 4 days kept, negative n"),
-    ("2024-02-29", -1, "half-month", "2024-02-14", "DESIGN: offset 13 days kept"),
-    ("2024-02-15", -3, "half-month", "2023-12-30", "DESIGN: offset 14 days kept, into Dec 16-31"),
+    ("2024-01-31", 1, "half-month", "2024-02-15", "ext/README.md: half-month offset clamped (16 days into a 15-day half)"),
+    ("2024-01-31", 2, "half-month", "2024-02-29", "ext/README.md: half-month offset clamped to Feb 16-29"),
+    ("2023-01-31", 2, "half-month", "2023-02-28", "ext/README.md: half-month offset clamped to Feb 16-28"),
+    ("2024-01-15 08:00:00", 1, "half-month", "2024-01-30 08:00:00", "ext/README.md: offset 14 days kept"),
+    ("2024-01-20", -1, "half-month", "2024-01-05", "ext/README.md: offset 4 days kept, negative n"),
+    ("2024-02-29", -1, "half-month", "2024-02-14", "ext/README.md: offset 13 days kept"),
+    ("2024-02-15", -3, "half-month", "2023-12-30", "ext/README.md: offset 14 days kept, into Dec 16-31"),
     ("1900-02-28", 1, "day", "1900-03-01", "from memory: 1900 is not a leap year"),
     ("2000-02-28", 1, "day", "2000-02-29", "from memory: 2000 is a leap year"),
     ("2024-01-01 00:00:00", -1, "second", "2023-12-31 23:59:59", "common practice"),

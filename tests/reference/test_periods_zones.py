@@ -146,7 +146,7 @@ def test_repeated_hour_is_two_periods_and_skipped_hour_none(db, name):
         starts = [r[0] for r in rows]
         labels = [r[2] for r in rows]
         serials = [r[3] for r in rows]
-        # every period is its own floor, neighbours meet, serials consecutive (DESIGN "Zones")
+        # every period is its own floor, neighbours meet, serials consecutive (ext/README.md "Zones")
         assert all(r[4] == r[0] for r in rows)
         assert serials == list(range(serials[0], serials[0] + 6)), (name, labels, serials)
         assert len(set(labels)) == 6, labels
@@ -173,7 +173,7 @@ def test_quarter_hours_across_every_transition_are_consecutive(db, name):
     for change, before, after in TRANSITIONS[name]:
         rows = walk(db, "15 minutes", name, (change - HOUR_MS) // 1000, 8)
         serials = [r[3] for r in rows]
-        assert serials == list(range(serials[0], serials[0] + 8))  # DESIGN: one more than the one before
+        assert serials == list(range(serials[0], serials[0] + 8))  # ext/README.md: one more than the one before
         assert len({r[2] for r in rows}) == 8
         assert all(b[0] - a[0] == 900 for a, b in zip(rows, rows[1:]))  # oracle: 15 min elapsed each
 
@@ -181,7 +181,7 @@ def test_quarter_hours_across_every_transition_are_consecutive(db, name):
 @pytest.mark.parametrize("spec_text", ["2 hours", "3 hours", "6 hours", "12 hours"])
 @pytest.mark.parametrize("name", ZONES)
 def test_multi_hour_units_stay_a_partition(db, name, spec_text):
-    # DESIGN leaves the boundaries to the README; what must hold anyway: each period
+    # ext/README.md ("Zones") says where the boundaries go; what must hold anyway: each period
     # holds its t, neighbours meet without overlap, serials rise by one.
     for change, _, _ in TRANSITIONS[name][:20]:
         rows = walk(db, spec_text, name, (change - 13 * HOUR_MS) // 1000, 30)
@@ -242,7 +242,7 @@ ROUND_TRIP_SPECS = ["day", "hour", "15 minutes", "minute", "week", "half-month",
 @pytest.mark.parametrize("spec_text", ROUND_TRIP_SPECS)
 @pytest.mark.parametrize("name", ZONES)
 def test_round_trip(db, name, spec_text):
-    # DESIGN: feeding a zoned result back in with the same zone gives the same period
+    # ext/README.md: feeding a zoned result back in with the same zone gives the same period
     instants = []
     for change, _, _ in TRANSITIONS[name]:
         instants += [change + h * HOUR_MS // 4 for h in range(-12, 12)]

@@ -315,7 +315,7 @@ def test_segments_add_up_exactly_to_the_all_segments_row(partial_db, unit):
 def test_a_table_without_a_segment_column_is_one_segment(fixture_db):
     path, rows = fixture_db
     got = report(path, "totals", zone=ZONE, unit="month", by_segment=1)
-    # A source without a segment column has only the rollup (DESIGN: "only all_segments = 1 rows").
+    # A source without a segment column has only the rollup (ext/README.md: "only all_segments = 1 rows").
     check_totals(got, oracle.period_totals(rows, ZONE, oracle.month_of))
     assert {row["segment"] for row in got} == {"all segments"}
 
@@ -588,7 +588,7 @@ def test_overlay_chart_of_the_whole_range_and_its_colours_follow_the_item_list(f
     path, rows = fixture_db
     check_chart(path, rows, weeks=0)
     # series_order is every item, largest first, so one item has one colour in every chart
-    # (oracle: xml.etree; DESIGN.md "Reports", series_order)
+    # (oracle: xml.etree; ext/README.md "Charts", series_order)
     colours = {}
     for item in ("Flat tea", "Rising bun", None):
         svg, _ = chart(path, zone=ZONE, **({"item": item} if item else {}))

@@ -81,7 +81,7 @@ NUMBER_SLOTS = (
 BAD_NUMBERS = [  # (SQL, as the message shows it, what was expected)
     ("'abc'", "'abc'", "expected a number"),
     ("''", "''", "expected a number"),
-    ("'1,234.50'", "'1,234.50'", "expected a number"),  # DESIGN: '1,234.50' is not a number
+    ("'1,234.50'", "'1,234.50'", "expected a number"),  # ext/README.md: '1,234.50' is not a number
     ("X'0102'", "a BLOB of 2 bytes", "expected a number, not a BLOB"),
     ("9e999", "inf", "expected a finite number"),
     ("-9e999", "-inf", "expected a finite number"),
@@ -126,7 +126,7 @@ for template, fn, n, name in TIME_SLOTS:
 for template, fn in (("sparkline(1, {v})", "sparkline"), ("svg_line_chart({v}, 1, 'a')", "svg_line_chart"),
                      ("svg_bar_chart({v}, 1, 'a')", "svg_bar_chart")):
     n = 2 if fn == "sparkline" else 1
-    if fn != "svg_bar_chart":  # DESIGN: a bar chart's TEXT x that is no time is a category
+    if fn != "svg_bar_chart":  # ext/README.md: a bar chart's TEXT x that is no time is a category
         add(template.format(v="'next tuesday'"), arg(fn, n, "x", "'next tuesday'", TIME + X_HINT))
         add(template.format(v="'2026-W05'"), arg(fn, n, "x", "'2026-W05'", TIME + X_HINT))
     add(template.format(v="X'00'"), arg(fn, n, "x", "a BLOB of 1 byte", "expected a number or a time value, not a BLOB"))
@@ -300,7 +300,7 @@ for sql in ["period_floor(NULL, 'day')", "period_end('2026-01-01', NULL)", "peri
             "period_serial(NULL, 'week')", "period_shift('2026-01-01', NULL, 'day')", "period_of_serial(NULL, 'day')",
             "period_position(NULL, 'day', 'week')", "period_position('2026-01-01', 'day', NULL)", "valid_time(NULL)",
             "to_time(NULL, '%Y')", "to_time('2026', NULL)", "to_amount(NULL)", "to_amount('')"]:
-    add(sql, Result(None, NULL_SOURCE + " (to_amount(''): DESIGN, the empty string gives NULL)"))
+    add(sql, Result(None, NULL_SOURCE + " (to_amount(''): ext/README.md, the empty string gives NULL)"))
 for fn in UNIVARIATE + ["moving_mean", "median", "mad", "exact_sum"]:
     add(f"{fn}(NULL)", Result(None, "ISO/IEC 9075: an aggregate over no non-NULL values is NULL"))
 for fn in BIVARIATE:
@@ -310,8 +310,8 @@ add("var_samp(5)", Result(None, "ISO/IEC 9075: VAR_SAMP of one row is NULL"))
 add("stddev_pop(5)", Result(0.0, "ISO/IEC 9075: STDDEV_POP of one row is 0"))
 add("median(7.5)", Result(7.5, "Hyndman & Fan definition 7: one value is its own median"))
 add("percentile_cont(7.5, 1)", Result(7.5, "Hyndman & Fan definition 7: p = 1 is the largest value"))
-add("valid_time(X'00')", Result(0, "DESIGN: valid_time never raises; a BLOB is not a time"))
-add("valid_time(CAST(X'FF41' AS TEXT))", Result(0, "DESIGN: valid_time never raises"))
+add("valid_time(X'00')", Result(0, "ext/README.md: valid_time never raises; a BLOB is not a time"))
+add("valid_time(CAST(X'FF41' AS TEXT))", Result(0, "ext/README.md: valid_time never raises"))
 ROWS = "(SELECT 1 AS i, 2.0 AS x UNION ALL SELECT 2, 4.0 UNION ALL SELECT 3, 9.0)"
 add(f"(SELECT group_concat(m, ',') FROM (SELECT median(x) OVER (ORDER BY i ROWS CURRENT ROW) AS m FROM {ROWS}))",
     Result("2.0,4.0,9.0", "a frame of one row: each row's own value (common practice)"))
@@ -327,7 +327,7 @@ add("(SELECT svg_line_chart(x, y, s) FROM (SELECT 1 AS x, 1 AS y, 'a' AS s) WHER
     Result(None, "ISO/IEC 9075: an aggregate over no rows is NULL, so a chart of 0 series is NULL"))
 add("(SELECT sparkline(1, 1) WHERE 0)", Result(None, "ISO/IEC 9075: an aggregate over no rows is NULL"))
 add("(SELECT count(*) FROM periods('2026-01-01', '2026-01-01', 'day'))",
-    Result(0, "DESIGN: one row per period overlapping [start, stop); an empty range overlaps none"))
+    Result(0, "ext/README.md: one row per period overlapping [start, stop); an empty range overlaps none"))
 
 # ---- the report library's checks: known_name, refuse_parameter, data_range, valid_number ----------
 # (issue 17; the reports call these, sql/README.md)
@@ -342,8 +342,8 @@ add(f"(SELECT known_name(n, X'01') FROM {NAMES})", arg("known_name", 2, "wanted"
                                                      "expected a name or '*'"))
 add(f"(SELECT known_name(n, 'x', X'01') FROM {NAMES})", arg("known_name", 3, "noun", "a BLOB of 1 byte",
                                                           "expected TEXT, not a BLOB"))
-add(f"(SELECT known_name(n, 'Oat bun', 'item') FROM {NAMES})", Result("Oat bun", "DESIGN issue 17: a known name"))
-add(f"(SELECT known_name(n, '*', 'item') FROM {NAMES})", Result("*", "DESIGN issue 17: '*' is every item"))
+add(f"(SELECT known_name(n, 'Oat bun', 'item') FROM {NAMES})", Result("Oat bun", "ext/README.md, report helpers: a known name"))
+add(f"(SELECT known_name(n, '*', 'item') FROM {NAMES})", Result("*", "ext/README.md, report helpers: '*' is every item"))
 add(f"(SELECT known_name(n, NULL, 'item') FROM {NAMES})", Result(None, "SQL: no choice made is NULL"))
 add("(SELECT known_name(n, 'x') FROM (SELECT 1 AS n) WHERE 0)", Result(None, "ISO/IEC 9075: no rows, NULL"))
 add("refuse_parameter('@unit', NULL, 'trend.sql takes no @unit')", Result(None, "SQL: a parameter not set is NULL"))
@@ -372,11 +372,11 @@ add("(SELECT json_extract(data_range(t, a, 'day', 'UTC', '2026-06-01'), '$.note'
     Result("range 2026-01-01..2026-01-03: 3 days, 2 rows; left out: 1 future row on 2027-01-01; 1 row without an "
            "amount (counted in sales, not in amount; sql/data_check.sql lists them)",
            "by hand: two rows up to now, one after it, one of the three without an amount"))
-add("valid_number('1,050.00')", Result(0, "DESIGN: '1,234.50' is not a number; valid_number never raises"))
-add("valid_number(' 12.5')", Result(1, "DESIGN: TEXT SQLite reads as a number is a number"))
-add("valid_number('')", Result(0, "DESIGN: the empty string is not a number"))
+add("valid_number('1,050.00')", Result(0, "ext/README.md: '1,234.50' is not a number; valid_number never raises"))
+add("valid_number(' 12.5')", Result(1, "ext/README.md: TEXT SQLite reads as a number is a number"))
+add("valid_number('')", Result(0, "ext/README.md: the empty string is not a number"))
 add("valid_number(X'01')", Result(0, "valid_number never raises; a BLOB is not a number"))
-add("valid_number(9e999)", Result(0, "DESIGN: infinities are not numbers to add"))
+add("valid_number(9e999)", Result(0, "ext/README.md: infinities are not numbers to add"))
 add("valid_number(NULL)", Result(None, "SQL: NULL gives NULL"))
 add("valid_number(3)", Result(1, "an INTEGER is a number"))
 

@@ -37,7 +37,7 @@ NOT_FOR_FROM = ("Julian day", "Unix seconds", "+HH:MM")
 T, S, Z = (1, "t"), (2, "spec"), (3, "zone")
 
 CASES = [
-    # ---- period_floor: time values (DESIGN "Time values")
+    # ---- period_floor: time values (ext/README.md "Time values")
     ("period_floor('2026-02-30', 'day')", F(*T, "'2026-02-30'")),                   # impossible date
     ("period_floor('2025-02-29', 'day')", F(*T, "'2025-02-29'")),                   # not a leap year
     ("period_floor('2026-13-01', 'month')", F(*T, "'2026-13-01'")),                 # month 13
@@ -63,7 +63,7 @@ CASES = [
     ("period_of_serial('soon', 'day')", F(1, "serial", "'soon'", fn="period_of_serial")),
     ("period_of_serial(3, 'fortnight')", F(*S, "'fortnight'", "week", fn="period_of_serial")),
     ("period_of_serial(3, 'day', 'Mars/Base')", F(*Z, "'Mars/Base'", fn="period_of_serial")),
-    # ---- specs (DESIGN "Spec grammar")
+    # ---- specs (ext/README.md "Specs")
     ("period_floor('2026-01-01', 'fortnight')", F(*S, "'fortnight'", "week")),      # unknown unit
     ("period_floor('2026-01-01', '3 fortnights')", F(*S, "'3 fortnights'", "week")),
     ("period_floor('2026-01-01', '0 days')", F(*S, "'0 days'")),                    # zero count
@@ -95,7 +95,7 @@ CASES = [
     ("period_floor('2026-01-01', '')", F(*S, "''")),
     ("period_floor('2026-01-01', 7)", F(*S, "7")),                                   # spec as a number
     ("period_floor('2026-01-01', X'00')", F(*S, "a BLOB of 1 byte", "BLOB")),
-    # ---- zones (DESIGN "Zones"): a name not in the database, never a path opened on disk
+    # ---- zones (ext/README.md "Zones"): a name not in the database, never a path opened on disk
     ("period_floor('2026-01-01', 'day', 'Mars/Olympus_Mons')", F(*Z, "'Mars/Olympus_Mons'")),
     ("period_floor('2026-01-01', 'day', '../../../etc/passwd')", F(*Z, "'../../../etc/passwd'")),
     ("period_floor('2026-01-01', 'day', '/usr/share/zoneinfo/UTC')", F(*Z, "'/usr/share/zoneinfo/UTC'")),
@@ -107,7 +107,7 @@ CASES = [
     ("period_floor('2026-01-01', NULL)", NULL),
     ("period_floor('2026-01-01', 'day', NULL)", NULL),
     # NULL t gives NULL before the other arguments are read, as SQLite's date(NULL, 'junk') does
-    # (DESIGN is silent; the implementation's choice)
+    # (the reference leaves it open; the implementation's choice)
     ("period_floor(NULL, 'fortnight')", NULL),
     ("period_shift(NULL, 'one', 'fortnight')", NULL),
     # ---- the other scalar functions
@@ -147,7 +147,7 @@ CASES = [
 ]
 
 VALID_TIME = [
-    # valid_time never raises (DESIGN); NULL gives NULL
+    # valid_time never raises (ext/README.md); NULL gives NULL
     ("valid_time('2026-02-30')", 0), ("valid_time(X'00')", 0), ("valid_time(1700000000000)", 0),
     ("valid_time('next tuesday')", 0), ("valid_time('')", 0), ("valid_time('2026-01-01 10:00+24:00')", 0),
     ("valid_time('2026-01-01')", 1), ("valid_time('2026-01-01T10:00:00.123Z')", 1), ("valid_time(2451545.0)", 1),
@@ -343,7 +343,7 @@ def test_all_pinned_cases_exist():
 
 
 def test_results_beyond_9999_are_errors_not_garbage(db):
-    # DESIGN: years outside 0000-9999 are an error — a result there too, since YYYY cannot write it
+    # ext/README.md: years outside 0000-9999 are an error — a result there too, since YYYY cannot write it
     # (assumption: the message names the function); 9999-12-31 and 0000-01-01 themselves are fine
     assert run(db, "period_floor('9999-12-31 12:00:00', 'day')") == [("9999-12-31",)]
     assert run(db, "period_floor('0000-01-01 12:00:00', 'day')") == [("0000-01-01",)]
