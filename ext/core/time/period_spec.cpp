@@ -361,9 +361,11 @@ date::month read_anchor_month(Words& words) {
 }
 
 void expect_word(Words& words, const char* word) {
-    if (words.done()) fail(std::string("expected '") + word + "' at the end; " + kRetailGrammar);
+    if (words.done())
+        fail(std::string("the anchor ends before '") + word + "'; " + kRetailGrammar);
     std::string got = words.take();
-    if (got != word) fail("unexpected '" + got + "', expected '" + word + "'; " + kRetailGrammar);
+    if (got != word)
+        fail("unexpected '" + got + "' where the anchor has '" + word + "'; " + kRetailGrammar);
 }
 
 // "last saturday of january" or "saturday nearest end of january".
