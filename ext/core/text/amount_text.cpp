@@ -214,7 +214,8 @@ DigitGroups read_digit_groups(std::string_view s, char decimal_mark, const Messa
         if (length == 0)
             throw Error(at(pos < s.size() ? pos : pos - here.size()) +
                         "expected digits after a grouping separator");
-        if (groups.group_count >= 2) groups.twos_between = groups.twos_between && groups.last_group == 2;
+        if (groups.group_count >= 2)
+            groups.twos_between = groups.twos_between && groups.last_group == 2;
         groups.threes = groups.threes && length == 3;
         groups.last_group = length;
         ++groups.group_count;

@@ -39,7 +39,9 @@ date::year_month month_at(std::int64_t index) {
            date::month{unsigned(index - 12 * floor_div(index, 12)) + 1};
 }
 
-unsigned last_day(date::year_month ym) { return days_in_month(int(ym.year()), unsigned(ym.month())); }
+unsigned last_day(date::year_month ym) {
+    return days_in_month(int(ym.year()), unsigned(ym.month()));
+}
 
 LocalTime local_epoch() { return LocalTime{Millis{0}}; }
 
@@ -150,7 +152,8 @@ class CalendarGrid {
             if (length_days_ == 1) return floor_div_by<kMillisPerDay>(since);
             return floor_div(since, length_days_ * kMillisPerDay);
         }
-        if (retail_parts_ > 0) return retail_index_of_day(date::floor<days>(t).time_since_epoch().count());
+        if (retail_parts_ > 0)
+            return retail_index_of_day(date::floor<days>(t).time_since_epoch().count());
         CivilDate civil = civil_from_day_number(
             static_cast<std::int32_t>(date::floor<days>(t).time_since_epoch().count()));
         std::int64_t month = std::int64_t{civil.year} * 12 + (civil.month - 1);

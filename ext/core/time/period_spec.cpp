@@ -24,8 +24,21 @@ constexpr std::int64_t kLargestCount = 1000000;
 
 bool is_letter(char c) { return is_ascii_lower(c) || c == '-'; }
 
+using UnitWord = std::pair<const char*, PeriodUnit>;
+
+// A unit word, singular or plural.
+template <std::size_t N>
+std::optional<PeriodUnit> unit_among(const std::array<UnitWord, N>& units,
+                                     const std::string& word) {
+    for (const auto& [name, unit] : units) {
+        std::string singular = name;
+        if (word == singular || word == singular + "s") return unit;
+    }
+    return std::nullopt;
+}
+
 std::optional<PeriodUnit> unit_named(const std::string& word) {
-    static const std::array<std::pair<const char*, PeriodUnit>, 9> units = {{
+    static const std::array<UnitWord, 9> units = {{
         {"second", PeriodUnit::Second},
         {"minute", PeriodUnit::Minute},
         {"hour", PeriodUnit::Hour},
@@ -36,10 +49,7 @@ std::optional<PeriodUnit> unit_named(const std::string& word) {
         {"quarter", PeriodUnit::Quarter},
         {"year", PeriodUnit::Year},
     }};
-    for (const auto& [name, unit] : units) {
-        std::string singular = name;
-        if (word == singular || word == singular + "s") return unit;
-    }
+    if (auto unit = unit_among(units, word)) return unit;
     if (word == "halfmonth" || word == "halfmonths") return PeriodUnit::HalfMonth;
     return std::nullopt;
 }
@@ -320,24 +330,20 @@ class Words {
 };
 
 std::optional<PeriodUnit> retail_unit_named(const std::string& word) {
-    static const std::array<std::pair<const char*, PeriodUnit>, 4> units = {{
+    static const std::array<UnitWord, 4> units = {{
         {"year", PeriodUnit::RetailYear},
         {"quarter", PeriodUnit::RetailQuarter},
         {"month", PeriodUnit::RetailMonth},
         {"week", PeriodUnit::RetailWeek},
     }};
-    for (const auto& [name, unit] : units) {
-        std::string singular = name;
-        if (word == singular || word == singular + "s") return unit;
-    }
-    return std::nullopt;
+    return unit_among(units, word);
 }
 
 RetailMonthPattern read_month_pattern(const std::string& word) {
     for (const char* known : {"4-4-5", "4-5-4", "5-4-4"}) {
         if (word == known)
-            return RetailMonthPattern{{{unsigned(word[0] - '0'), unsigned(word[2] - '0'),
-                                        unsigned(word[4] - '0')}}};
+            return RetailMonthPattern{
+                {{unsigned(word[0] - '0'), unsigned(word[2] - '0'), unsigned(word[4] - '0')}}};
     }
     fail("'" + word +
          "' is not a month pattern; expected 4-4-5, 4-5-4 or 5-4-4 (the weeks of the three "
@@ -361,8 +367,7 @@ date::month read_anchor_month(Words& words) {
 }
 
 void expect_word(Words& words, const char* word) {
-    if (words.done())
-        fail(std::string("the anchor ends before '") + word + "'; " + kRetailGrammar);
+    if (words.done()) fail(std::string("the anchor ends before '") + word + "'; " + kRetailGrammar);
     std::string got = words.take();
     if (got != word)
         fail("unexpected '" + got + "' where the anchor has '" + word + "'; " + kRetailGrammar);

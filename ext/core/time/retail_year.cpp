@@ -13,7 +13,8 @@ unsigned weekday_of(std::int64_t day) { return unsigned(((day + 4) % 7 + 7) % 7)
 }  // namespace
 
 std::string RetailAnchor::describe() const {
-    if (nearest) return lowercase_weekday_name(weekday) + " nearest end of " + lowercase_month_name(month);
+    if (nearest)
+        return lowercase_weekday_name(weekday) + " nearest end of " + lowercase_month_name(month);
     return "last " + lowercase_weekday_name(weekday) + " of " + lowercase_month_name(month);
 }
 
@@ -39,8 +40,7 @@ unsigned RetailMonthPattern::month_of_week(unsigned week) const {
 
 std::int64_t retail_year_end(const RetailAnchor& anchor, std::int32_t name) {
     const unsigned month = unsigned(anchor.month);
-    const std::int64_t month_end =
-        day_number_from_civil(name, month, days_in_month(name, month));
+    const std::int64_t month_end = day_number_from_civil(name, month, days_in_month(name, month));
     const unsigned wanted = anchor.weekday.c_encoding();
     // Days back from the month's last day to the last such weekday (0-6).
     const std::int64_t back = (weekday_of(month_end) + 7 - wanted) % 7;

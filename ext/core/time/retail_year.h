@@ -43,9 +43,9 @@ struct RetailMonthPattern {
 
 // One retail year: its name and its days, as day numbers (days since 1970-01-01).
 struct RetailYear {
-    std::int32_t name;        // the year of the anchor month in which it ends
-    std::int64_t first_day;   // the day after the previous year's anchor day
-    std::int64_t last_day;    // its anchor day
+    std::int32_t name;       // the year of the anchor month in which it ends
+    std::int64_t first_day;  // the day after the previous year's anchor day
+    std::int64_t last_day;   // its anchor day
     unsigned weeks() const { return unsigned((last_day - first_day + 1) / 7); }
 };
 

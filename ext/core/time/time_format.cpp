@@ -131,10 +131,9 @@ std::int32_t resolve_day(const Fields& f, std::string_view text) {
         if (f.day_of_year != 0) {
             unsigned actual = unsigned(day_number - day_number_from_civil(f.year, 1, 1)) + 1;
             if (actual != f.day_of_year)
-                throw Error("at " + character_at(text, f.day_of_year_at, 3) +
-                            ": day of the year " + std::to_string(f.day_of_year) +
-                            " does not agree with " + date_text(f.year, f.month, f.day) +
-                            ", day " + std::to_string(actual));
+                throw Error("at " + character_at(text, f.day_of_year_at, 3) + ": day of the year " +
+                            std::to_string(f.day_of_year) + " does not agree with " +
+                            date_text(f.year, f.month, f.day) + ", day " + std::to_string(actual));
         }
     } else {
         if (f.day_of_year > days_in_year(f.year))

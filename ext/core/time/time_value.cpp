@@ -227,8 +227,8 @@ TimeValue parse_time_text_in_full(std::string_view raw) {
     Millis time_of_day = read_time_of_day(text, pos, value.form);
     while (pos < text.size() && is_ascii_space(text[pos])) ++pos;
     read_offset_suffix(text, pos, value.form);
-    Instant instant = instant_at_offset(LocalTime{day.time_since_epoch()} + time_of_day,
-                                        value.form.offset);
+    Instant instant =
+        instant_at_offset(LocalTime{day.time_since_epoch()} + time_of_day, value.form.offset);
     check_range(instant, [] { return std::string("the time"); });
     value.when = instant;
     return value;

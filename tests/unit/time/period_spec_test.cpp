@@ -136,8 +136,7 @@ TEST_CASE("retail specs refuse what the grammar does not allow, saying what was 
     refused("retail fortnight ending last saturday of january", "unknown retail unit");
     refused("retail year ending final saturday of january", "is not a weekday");
     refused("retail year ending last saturday in january", "the anchor has 'of'");
-    refused("retail year ending saturday closest end of january",
-            "the anchor has 'nearest'");
+    refused("retail year ending saturday closest end of january", "the anchor has 'nearest'");
     refused("retail year ending saturday nearest", "the anchor ends before 'end'");
     refused("retail year ending last saturday of smarch", "is not a month");
     refused("retail year ending last saturday of january please", "unexpected 'please'");

@@ -30,8 +30,10 @@ TEST_CASE("a year ending on the saturday nearest the end of a month may end in t
     CHECK(retail_year_end({date::Saturday, date::December, true}, 2025) == day(2026, 1, 3));
     // 2026-12-31 is a Thursday: the nearest Saturday is 2 January 2027, still FY2026.
     CHECK(retail_year_end({date::Saturday, date::December, true}, 2026) == day(2027, 1, 2));
-    CHECK(retail_year_holding({date::Saturday, date::December, true}, day(2027, 1, 2)).name == 2026);
-    CHECK(retail_year_holding({date::Saturday, date::December, true}, day(2027, 1, 3)).name == 2027);
+    CHECK(retail_year_holding({date::Saturday, date::December, true}, day(2027, 1, 2)).name ==
+          2026);
+    CHECK(retail_year_holding({date::Saturday, date::December, true}, day(2027, 1, 3)).name ==
+          2027);
 }
 
 TEST_CASE("every day lies in exactly one retail year of whole weeks") {
