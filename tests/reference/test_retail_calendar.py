@@ -232,3 +232,50 @@ def test_the_instant_a_denver_retail_year_turns_agrees_with_zoneinfo():
         compared += 1
     print(f"{compared} Denver year turns compared with zoneinfo")
     assert compared >= 70
+
+
+def test_period_totals_sums_each_retail_month_of_the_pandas_calendar():
+    import math
+    import random
+    db = connect()
+    rng = random.Random(52)
+    rows = []
+    for _ in range(3000):
+        day = dt.date(2023, 1, 1) + dt.timedelta(days=rng.randrange(4 * 365))
+        rows.append((f"{day.isoformat()} {rng.randrange(24):02d}:{rng.randrange(60):02d}",
+                     rng.choice(["tea", "cake", "jam"]), rng.randint(1, 5), round(rng.uniform(1, 40), 2)))
+    db.execute("CREATE TABLE sales(ts, item, qty, amount)")
+    db.executemany("INSERT INTO sales VALUES (?, ?, ?, ?)", rows)
+    spec = "retail month 5-4-4 ending saturday nearest end of january"
+    _, month_starts, _, month_labels = model(5, 1, "nearest", "5-4-4")
+    expected = {}
+    for ts, item, qty, amount in rows:
+        day = dt.date.fromisoformat(ts[:10])
+        label = month_labels[month_starts[bisect.bisect_right(month_starts, day) - 1]]
+        expected.setdefault((item, label), []).append(amount)
+    got = {(item, label): (sales, amount) for item, label, sales, amount in db.execute(
+        "SELECT item, label, sales, amount FROM period_totals('sales', ?)", (spec,))}
+    for key, amounts in expected.items():
+        # oracle: the pandas FY5253 calendar above, summed with math.fsum
+        assert got[key] == (len(amounts), math.fsum(amounts)), key
+    # Empty months are listed as empty, never missing.
+    assert all(sales == 0 for key, (sales, _) in got.items() if key not in expected)
+    assert len(got) == 3 * len({label for _, label in got})
+    print(f"{len(expected)} item-months compared")
+
+
+@pytest.mark.parametrize("unit", ["year", "quarter", "month 4-5-4", "week"])
+def test_period_of_serial_gives_back_the_start_of_every_retail_period(unit):
+    db = connect()
+    spec = f"retail {unit} ending friday nearest end of december"
+    ends = year_ends(4, 12, "nearest")  # oracle: pandas FY5253
+    rows = db.execute("SELECT period_start, serial, period_of_serial(serial, ?), "
+                      "period_of_serial(serial, ?, 'America/Denver') FROM periods('1990-01-01', '2061-01-01', ?)",
+                      (spec, spec, spec)).fetchall()
+    serials = [serial for _, serial, _, _ in rows]
+    assert serials == list(range(serials[0], serials[0] + len(rows)))
+    assert all(start == back == zoned for start, _, back, zoned in rows)
+    if unit == "year":
+        starts = [dt.date.fromisoformat(start) for start, _, _, _ in rows]
+        assert starts == [end + DAY for end in ends if starts[0] <= end + DAY <= starts[-1]]
+        assert starts[0] <= FIRST < starts[1] and starts[-1] < LAST
