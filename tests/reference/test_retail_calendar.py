@@ -182,7 +182,8 @@ def test_every_day_has_the_label_serial_position_and_shifts_of_its_retail_week(w
                   period_shift(day, 1, :w), period_shift(day, -1, :w), period_shift(day, 13, :w),
                   period_shift(day, -13, :w), period_label(day, :m), period_serial(day, :m),
                   period_shift(day, 1, :m), period_shift(day, -1, :m), period_shift(day, 13, :m),
-                  period_shift(day, -13, :m)
+                  period_shift(day, -13, :m), period_position(day, :m, :y), period_position(day, 'day', :y),
+                  period_position(day, :w, :m)
            FROM d""",
         {"first": FIRST.isoformat(), "last": (LAST - DAY).isoformat(), "w": week_spec,
          "m": month_spec, "y": year_spec}).fetchall()
@@ -200,6 +201,11 @@ def test_every_day_has_the_label_serial_position_and_shifts_of_its_retail_week(w
         assert row[8] == month_labels[m], (month_spec, day)
         for got, n in zip(row[10:14], (1, -1, 13, -13)):
             assert got == shifted(month_starts, day, n).isoformat(), (month_spec, day, n)
+        # Positions: the month of the year, the day of the year, the week of the month.
+        year_start = w - dt.timedelta(weeks=week - 1)
+        assert row[14] == int(month_labels[m][-2:]), (month_spec, day)
+        assert row[15] == (day - year_start).days + 1, (year_spec, day)
+        assert row[16] == (w - m).days // 7 + 1, (week_spec, month_spec, day)
         if previous is not None:
             # Serials are consecutive: one more exactly where a new period starts.
             assert row[2] - previous[2] == (1 if w == day else 0), (week_spec, day)
