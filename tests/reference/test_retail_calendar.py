@@ -12,6 +12,8 @@
   serial (consecutive), period_position (week 1-53 of the retail year), and
   period_shift by +-1 and +-13, all computed here from the pandas year ends.
 - Zones: the instant at which a Denver retail year turns, against zoneinfo.
+- period_totals' retail months against the same calendar summed with math.fsum,
+  and period_of_serial giving back the start of every retail period.
 """
 import bisect
 import datetime as dt
