@@ -54,7 +54,7 @@ def year_ends(weekday, month, variation):
 
 
 def year_name(end, month):
-    """DESIGN: the year of the anchor month in which the retail year ends."""
+    """ext/README.md: the year of the anchor month in which the retail year ends."""
     return end.year if end.month == month else end.year - 1 if month == 12 else end.year
 
 
@@ -80,7 +80,7 @@ def test_year_ends_agree_with_pandas_fy5253_for_every_anchor():
         expected = within(year_ends(weekday, month, variation))  # oracle: pandas FY5253
         got = within(almanac_period_ends(db, spec))
         assert got == expected, spec
-        # The label names the year of the anchor month in which the year ends (DESIGN).
+        # The label names the year of the anchor month in which the year ends (ext/README.md).
         for end in expected:
             label = db.execute("SELECT period_label(?, ?)", (end.isoformat(), spec)).fetchone()[0]
             assert label == f"FY{year_name(end, month):04d}", (spec, end)
@@ -164,7 +164,7 @@ def every_day():
 
 
 def shifted(starts, day, n):
-    """DESIGN: keep the offset from the period start, clamped to the target period's last day."""
+    """ext/README.md: keep the offset from the period start, clamped to the target period's last day."""
     i = bisect.bisect_right(starts, day) - 1
     offset = (day - starts[i]).days
     target, after = starts[i + n], starts[i + n + 1]
@@ -213,7 +213,7 @@ def test_every_day_has_the_label_serial_position_and_shifts_of_its_retail_week(w
             assert row[2] - previous[2] == (1 if w == day else 0), (week_spec, day)
             assert row[9] - previous[9] == (1 if m == day else 0), (month_spec, day)
         previous = row
-    # Serial 0 holds 1970-01-01 (DESIGN).
+    # Serial 0 holds 1970-01-01 (ext/README.md).
     assert db.execute("SELECT period_serial('1970-01-01', ?), period_serial('1970-01-01', ?)",
                       (week_spec, month_spec)).fetchone() == (0, 0)
     print(f"{len(rows)} days compared for '{anchor}'")

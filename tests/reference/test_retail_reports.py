@@ -111,7 +111,7 @@ def test_compare_sets_each_retail_period_against_the_same_one_a_retail_year_earl
     periods = weeks if kind == "week" else months
     latest = next(p for p in periods if p[0] <= stop - DAY < p[1])
     name, number = latest[2][2:6], latest[2][6:]
-    wanted = f"FY{int(name) - 1}{number}"  # DESIGN: the same position in the previous retail year
+    wanted = f"FY{int(name) - 1}{number}"  # ext/README.md: the same position in the previous retail year
     base = next(p for p in periods if p[2] == wanted)
     elapsed = (stop - latest[0]).days
     got = compare_year(path, f"retail {kind} ending {anchor}", stop)

@@ -213,7 +213,7 @@ add("period_position('2026-01-01', 'day', 'day')", arg(
     "week, half-month, month, quarter or year; week in year; half-month in month, quarter or year; month, "
     "quarter or year periods in a longer month-based cycle that is a whole number of them and begins where "
     "one of them begins"))
-# ---- retail calendars (DESIGN "Retail calendars"): every spec slot, each error saying what was expected
+# ---- retail calendars (ext/README.md "Retail calendars"): every spec slot, each error saying what was expected
 RETAIL = ("expected retail year|quarter|month|week [4-4-5|4-5-4|5-4-4 for months] ending last <weekday> of "
           "<month>, or ending <weekday> nearest end of <month>")
 BAD_RETAIL_SPECS = [

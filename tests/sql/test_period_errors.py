@@ -92,7 +92,7 @@ CASES = [
      F(*S, "'week starting sunday from 2024-01-03'", "starting")),                   # Wednesday vs Sunday
     ("period_floor('2026-01-01', 'quarter starting april from 2024-02-01')",
      F(*S, "'quarter starting april from 2024-02-01'", "starting")),                 # Feb vs April quarters
-    # retail calendars (DESIGN "Retail calendars"): each refusal says what was expected
+    # retail calendars (ext/README.md "Retail calendars"): each refusal says what was expected
     ("period_floor('2026-01-01', '2 retail weeks ending last saturday of january')",
      F(*S, "'2 retail weeks ending last saturday of january'", "no count", "retail year|quarter|month|week")),
     ("period_floor('2026-01-01', 'retail year')", F(*S, "'retail year'", "needs an anchor", "ending last")),
