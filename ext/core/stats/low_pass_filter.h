@@ -17,8 +17,9 @@ namespace almanac {
 // and takes off in two steps, which rounds differently).
 void moving_average(const double* x, std::size_t n, std::size_t length, double* out);
 
-// The three moving averages: n values of x in, n − 2·period out. scratch
-// holds n − period + 1 values.
+// The three moving averages: n values of x in, n − 2·period out. out and
+// scratch each hold n − period + 1 values (out keeps the first average on
+// the way).
 void low_pass_averages(const double* x, std::size_t n, std::size_t period, double* out,
                        double* scratch);
 
