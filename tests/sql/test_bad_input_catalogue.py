@@ -101,7 +101,10 @@ TIME_SLOTS = (
        ("period_position({v}, 'day', 'week')", "period_position", 1, "t"),
        ("ewma(1, {v}, '1 day')", "ewma", 2, "t"),
        ("SELECT * FROM periods({v}, '2027-01-01', 'month')", "periods", 1, "start"),
-       ("SELECT * FROM periods('2026-01-01', {v}, 'month')", "periods", 2, "stop")]
+       ("SELECT * FROM periods('2026-01-01', {v}, 'month')", "periods", 2, "stop"),
+       # the range of period_totals: its bounds are read before the source
+       ("SELECT * FROM period_totals('no_such_table', 'day', 'UTC', {v})", "period_totals", 4, "start"),
+       ("SELECT * FROM period_totals('no_such_table', 'day', 'UTC', NULL, {v})", "period_totals", 5, "stop")]
 )
 BAD_TIMES = [
     ("'2026-02-30'", "'2026-02-30'", "no such date: 2026-02 has 28 days"),
@@ -253,15 +256,22 @@ add("to_amount('12', CAST(X'00' AS TEXT))", arg("to_amount", 2, "decimal_mark", 
 # pointer-passing interface, sqlite3_bind_pointer), so a direct call is refused.
 PASS_ONLY = ("expected the pass of a running period_totals(), whose own reading step this is; "
              "call period_totals() instead")
-add("SELECT period_totals_pass(1, '2026-01-01', 1, 'a', 1)", arg("period_totals_pass", 1, "pass", "1", PASS_ONLY))
-add("SELECT period_totals_pass(NULL, '2026-01-01', 1, 'a', 1)",
+add("SELECT period_totals_pass(1, '2026-01-01', 1, 'a', 1, 's')", arg("period_totals_pass", 1, "pass", "1", PASS_ONLY))
+add("SELECT period_totals_pass(NULL, '2026-01-01', 1, 'a', 1, NULL)",
     arg("period_totals_pass", 1, "pass", "NULL", PASS_ONLY))
-add("SELECT period_totals_pass(x'00', ts, 1, 2, 3) FROM (SELECT '2026-01-01' AS ts)",
+add("SELECT period_totals_pass(x'00', ts, 1, 2, 3, 4) FROM (SELECT '2026-01-01' AS ts)",
     arg("period_totals_pass", 1, "pass", "a BLOB of 1 byte", PASS_ONLY))
 add("SELECT * FROM period_totals('no_such_table', 'day')", arg(
     "period_totals", 1, "source", "'no_such_table'", "no table or view of that name (expected 'name' or 'schema.name')"))
 add("SELECT * FROM period_totals('no_such_table', 'fortnight')",  # the spec is read first
     arg("period_totals", 2, "spec", "'fortnight'", "unknown unit 'fortnight'; " + GRAMMAR))
+# The range (bad times: TIME_SLOTS above); checked before the source is looked up.
+add("SELECT * FROM period_totals('no_such_table', 'day', NULL, x'01', NULL)",  # a bad bound even with a NULL zone
+    arg("period_totals", 4, "start", "a BLOB of 1 byte", "expected a time value, not a BLOB"))
+add("SELECT * FROM period_totals('no_such_table', 'week', 'UTC', '2026-03-01', '2026-02-01')",
+    arg("period_totals", 4, "start", "'2026-03-01'", "expected a time not after stop (argument 5 = '2026-02-01')"))
+add("SELECT * FROM period_totals()",
+    Error("period_totals(): source is missing; expected period_totals(source, spec [, zone [, start [, stop]]])"))
 
 # ---- errors about the rows as a whole ----------------------------------------------------
 # The limit is met as rows are read, so each of these reads 10,000,000 rows first: count(*)
