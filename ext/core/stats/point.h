@@ -19,7 +19,7 @@ struct Point {
 // A season is any SQL value but NULL: a number (period_position gives 1,
 // 2, ...) or a label ('Mon', 'spring'), compared as SQLite compares values
 // (numbers by value, then TEXT by its bytes), as items are.
-using SeasonKey = ItemKey;
+using SeasonKey = ValueKey;
 
 inline SeasonKey numbered_season(double number) {
     SeasonKey key;
@@ -28,7 +28,7 @@ inline SeasonKey numbered_season(double number) {
     return key;
 }
 inline bool same_season(const SeasonKey& a, const SeasonKey& b) {
-    return !item_less(a, b) && !item_less(b, a);
+    return !value_less(a, b) && !value_less(b, a);
 }
 
 struct SeasonalPoint {
@@ -42,7 +42,7 @@ struct SeasonalPoint {
 // number or as text: the same seasons give the same bits.
 inline void sort_by_season(std::vector<SeasonalPoint>& points) {
     std::sort(points.begin(), points.end(), [](const SeasonalPoint& a, const SeasonalPoint& b) {
-        return item_less(a.season, b.season);
+        return value_less(a.season, b.season);
     });
 }
 
