@@ -161,6 +161,7 @@ struct Cursor {
     TimeValue like;
     std::size_t series = 0;  // position in reading.series
     Decomposed current_series;
+    SeasonalTrendDecomposition stl;  // its working memory serves every item
     Period current{};
     bool done = true;
     sqlite3_int64 row = 0;
@@ -214,9 +215,9 @@ bool decompose_series(Cursor& cursor) {
         out.amounts.push_back(*amount);
     }
     const bool robust = cursor.request.options.robust.value_or(count >= 4 * period);
-    SeasonalTrendDecomposition stl(
-        StlSettings::defaults(period, cursor.request.options.seasonal, robust));
-    stl.decompose(out.amounts, out.parts);
+    cursor.stl.decompose(out.amounts,
+                         StlSettings::defaults(period, cursor.request.options.seasonal, robust),
+                         out.parts);
     out.has_parts = true;
     return true;
 }

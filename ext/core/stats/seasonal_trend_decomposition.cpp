@@ -3,7 +3,6 @@
 
 #include <cmath>
 
-#include "core/stats/loess.h"
 #include "core/stats/low_pass_filter.h"
 #include "core/text/error.h"
 
@@ -38,18 +37,20 @@ void SeasonalTrendDecomposition::inner_pass(const std::vector<double>& y, bool u
     const std::size_t np = settings_.period;
     const double* weights = use_weights ? parts.weight.data() : nullptr;
     for (std::size_t i = 0; i < n; ++i) detrended_[i] = y[i] - parts.trend[i];
-    subseries_.smooth(detrended_.data(), n, np, settings_.seasonal, settings_.seasonal_degree,
+    subseries_.smooth(loess_, detrended_.data(), n, np, settings_.seasonal, settings_.seasonal_degree,
                       weights, cycles_.data());
     low_pass_averages(cycles_.data(), n + 2 * np, np, averaged_.data(), scratch_.data());
-    loess_smooth(averaged_.data(), n, settings_.low_pass, settings_.low_pass_degree, nullptr,
-                 low_pass_.data(), scratch_.data());
+    loess_.smooth(averaged_.data(), n, settings_.low_pass, settings_.low_pass_degree, nullptr,
+                  low_pass_.data());
     for (std::size_t i = 0; i < n; ++i) parts.season[i] = cycles_[np + i] - low_pass_[i];
     for (std::size_t i = 0; i < n; ++i) detrended_[i] = y[i] - parts.season[i];
-    loess_smooth(detrended_.data(), n, settings_.trend, settings_.trend_degree, weights,
-                 parts.trend.data(), scratch_.data());
+    loess_.smooth(detrended_.data(), n, settings_.trend, settings_.trend_degree, weights,
+                  parts.trend.data());
 }
 
-void SeasonalTrendDecomposition::decompose(const std::vector<double>& y, StlParts& parts) {
+void SeasonalTrendDecomposition::decompose(const std::vector<double>& y,
+                                           const StlSettings& settings, StlParts& parts) {
+    settings_ = settings;
     const std::size_t n = y.size();
     const std::size_t np = settings_.period;
     if (n < 2 * np) throw Error("expected at least two whole cycles of values");

@@ -18,6 +18,7 @@
 #include <vector>
 
 #include "core/stats/cycle_subseries.h"
+#include "core/stats/loess.h"
 #include "core/stats/robustness_weights.h"
 
 namespace almanac {
@@ -51,16 +52,15 @@ struct StlParts {
 // for a series of n values.
 class SeasonalTrendDecomposition {
   public:
-    explicit SeasonalTrendDecomposition(const StlSettings& settings) : settings_(settings) {}
-
     // Needs at least two whole cycles (n ≥ 2·period); throws Error otherwise.
     // Values must be finite.
-    void decompose(const std::vector<double>& y, StlParts& parts);
+    void decompose(const std::vector<double>& y, const StlSettings& settings, StlParts& parts);
 
   private:
     void inner_pass(const std::vector<double>& y, bool use_weights, StlParts& parts);
 
     StlSettings settings_;
+    Loess loess_;
     CycleSubseriesSmoother subseries_;
     RobustnessWeights robustness_;
     std::vector<double> detrended_, cycles_, averaged_, low_pass_, scratch_;

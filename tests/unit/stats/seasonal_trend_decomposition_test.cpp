@@ -34,9 +34,9 @@ TEST_CASE("a line plus a repeating zero-mean pattern comes apart into the two ex
     const double pattern[] = {3, -1, -1, 0.5, -2, 1, -0.5};
     std::vector<double> y(n);
     for (std::size_t i = 0; i < n; ++i) y[i] = 50 + 0.3 * static_cast<double>(i) + pattern[i % period];
-    SeasonalTrendDecomposition stl(StlSettings::defaults(period, 7, false));
+    SeasonalTrendDecomposition stl;
     StlParts parts;
-    stl.decompose(y, parts);
+    stl.decompose(y, StlSettings::defaults(period, 7, false), parts);
     for (std::size_t i = 0; i < n; ++i) {
         CHECK(parts.trend[i] == Approx(50 + 0.3 * static_cast<double>(i)).margin(1e-9));
         CHECK(parts.season[i] == Approx(pattern[i % period]).margin(1e-9));
@@ -52,20 +52,20 @@ TEST_CASE("a robust fit gives a promotion spike a weight near zero and keeps it 
         y[i] = 20 + 4 * std::sin(6.283185307179586 * static_cast<double>(i) / period) +
                0.3 * std::cos(1.7 * static_cast<double>(i));  // a little irregularity
     y[30] += 100;
-    SeasonalTrendDecomposition robust(StlSettings::defaults(period, 7, true));
+    SeasonalTrendDecomposition stl;
     StlParts parts;
-    robust.decompose(y, parts);
+    stl.decompose(y, StlSettings::defaults(period, 7, true), parts);
     CHECK(parts.weight[30] < 0.01);
     CHECK(parts.remainder[30] > 90);
-    SeasonalTrendDecomposition plain(StlSettings::defaults(period, 7, false));
-    StlParts plain_parts;
-    plain.decompose(y, plain_parts);
+    StlParts plain_parts;  // the same object again: nothing carries over
+    stl.decompose(y, StlSettings::defaults(period, 7, false), plain_parts);
     CHECK(plain_parts.weight[30] == 1.0);
     CHECK(plain_parts.remainder[30] < parts.remainder[30]);
 }
 
 TEST_CASE("fewer than two whole cycles is refused") {
-    SeasonalTrendDecomposition stl(StlSettings::defaults(7, 7, false));
+    SeasonalTrendDecomposition stl;
     StlParts parts;
-    CHECK_THROWS_AS(stl.decompose(std::vector<double>(13, 1.0), parts), Error);
+    CHECK_THROWS_AS(stl.decompose(std::vector<double>(13, 1.0), StlSettings::defaults(7, 7, false), parts),
+                    Error);
 }
