@@ -230,6 +230,9 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         return SQLITE_OK;
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
+    } catch (const Interrupted& error) {
+        set_error(base->pVtab, error.what());
+        return SQLITE_INTERRUPT;
     } catch (const SqlError& error) {
         return set_error(base->pVtab, error.what());
     } catch (const std::exception& error) {

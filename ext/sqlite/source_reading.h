@@ -56,6 +56,13 @@ namespace almanac::sqlite {
 // over five and a half years, or fewer when the rows have segments.
 constexpr std::uint64_t kMaxCells = 10000000;
 
+// The calling connection was interrupted (sqlite3_interrupt): the table
+// function returns SQLITE_INTERRUPT with this message.
+class Interrupted : public SqlError {
+  public:
+    using SqlError::SqlError;
+};
+
 // The caller's range; a missing bound is taken from the data.
 struct RangeBounds {
     std::optional<Instant> start, stop;
@@ -86,7 +93,8 @@ struct SourceReading {
 
 SourceReading read_source(sqlite3* db, const SourceRequest& request);
 
-// Registers period_totals_pass, the reading step (an aggregate).
+// Registers period_totals_pass, the reading step (an aggregate), and
+// almanac_threads() with almanac_last_read_threads() (reading_threads.h).
 int register_source_reading(sqlite3* db);
 
 }  // namespace almanac::sqlite
