@@ -135,8 +135,14 @@ std::vector<Range> cut(sqlite3_int64 first, sqlite3_int64 last, std::uint64_t co
 // One thread's share: its connection (the caller's for the calling
 // thread), its totals and calendar, its pass.
 struct Reader {
-    sqlite3* db = nullptr;  // owned for a helper
+    sqlite3* db = nullptr;  // owned for a helper: closed with it
     bool helper = false;
+    Reader() = default;
+    Reader(const Reader&) = delete;
+    Reader& operator=(const Reader&) = delete;
+    ~Reader() {
+        if (helper) sqlite3_close(db);
+    }
     std::string sql;        // the pass over one range of rowids
     std::unique_ptr<PeriodTotals> own_totals;
     std::optional<PeriodCalendar> calendar;
@@ -356,11 +362,10 @@ int read_in_parallel(sqlite3* db, const char* function, const TableToSplit& tabl
     helpers.crew.ranges = cut(first, last, wanted * kRangesPerThread);
     std::string where = " WHERE " + rowid + " BETWEEN ?2 AND ?3";
     for (std::uint64_t i = 1; i < wanted; ++i) {
-        sqlite3* connection = open_helper(file, vfs->zName);
-        if (!connection) break;  // the others read its share
         auto reader = std::make_unique<Reader>();
-        reader->db = connection;
         reader->helper = true;
+        reader->db = open_helper(file, vfs->zName);
+        if (!reader->db) break;  // the others read its share
         reader->sql = table.pass_select("main." + quote_identifier(table.name)) + where;
         reader->own_totals = std::make_unique<PeriodTotals>(kMaxCells, prototype.totals->has_segments());
         reader->calendar.emplace(*prototype.calendar);
