@@ -15,7 +15,7 @@ and six shapes (a linear trend alone, a wave, noise, a promotion spike,
 closure zeros, a constant), over exactly two cycles, one period short of two
 (NULL parts), three, four and more cycles. trend, season, noise and weight
 agree within 1e-9 x (max |amount| + 1); robust fits are compared from four
-whole cycles on (DESIGN: robust by default there). Below four cycles the
+whole cycles on (ext/README.md: robust by default there). Below four cycles the
 default must be the non-robust fit, and an explicit robust fit must add up
 with weights in [0, 1] (its weights come from rounding noise there, and
 statsmodels' own answers move by orders of magnitude for inputs a few ulp
@@ -31,7 +31,7 @@ from statsmodels.tsa.seasonal import STL
 
 from conftest import connect
 
-KINDS = [  # spec, cycle, n_p (DESIGN's table), how the n-th period is written
+KINDS = [  # spec, cycle, n_p (ext/README.md's table), how the n-th period is written
     ("week", "year", 52),
     ("day", "week", 7),
     ("month", "year", 12),
@@ -42,7 +42,7 @@ COLUMNS = "item, label, amount, trend, season, noise, weight"
 
 
 def tolerance(amounts):
-    return 1e-9 * (max(abs(a) for a in amounts) + 1)  # DESIGN / issue: the stated tolerance
+    return 1e-9 * (max(abs(a) for a in amounts) + 1)  # ext/README.md: the stated tolerance
 
 
 def period_start(spec, k):
@@ -126,7 +126,7 @@ def assert_matches(got, reference, tol, what):
 
 def assert_adds_up(got):
     for a, t, s, r in zip(got["amount"], got["trend"], got["season"], got["noise"]):
-        # amount = trend + season + noise to rounding (DESIGN)
+        # amount = trend + season + noise to rounding (ext/README.md)
         assert math.isclose(a, t + s + r, rel_tol=1e-12, abs_tol=1e-9 * (abs(a) + abs(t) + abs(s) + 1))
 
 
@@ -177,7 +177,7 @@ def test_one_period_short_of_two_cycles_gives_null_parts(spec, cycle, period):
     assert len(got) == len(SHAPES)
     for rows in got.values():
         assert len(rows) == 2 * period - 1
-        # DESIGN: fewer than two whole cycles: NULL trend, season, noise, weight; amounts come
+        # ext/README.md: fewer than two whole cycles: NULL trend, season, noise, weight; amounts come
         assert all(r[2:] == (None, None, None, None) for r in rows)
         assert all(r[1] is not None for r in rows)
 

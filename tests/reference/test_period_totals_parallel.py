@@ -303,7 +303,7 @@ def test_almanac_threads_sets_and_reports_the_number():
 
 
 def test_period_decomposition_reads_the_same_way_on_every_thread_count(tmp_path):
-    # DESIGN: period_decomposition reads its source as period_totals does, in parallel too.
+    # ext/README.md: period_decomposition reads its source as period_totals does, in parallel too.
     rows = seeded_rows(41, 4000, dt.datetime(2023, 1, 2), dt.datetime(2025, 12, 29))
     db = file_db(tmp_path / "d.db", rows)
     sql = "SELECT * FROM period_decomposition('sales', 'week', 'year', 'America/Denver')"

@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """TEXT seasons in theil_sen_slope(y, x, season) and mann_kendall_p(y, x, season).
 
-DESIGN ("Trend, season and noise, apart"): any non-NULL value is a season,
+ext/README.md ("Trend, season and noise, apart"): any non-NULL value is a season,
 numbers by value and TEXT by its bytes, and the per-season sums run in
 SQLite's order of the seasons, so seasons coded as text give the same bits
 as the same seasons coded as numbers in that order. Checked bit for bit
@@ -49,7 +49,7 @@ def test_text_seasons_give_the_bits_of_integer_seasons_as_aggregates():
         rows = table(db, rng, rng.randrange(5, 400), rng.randrange(1, 8))
         for fn in ("theil_sen_slope", "mann_kendall_p"):
             by_code, by_label = db.execute(f"SELECT {fn}(y, x, code), {fn}(y, x, label) FROM t").fetchone()
-            assert bits(by_code) == bits(by_label), (case, fn)  # DESIGN: the same bits
+            assert bits(by_code) == bits(by_label), (case, fn)  # ext/README.md: the same bits
             compared += 1
         # and the value itself against the outside references
         expected_p = seasonal_kendall_p([(r[1], r[2], r[4]) for r in rows])  # published: Hirsch et al. 1982
@@ -74,7 +74,7 @@ def test_text_seasons_give_the_bits_of_integer_seasons_in_sliding_windows():
         got = db.execute(f"SELECT {fn}(y, x, code) OVER w, {fn}(y, x, label) OVER w FROM t "
                          f"WINDOW w AS (ORDER BY i ROWS BETWEEN 40 PRECEDING AND CURRENT ROW)").fetchall()
         for by_code, by_label in got:
-            assert bits(by_code) == bits(by_label)  # DESIGN: the same bits
+            assert bits(by_code) == bits(by_label)  # ext/README.md: the same bits
             compared += 1
     print(f"{compared} window frames compared bit for bit")
     assert compared == 600

@@ -303,14 +303,14 @@ add("SELECT * FROM period_totals('no_such_table', 'day')", arg(
     "period_totals", 1, "source", "'no_such_table'", "no table or view of that name (expected 'name' or 'schema.name')"))
 add("SELECT * FROM period_totals('no_such_table', 'fortnight')",  # the spec is read first
     arg("period_totals", 2, "spec", "'fortnight'", "unknown unit 'fortnight'; " + GRAMMAR))
-# almanac_threads(n): 0 (one per core) to 64 threads; NULL sets nothing (DESIGN "Reading in parallel").
+# almanac_threads(n): 0 (one per core) to 64 threads; NULL sets nothing (ext/README.md "Reading in parallel").
 THREADS = "expected a whole number from 0 to 64"
 for value, shown, expected in (("65", "65", THREADS), ("-1", "-1", THREADS), ("1.5", "1.5", THREADS),
                                ("'four'", "'four'", "expected a number"), ("9e999", "inf", "expected a finite number"),
                                ("X'01'", "a BLOB of 1 byte", "expected a number, not a BLOB")):
     add(f"almanac_threads({value})", arg("almanac_threads", 1, "n", shown, expected))
 add("almanac_threads(NULL)", Result(None, "SQL: NULL gives NULL (and sets nothing)"))
-add("almanac_threads('2')", Result(2, "DESIGN: TEXT SQLite reads as a number is a number"))
+add("almanac_threads('2')", Result(2, "ext/README.md: TEXT SQLite reads as a number is a number"))
 add("almanac_last_read_threads() IS NULL OR almanac_last_read_threads() >= 1",
     Result(1, "README: NULL before the first read, else the threads it used"))
 # The range (bad times: TIME_SLOTS above); checked before the source is looked up.
@@ -425,7 +425,7 @@ add("valid_number(X'01')", Result(0, "valid_number never raises; a BLOB is not a
 add("valid_number(9e999)", Result(0, "ext/README.md: infinities are not numbers to add"))
 add("valid_number(NULL)", Result(None, "SQL: NULL gives NULL"))
 add("valid_number(3)", Result(1, "an INTEGER is a number"))
-# ---- seasons: any value but NULL names a season (DESIGN "Trend, season and noise, apart") ----
+# ---- seasons: any value but NULL names a season (ext/README.md "Trend, season and noise, apart") ----
 THREE_POINTS = "(SELECT {fn}(y, x, {v}) FROM (SELECT 1 AS y, 1 AS x UNION ALL SELECT 3, 2 UNION ALL SELECT 2, 3))"
 for v in ("'abc'", "''", "'1,234.50'", "X'0102'", "9e999", "-9e999", "CAST(X'310032' AS TEXT)"):
     add(THREE_POINTS.format(fn="theil_sen_slope", v=v), Result(0.5, "by hand: one season, slopes 2, 0.5, -1"))

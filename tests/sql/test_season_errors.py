@@ -137,7 +137,7 @@ def test_rows_with_a_null_season_are_skipped(db):
 
 @pytest.mark.parametrize("season", ["'winter'", "'1,5'", "X'00'", "9e999", "''"])
 def test_any_value_but_null_is_a_season(db, season):
-    # DESIGN "Trend, season and noise, apart": any non-NULL value is a season.
+    # ext/README.md "Trend, season and noise, apart": any non-NULL value is a season.
     # By hand: one season, two points, slope 2; S = 1 with Var(S) = 1, so
     # p = erfc(1/sqrt(2)) (math.erfc, from memory: 2(1 - Phi(1))).
     import math
@@ -147,7 +147,7 @@ def test_any_value_but_null_is_a_season(db, season):
     assert got[1] == pytest.approx(math.erfc(1 / math.sqrt(2)), rel=1e-15)
 
 
-# ---- period_decomposition: errors name it (DESIGN "Trend, season and noise, apart") ----
+# ---- period_decomposition: errors name it (ext/README.md "Trend, season and noise, apart") ----
 DECOMPOSITION_USAGE = "expected period_decomposition(source, spec, cycle [, zone [, options]])"
 SEASONAL = "expected an odd whole number of cycles from 7 to 1000001"
 DECOMPOSITION = [
