@@ -15,7 +15,8 @@ Where things go, and why:
   system user `almanac_pg`, created here with useradd when it does not exist
   (no home, no login shell); run as anyone else, as that user.
 - The extension is installed privately, never into the machine's PostgreSQL:
-  `cmake --install <build>` with DESTDIR puts the build's files into a staging
+  `cmake --install <build> --component postgres` with DESTDIR puts the
+  extension's files (module, control file, versioned script) into a staging
   folder exactly where they would go (the folders pg_config names), and a
   private copy of Debian's PostgreSQL 15 picks them up there. PostgreSQL finds
   its share and lib folders relative to where its executable really is, so the
@@ -95,7 +96,8 @@ class PrivateInstallation:
 
     def _install(self):
         stage = self.folder / "stage"
-        result = subprocess.run(["cmake", "--install", str(self.build)], capture_output=True, text=True,
+        result = subprocess.run(["cmake", "--install", str(self.build), "--component", "postgres"],
+                                capture_output=True, text=True,
                                 env={**os.environ, "DESTDIR": str(stage)})
         if result.returncode != 0:
             raise RuntimeError(f"cmake --install {self.build} failed:\n{result.stdout}{result.stderr}")
