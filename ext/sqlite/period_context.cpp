@@ -4,30 +4,21 @@
 #include <new>
 
 #include "core/text/error.h"
+#include "core/time/calendar_from_text.h"
 
 namespace almanac::sqlite {
 
 PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
                              const ArgumentRef* zone_arg, sqlite3_value* zone) {
     auto spec_text = read_text(spec_arg, spec);
-    PeriodSpec parsed;
+    std::optional<std::string> zone_text;
+    if (zone_arg) zone_text = read_text(*zone_arg, zone);
     try {
-        parsed = parse_period_spec(*spec_text);
-    } catch (const Error& error) {
-        raise_argument_error(spec_arg, spec, error.what());
-    }
-    ZoneClock clock = ZoneClock::utc();
-    if (zone_arg) {
-        auto zone_text = read_text(*zone_arg, zone);
-        try {
-            clock = ZoneClock::named(*zone_text);
-        } catch (const Error& error) {
+        return calendar_from_text(*spec_text, zone_text ? std::optional<std::string_view>(*zone_text)
+                                                        : std::nullopt);
+    } catch (const CalendarTextError& error) {
+        if (error.culprit() == CalendarTextError::Culprit::Zone)
             raise_argument_error(*zone_arg, zone, error.what());
-        }
-    }
-    try {
-        return PeriodCalendar(parsed, clock);
-    } catch (const Error& error) {
         raise_argument_error(spec_arg, spec, error.what());
     }
 }

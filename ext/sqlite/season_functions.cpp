@@ -38,6 +38,7 @@
 #include "core/stats/median_absolute_deviation.h"
 #include "core/stats/theil_sen.h"
 #include "core/text/error.h"
+#include "core/time/calendar_from_text.h"
 #include "core/time/period_position.h"
 #include "period_context.h"
 #include "registration.h"
@@ -52,36 +53,25 @@ constexpr ArgumentRef kPositionSpec{"period_position", 2, "spec"};
 constexpr ArgumentRef kPositionCycle{"period_position", 3, "cycle"};
 constexpr ArgumentRef kPositionZone{"period_position", 4, "zone"};
 
-PeriodSpec read_spec(const ArgumentRef& arg, sqlite3_value* value) {
-    auto text = read_text(arg, value);
-    try {
-        return parse_period_spec(*text);
-    } catch (const Error& error) {
-        raise_argument_error(arg, value, error.what());
-    }
-}
-
 PeriodPosition make_position(sqlite3_value** argv, int argc) {
-    const PeriodSpec spec = read_spec(kPositionSpec, argv[1]);
+    // Read in the order the errors are checked: spec, cycle, zone.
+    auto spec = read_text(kPositionSpec, argv[1]);
+    auto cycle = read_text(kPositionCycle, argv[2]);
+    std::optional<std::string> zone;
+    if (argc == 4) zone = read_text(kPositionZone, argv[3]);
     try {
-        check_position_spec(spec);
-    } catch (const Error& error) {
-        raise_argument_error(kPositionSpec, argv[1], error.what());
-    }
-    const PeriodSpec cycle = read_spec(kPositionCycle, argv[2]);
-    ZoneClock clock = ZoneClock::utc();
-    if (argc == 4) {
-        auto zone = read_text(kPositionZone, argv[3]);
-        try {
-            clock = ZoneClock::named(*zone);
-        } catch (const Error& error) {
-            raise_argument_error(kPositionZone, argv[3], error.what());
+        return position_from_text(
+            *spec, *cycle, zone ? std::optional<std::string_view>(*zone) : std::nullopt);
+    } catch (const CalendarTextError& error) {
+        switch (error.culprit()) {
+            case CalendarTextError::Culprit::Spec:
+                raise_argument_error(kPositionSpec, argv[1], error.what());
+            case CalendarTextError::Culprit::Cycle:
+                raise_argument_error(kPositionCycle, argv[2], error.what());
+            case CalendarTextError::Culprit::Zone:
+                raise_argument_error(kPositionZone, argv[3], error.what());
         }
-    }
-    try {
-        return PeriodPosition(spec, cycle, clock);
-    } catch (const Error& error) {
-        raise_argument_error(kPositionCycle, argv[2], error.what());
+        throw;
     }
 }
 
