@@ -1,5 +1,5 @@
 
--- Exact sums (ext/postgres/sum_functions.cpp): combined exactly, so every plan
+-- Exact sums (ext/postgres/export_functions.cpp): combined exactly, so every plan
 -- gives the same bits; a real inverse for sliding frames.
 CREATE FUNCTION almanac_exact_sum_combine(internal, internal) RETURNS internal
     AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE PARALLEL SAFE;
@@ -66,3 +66,12 @@ CREATE FUNCTION to_amount(text text) RETURNS double precision
     AS 'MODULE_PATHNAME', 'almanac_to_amount' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 CREATE FUNCTION to_amount(text text, decimal_mark text) RETURNS double precision
     AS 'MODULE_PATHNAME', 'almanac_to_amount' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
+
+CREATE FUNCTION to_time(text text, format text) RETURNS text
+    AS 'MODULE_PATHNAME', 'almanac_to_time' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
+CREATE FUNCTION to_time(text text, format text, zone zone_name) RETURNS text
+    AS 'MODULE_PATHNAME', 'almanac_to_time' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
+CREATE FUNCTION to_time(serial double precision, format text) RETURNS text
+    AS 'MODULE_PATHNAME', 'almanac_to_time_serial' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
+CREATE FUNCTION to_time(serial double precision, format text, zone zone_name) RETURNS text
+    AS 'MODULE_PATHNAME', 'almanac_to_time_serial' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;

@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: MIT
-// Exact sums, for PostgreSQL.
+// Reading shop exports, for PostgreSQL: the SQLite module's contract
+// (ext/sqlite/export_functions.cpp) over PostgreSQL's types.
 //
 //  1. exact_sum(x): x double precision gives double precision, the sum
 //     exactly rounded once (bit-identical to the SQLite module and to Python's
@@ -13,6 +14,12 @@
 //  2. to_amount(text [, decimal_mark text]) double precision: money as
 //     exports write it (core/text/amount_text.h); decimal_mark '.' (default)
 //     or ','; empty or blank text gives NULL; other text is 22P02.
+//  3. to_time(text, format text [, zone zone_name]) text: the SQLite
+//     module's to_time (core/time/time_reader.h); with the format excel the
+//     text is a serial day number written as text ('46086.6'), and the
+//     overload to_time(double precision, text [, zone_name]) takes it as a
+//     number. The format and zone are parsed once per call site. A text that
+//     does not match is 22007; a bad format or zone 22023.
 #include <optional>
 
 #include "aggregate_state.h"
@@ -21,6 +28,8 @@
 #include "core/exact/exact_total.h"
 #include "core/text/amount_text.h"
 #include "core/text/error.h"
+#include "core/text/number_text.h"
+#include "core/time/time_reader.h"
 
 namespace almanac::postgres {
 
@@ -108,6 +117,86 @@ Datum to_amount(FunctionCallInfo fcinfo) {
     PG_RETURN_FLOAT8(*amount);
 }
 
+// ---- to_time ------------------------------------------------------------------
+
+constexpr Argument kTimeText{"to_time", 1, "text"}, kTimeFormat{"to_time", 2, "format"},
+    kTimeZone{"to_time", 3, "zone"};
+
+// The call site's reader, rebuilt only when the format or zone text changes.
+struct TimeReaderCache {
+    std::string format, zone;
+    bool zoned = false;
+    std::optional<TimeReader> reader;
+
+    const TimeReader& get(std::string_view format_text, bool with_zone, std::string_view zone_text) {
+        if (reader && format == format_text && zoned == with_zone && zone == zone_text)
+            return *reader;
+        reader.reset();
+        try {
+            reader.emplace(format_text,
+                           with_zone ? std::optional<std::string_view>(zone_text) : std::nullopt);
+        } catch (const TimeReaderError& error) {
+            if (error.culprit() == TimeReaderError::Culprit::Zone)
+                raise_argument_error(kTimeZone, shown_text(zone_text), error.what(),
+                                     ERRCODE_INVALID_PARAMETER_VALUE);
+            raise_argument_error(kTimeFormat, shown_text(format_text), error.what(),
+                                 ERRCODE_INVALID_PARAMETER_VALUE);
+        }
+        format.assign(format_text);
+        zoned = with_zone;
+        zone.assign(zone_text);
+        return *reader;
+    }
+};
+
+TimeReaderCache* reader_cache(FunctionCallInfo fcinfo) {
+    if (!fcinfo->flinfo->fn_extra) {
+        fcinfo->flinfo->fn_extra = new_in_context<TimeReaderCache>(fcinfo->flinfo->fn_mcxt);
+        if (!fcinfo->flinfo->fn_extra) report_failure();
+    }
+    return static_cast<TimeReaderCache*>(fcinfo->flinfo->fn_extra);
+}
+
+// text is the text argument's bytes, or nothing when it is a number (serial).
+Datum to_time(FunctionCallInfo fcinfo, bool numeric) {
+    std::string_view text = numeric ? std::string_view() : text_argument(fcinfo, 0);
+    double serial = numeric ? PG_GETARG_FLOAT8(0) : 0.0;
+    std::string_view format = text_argument(fcinfo, 1);
+    bool zoned = PG_NARGS() > 2;
+    std::string_view zone = zoned ? text_argument(fcinfo, 2) : std::string_view();
+    TimeReaderCache* cache = reader_cache(fcinfo);
+    bool ok = guarded([&] {
+        const TimeReader& reader = cache->get(format, zoned, zone);
+        std::string shown = numeric ? shown_number(serial) : shown_text(text);
+        try {
+            if (reader.reads_serials()) {
+                if (!numeric) {
+                    auto parsed = numeric_text(text);
+                    if (!parsed)
+                        raise_argument_error(kTimeText, shown,
+                                             "expected a serial day number such as 46086.6, "
+                                             "because the format is excel",
+                                             ERRCODE_INVALID_DATETIME_FORMAT);
+                    serial = *parsed;
+                }
+                result_text() = reader.read_serial(serial);
+            } else {
+                if (numeric)
+                    raise_argument_error(kTimeText, shown,
+                                         "expected TEXT (a REAL is read only with the format "
+                                         "excel)",
+                                         ERRCODE_INVALID_DATETIME_FORMAT);
+                result_text() = reader.read_text(text);
+            }
+        } catch (const Error& error) {
+            std::string what = error.what();
+            raise_argument_error(kTimeText, shown, what, time_error_state(what));
+        }
+    });
+    if (!ok) report_failure();
+    PG_RETURN_TEXT_P(cstring_to_text_with_len(result_text().data(), int(result_text().size())));
+}
+
 }  // namespace
 }  // namespace almanac::postgres
 
@@ -142,3 +231,5 @@ ALMANAC_PG_FUNCTION(almanac_exact_sum_deserialize) {
     return pg::deserialize_state<almanac::ExactTotal>(fcinfo, pg::kSum);
 }
 ALMANAC_PG_FUNCTION(almanac_to_amount) { return pg::to_amount(fcinfo); }
+ALMANAC_PG_FUNCTION(almanac_to_time) { return pg::to_time(fcinfo, false); }
+ALMANAC_PG_FUNCTION(almanac_to_time_serial) { return pg::to_time(fcinfo, true); }
