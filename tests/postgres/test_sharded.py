@@ -122,7 +122,7 @@ def test_report_runs_on_the_shards(coordinator, report):
     for scan in scans:
         remote = scan.get("Remote SQL", "")
         missing = [w for w in wanted if w not in remote]
-        assert not missing, f"{report}: {missing} not shipped in {scan.get("Relations")}: {remote}"
+        assert not missing, f"{report}: {missing} not shipped in {scan.get('Relations')}: {remote}"
         assert "GROUP BY" in remote, remote
 
 
