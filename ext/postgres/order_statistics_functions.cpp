@@ -240,23 +240,15 @@ namespace pg = almanac::postgres;
 using pg::Direction;
 using pg::Statistic;
 
-ALMANAC_PG_FUNCTION(almanac_median_step) {
-    return pg::value_row(fcinfo, "median", Direction::Add);
-}
+ALMANAC_PG_FUNCTION(almanac_median_step) { return pg::value_row(fcinfo, "median", Direction::Add); }
 ALMANAC_PG_FUNCTION(almanac_mad_step) { return pg::value_row(fcinfo, "mad", Direction::Add); }
-ALMANAC_PG_FUNCTION(almanac_mad_inverse) {
-    return pg::value_row(fcinfo, "mad", Direction::Remove);
-}
-ALMANAC_PG_FUNCTION(almanac_median_final) {
-    return pg::statistic_final(fcinfo, Statistic::Median);
-}
+ALMANAC_PG_FUNCTION(almanac_mad_inverse) { return pg::value_row(fcinfo, "mad", Direction::Remove); }
+ALMANAC_PG_FUNCTION(almanac_median_final) { return pg::statistic_final(fcinfo, Statistic::Median); }
 ALMANAC_PG_FUNCTION(almanac_mad_final) { return pg::statistic_final(fcinfo, Statistic::Mad); }
 ALMANAC_PG_FUNCTION(almanac_values_combine) {
     return pg::combine_states<pg::ValueRows>(fcinfo, "median");
 }
-ALMANAC_PG_FUNCTION(almanac_values_serialize) {
-    return pg::serialize_state<pg::ValueRows>(fcinfo);
-}
+ALMANAC_PG_FUNCTION(almanac_values_serialize) { return pg::serialize_state<pg::ValueRows>(fcinfo); }
 ALMANAC_PG_FUNCTION(almanac_values_deserialize) {
     return pg::deserialize_state<pg::ValueRows>(fcinfo, "median");
 }
@@ -292,9 +284,7 @@ ALMANAC_PG_FUNCTION(almanac_mann_kendall_final) {
 ALMANAC_PG_FUNCTION(almanac_points_combine) {
     return pg::combine_states<pg::PointRows>(fcinfo, "theil_sen_slope");
 }
-ALMANAC_PG_FUNCTION(almanac_points_serialize) {
-    return pg::serialize_state<pg::PointRows>(fcinfo);
-}
+ALMANAC_PG_FUNCTION(almanac_points_serialize) { return pg::serialize_state<pg::PointRows>(fcinfo); }
 ALMANAC_PG_FUNCTION(almanac_points_deserialize) {
     return pg::deserialize_state<pg::PointRows>(fcinfo, "theil_sen_slope");
 }

@@ -119,7 +119,8 @@ struct ChartTraits {
     static void read(ByteReader& in, ChartState<Chart>& state) {
         std::uint8_t flags = in.u8();
         std::string text = in.text();
-        if (flags & 1) state.settings.accept(flags & 2 ? std::optional<std::string>(text) : std::nullopt);
+        if (flags & 1)
+            state.settings.accept(flags & 2 ? std::optional<std::string>(text) : std::nullopt);
         std::int64_t rows = in.count(static_cast<std::int64_t>(ChartLimits{}.max_points) + 1);
         for (std::int64_t i = 0; i < rows; ++i) state.add(read_row(in));
     }
@@ -311,16 +312,14 @@ ALMANAC_REPORT_ROWS(timestamp, TimeKind::Timestamp, false)
 ALMANAC_REPORT_ROWS(date, TimeKind::Date, false)
 ALMANAC_REPORT_ROWS(text, TimeKind::Text, false)
 
-#define ALMANAC_REPORT_STATE(name, State, function)                                      \
-    ALMANAC_PG_FUNCTION(almanac_##name##_final) { return pg::chart_final<State>(fcinfo); } \
-    ALMANAC_PG_FUNCTION(almanac_##name##_combine) {                                      \
-        return pg::combine_states<State>(fcinfo, function);                              \
-    }                                                                                    \
-    ALMANAC_PG_FUNCTION(almanac_##name##_serialize) {                                    \
-        return pg::serialize_state<State>(fcinfo);                                       \
-    }                                                                                    \
-    ALMANAC_PG_FUNCTION(almanac_##name##_deserialize) {                                  \
-        return pg::deserialize_state<State>(fcinfo, function);                           \
+#define ALMANAC_REPORT_STATE(name, State, function)                                                \
+    ALMANAC_PG_FUNCTION(almanac_##name##_final) { return pg::chart_final<State>(fcinfo); }         \
+    ALMANAC_PG_FUNCTION(almanac_##name##_combine) {                                                \
+        return pg::combine_states<State>(fcinfo, function);                                        \
+    }                                                                                              \
+    ALMANAC_PG_FUNCTION(almanac_##name##_serialize) { return pg::serialize_state<State>(fcinfo); } \
+    ALMANAC_PG_FUNCTION(almanac_##name##_deserialize) {                                            \
+        return pg::deserialize_state<State>(fcinfo, function);                                     \
     }
 ALMANAC_REPORT_STATE(sparkline, pg::SparklineState, pg::kSparkline)
 ALMANAC_REPORT_STATE(svg_line_chart, pg::LineChartState, pg::kLineChart)
