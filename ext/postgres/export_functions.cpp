@@ -46,8 +46,6 @@ namespace {
 constexpr const char* kSum = "exact_sum";
 constexpr Argument kSumX{kSum, 1, "x"};
 
-enum class Direction { Add, Remove };
-
 Datum sum_real_row(FunctionCallInfo fcinfo, Direction direction) {
     ExactTotal* total = state_for_row<ExactTotal>(fcinfo, kSum);
     if (PG_ARGISNULL(1)) PG_RETURN_POINTER(total);

@@ -97,8 +97,6 @@ struct SlidingMedian {
 
 namespace {
 
-enum class Direction { Add, Remove };
-
 // Rows leave a frame in the order they entered.
 template <typename Row, typename Same>
 void remove_row(std::deque<Row>& rows, Same same) {
@@ -198,14 +196,11 @@ std::optional<double> compute(Statistic statistic, const ValueRows* values,
 }
 
 Datum statistic_final(FunctionCallInfo fcinfo, Statistic statistic) {
-    bool on_values = statistic == Statistic::Median || statistic == Statistic::Mad;
-    const ValueRows* values = on_values ? state_argument<ValueRows>(fcinfo) : nullptr;
-    const PointRows* points = on_values ? nullptr : state_argument<PointRows>(fcinfo);
-    if (!values && !points) PG_RETURN_NULL();
-    std::optional<double> value;
-    if (!guarded([&] { value = compute(statistic, values, points); })) report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    if (statistic == Statistic::Median || statistic == Statistic::Mad)
+        return optional_double_final<ValueRows>(
+            fcinfo, [&](const ValueRows& values) { return compute(statistic, &values, nullptr); });
+    return optional_double_final<PointRows>(
+        fcinfo, [&](const PointRows& points) { return compute(statistic, nullptr, &points); });
 }
 
 Datum sliding_median_row(FunctionCallInfo fcinfo, Direction direction) {
@@ -226,11 +221,8 @@ Datum sliding_median_row(FunctionCallInfo fcinfo, Direction direction) {
 }
 
 Datum sliding_median_final(FunctionCallInfo fcinfo) {
-    SlidingMedian* state = state_argument<SlidingMedian>(fcinfo);
-    std::optional<double> value;
-    if (state && !guarded([&] { value = state->values.value(); })) report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    return optional_double_final<SlidingMedian>(
+        fcinfo, [](const SlidingMedian& median) { return median.values.value(); });
 }
 
 }  // namespace

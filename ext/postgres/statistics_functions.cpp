@@ -147,8 +147,6 @@ struct StateTraits<EwmaState> {
 
 namespace {
 
-enum class Direction { Add, Remove };
-
 // ---- moving_mean rows -----------------------------------------------------------
 
 Datum mean_row(FunctionCallInfo fcinfo, Direction direction) {
@@ -202,13 +200,9 @@ Datum moments_row(FunctionCallInfo fcinfo, const char* name, Direction direction
 }
 
 Datum moments_final(FunctionCallInfo fcinfo, bool slope) {
-    BivariateMoments* moments = state_argument<BivariateMoments>(fcinfo);
-    std::optional<double> value;
-    if (moments &&
-        !guarded([&] { value = slope ? moments->slope_stderr() : moments->residual_sd(); }))
-        report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    return optional_double_final<BivariateMoments>(fcinfo, [slope](const BivariateMoments& m) {
+        return slope ? m.slope_stderr() : m.residual_sd();
+    });
 }
 
 // ---- ewma rows ------------------------------------------------------------------------
@@ -288,11 +282,8 @@ Datum ewma_number_row(FunctionCallInfo fcinfo, Direction direction) {
 }
 
 Datum ewma_final(FunctionCallInfo fcinfo) {
-    EwmaState* ewma = state_argument<EwmaState>(fcinfo);
-    std::optional<double> value;
-    if (ewma && !guarded([&] { value = ewma->weights.mean(); })) report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    return optional_double_final<EwmaState>(
+        fcinfo, [](const EwmaState& ewma) { return ewma.weights.mean(); });
 }
 
 }  // namespace
