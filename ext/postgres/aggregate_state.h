@@ -15,6 +15,7 @@
 
 #include <cstdint>
 #include <cstring>
+#include <optional>
 #include <string_view>
 
 #include "arguments.h"
@@ -29,6 +30,9 @@ constexpr std::uint8_t kStateFormatVersion = 1;
 
 template <typename State>
 struct StateTraits;
+
+// Whether a row enters the state (SFUNC, MSFUNC) or leaves it (MINVFUNC).
+enum class Direction { Add, Remove };
 
 // C part: the aggregate's memory context; raises if called outside an aggregate.
 MemoryContext aggregate_context(FunctionCallInfo fcinfo, const char* function);
@@ -46,6 +50,17 @@ State* state_for_row(FunctionCallInfo fcinfo, const char* function) {
     State* state = new_in_context<State>(aggregate_context(fcinfo, function));
     if (!state) report_failure();
     return state;
+}
+
+// FINALFUNC of a double precision result: compute(const State&) gives an
+// optional double; NULL for a group without a state or without a value.
+template <typename State, typename Compute>
+Datum optional_double_final(FunctionCallInfo fcinfo, Compute&& compute) {
+    const State* state = state_argument<State>(fcinfo);
+    std::optional<double> value;
+    if (state && !guarded([&] { value = compute(*state); })) report_failure();
+    if (!value) PG_RETURN_NULL();
+    PG_RETURN_FLOAT8(*value);
 }
 
 // COMBINEFUNC(internal, internal): the first state with the second merged in

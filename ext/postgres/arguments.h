@@ -72,9 +72,9 @@ bool is_valid_time(const TimeArgument& value);
 std::int64_t sub_millisecond(const TimeArgument& value);
 
 // Instants and days as PostgreSQL keeps them.
-Instant instant_of_timestamp(Timestamp t);    // t finite
-Timestamp timestamp_of_instant(Instant t);    // plus extra microseconds, if any
-date::local_days day_of_date(DateADT d);      // d finite
+Instant instant_of_timestamp(Timestamp t);  // t finite
+Timestamp timestamp_of_instant(Instant t);  // plus extra microseconds, if any
+date::local_days day_of_date(DateADT d);    // d finite
 DateADT date_of_day(date::local_days day);
 
 // SQLSTATE of a time value's error message from the core.

@@ -103,8 +103,8 @@ T* new_in_context(MemoryContext context) {
 }  // namespace almanac::postgres
 
 // Declares a SQL-callable C function: exported, C linkage, version-1 calling convention.
-#define ALMANAC_PG_FUNCTION(name)  \
-    extern "C" {                   \
-    PG_FUNCTION_INFO_V1(name);     \
-    }                              \
+#define ALMANAC_PG_FUNCTION(name) \
+    extern "C" {                  \
+    PG_FUNCTION_INFO_V1(name);    \
+    }                             \
     extern "C" PGDLLEXPORT Datum name(PG_FUNCTION_ARGS)

@@ -46,8 +46,6 @@ namespace {
 constexpr const char* kSum = "exact_sum";
 constexpr Argument kSumX{kSum, 1, "x"};
 
-enum class Direction { Add, Remove };
-
 Datum sum_real_row(FunctionCallInfo fcinfo, Direction direction) {
     ExactTotal* total = state_for_row<ExactTotal>(fcinfo, kSum);
     if (PG_ARGISNULL(1)) PG_RETURN_POINTER(total);
@@ -128,7 +126,8 @@ struct TimeReaderCache {
     bool zoned = false;
     std::optional<TimeReader> reader;
 
-    const TimeReader& get(std::string_view format_text, bool with_zone, std::string_view zone_text) {
+    const TimeReader& get(std::string_view format_text, bool with_zone,
+                          std::string_view zone_text) {
         if (reader && format == format_text && zoned == with_zone && zone == zone_text)
             return *reader;
         reader.reset();
@@ -209,12 +208,12 @@ ALMANAC_PG_FUNCTION(almanac_exact_sum_real_step) {
 ALMANAC_PG_FUNCTION(almanac_exact_sum_real_inverse) {
     return pg::sum_real_row(fcinfo, Direction::Remove);
 }
-#define ALMANAC_EXACT_SUM_INTEGER(type)                                 \
-    ALMANAC_PG_FUNCTION(almanac_exact_sum_##type##_step) {              \
-        return pg::sum_integer_row<type>(fcinfo, Direction::Add);       \
-    }                                                                   \
-    ALMANAC_PG_FUNCTION(almanac_exact_sum_##type##_inverse) {           \
-        return pg::sum_integer_row<type>(fcinfo, Direction::Remove);    \
+#define ALMANAC_EXACT_SUM_INTEGER(type)                              \
+    ALMANAC_PG_FUNCTION(almanac_exact_sum_##type##_step) {           \
+        return pg::sum_integer_row<type>(fcinfo, Direction::Add);    \
+    }                                                                \
+    ALMANAC_PG_FUNCTION(almanac_exact_sum_##type##_inverse) {        \
+        return pg::sum_integer_row<type>(fcinfo, Direction::Remove); \
     }
 ALMANAC_EXACT_SUM_INTEGER(int16)
 ALMANAC_EXACT_SUM_INTEGER(int32)

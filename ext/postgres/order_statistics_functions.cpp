@@ -97,8 +97,6 @@ struct SlidingMedian {
 
 namespace {
 
-enum class Direction { Add, Remove };
-
 // Rows leave a frame in the order they entered.
 template <typename Row, typename Same>
 void remove_row(std::deque<Row>& rows, Same same) {
@@ -198,14 +196,11 @@ std::optional<double> compute(Statistic statistic, const ValueRows* values,
 }
 
 Datum statistic_final(FunctionCallInfo fcinfo, Statistic statistic) {
-    bool on_values = statistic == Statistic::Median || statistic == Statistic::Mad;
-    const ValueRows* values = on_values ? state_argument<ValueRows>(fcinfo) : nullptr;
-    const PointRows* points = on_values ? nullptr : state_argument<PointRows>(fcinfo);
-    if (!values && !points) PG_RETURN_NULL();
-    std::optional<double> value;
-    if (!guarded([&] { value = compute(statistic, values, points); })) report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    if (statistic == Statistic::Median || statistic == Statistic::Mad)
+        return optional_double_final<ValueRows>(
+            fcinfo, [&](const ValueRows& values) { return compute(statistic, &values, nullptr); });
+    return optional_double_final<PointRows>(
+        fcinfo, [&](const PointRows& points) { return compute(statistic, nullptr, &points); });
 }
 
 Datum sliding_median_row(FunctionCallInfo fcinfo, Direction direction) {
@@ -226,11 +221,8 @@ Datum sliding_median_row(FunctionCallInfo fcinfo, Direction direction) {
 }
 
 Datum sliding_median_final(FunctionCallInfo fcinfo) {
-    SlidingMedian* state = state_argument<SlidingMedian>(fcinfo);
-    std::optional<double> value;
-    if (state && !guarded([&] { value = state->values.value(); })) report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    return optional_double_final<SlidingMedian>(
+        fcinfo, [](const SlidingMedian& median) { return median.values.value(); });
 }
 
 }  // namespace
@@ -240,23 +232,15 @@ namespace pg = almanac::postgres;
 using pg::Direction;
 using pg::Statistic;
 
-ALMANAC_PG_FUNCTION(almanac_median_step) {
-    return pg::value_row(fcinfo, "median", Direction::Add);
-}
+ALMANAC_PG_FUNCTION(almanac_median_step) { return pg::value_row(fcinfo, "median", Direction::Add); }
 ALMANAC_PG_FUNCTION(almanac_mad_step) { return pg::value_row(fcinfo, "mad", Direction::Add); }
-ALMANAC_PG_FUNCTION(almanac_mad_inverse) {
-    return pg::value_row(fcinfo, "mad", Direction::Remove);
-}
-ALMANAC_PG_FUNCTION(almanac_median_final) {
-    return pg::statistic_final(fcinfo, Statistic::Median);
-}
+ALMANAC_PG_FUNCTION(almanac_mad_inverse) { return pg::value_row(fcinfo, "mad", Direction::Remove); }
+ALMANAC_PG_FUNCTION(almanac_median_final) { return pg::statistic_final(fcinfo, Statistic::Median); }
 ALMANAC_PG_FUNCTION(almanac_mad_final) { return pg::statistic_final(fcinfo, Statistic::Mad); }
 ALMANAC_PG_FUNCTION(almanac_values_combine) {
     return pg::combine_states<pg::ValueRows>(fcinfo, "median");
 }
-ALMANAC_PG_FUNCTION(almanac_values_serialize) {
-    return pg::serialize_state<pg::ValueRows>(fcinfo);
-}
+ALMANAC_PG_FUNCTION(almanac_values_serialize) { return pg::serialize_state<pg::ValueRows>(fcinfo); }
 ALMANAC_PG_FUNCTION(almanac_values_deserialize) {
     return pg::deserialize_state<pg::ValueRows>(fcinfo, "median");
 }
@@ -292,9 +276,7 @@ ALMANAC_PG_FUNCTION(almanac_mann_kendall_final) {
 ALMANAC_PG_FUNCTION(almanac_points_combine) {
     return pg::combine_states<pg::PointRows>(fcinfo, "theil_sen_slope");
 }
-ALMANAC_PG_FUNCTION(almanac_points_serialize) {
-    return pg::serialize_state<pg::PointRows>(fcinfo);
-}
+ALMANAC_PG_FUNCTION(almanac_points_serialize) { return pg::serialize_state<pg::PointRows>(fcinfo); }
 ALMANAC_PG_FUNCTION(almanac_points_deserialize) {
     return pg::deserialize_state<pg::PointRows>(fcinfo, "theil_sen_slope");
 }

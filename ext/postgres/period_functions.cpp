@@ -54,10 +54,10 @@ void with_function_name(const char* function, Body&& body) {
         body();
     } catch (const Error& error) {
         std::string what = error.what();
-        raise_function_error(function, what, time_error_state(what) ==
-                                                     ERRCODE_DATETIME_VALUE_OUT_OF_RANGE
-                                                 ? ERRCODE_DATETIME_VALUE_OUT_OF_RANGE
-                                                 : ERRCODE_INVALID_PARAMETER_VALUE);
+        raise_function_error(function, what,
+                             time_error_state(what) == ERRCODE_DATETIME_VALUE_OUT_OF_RANGE
+                                 ? ERRCODE_DATETIME_VALUE_OUT_OF_RANGE
+                                 : ERRCODE_INVALID_PARAMETER_VALUE);
     }
 }
 
@@ -90,8 +90,8 @@ Datum period_question(FunctionCallInfo fcinfo, Question question) {
                     result = boundary_result(t_arg, t, time, calendar.floor(instant), calendar);
                     return;
                 case Question::End:
-                    result = boundary_result(t_arg, t, time, calendar.period_of(instant).end,
-                                             calendar);
+                    result =
+                        boundary_result(t_arg, t, time, calendar.period_of(instant).end, calendar);
                     return;
                 case Question::Label:
                     result_text() = calendar.label(calendar.period_of(instant));
@@ -208,23 +208,23 @@ using almanac::postgres::TimeKind;
 namespace pg = almanac::postgres;
 
 // One C symbol per SQL signature: the argument's type picks the template.
-#define ALMANAC_PERIOD_FUNCTIONS(suffix, kind)                                         \
-    ALMANAC_PG_FUNCTION(almanac_period_floor_##suffix) {                               \
-        return pg::period_question<kind>(fcinfo, pg::Question::Floor);                 \
-    }                                                                                  \
-    ALMANAC_PG_FUNCTION(almanac_period_end_##suffix) {                                 \
-        return pg::period_question<kind>(fcinfo, pg::Question::End);                   \
-    }                                                                                  \
-    ALMANAC_PG_FUNCTION(almanac_period_label_##suffix) {                               \
-        return pg::period_question<kind>(fcinfo, pg::Question::Label);                 \
-    }                                                                                  \
-    ALMANAC_PG_FUNCTION(almanac_period_serial_##suffix) {                              \
-        return pg::period_question<kind>(fcinfo, pg::Question::Serial);                \
-    }                                                                                  \
+#define ALMANAC_PERIOD_FUNCTIONS(suffix, kind)                                                    \
+    ALMANAC_PG_FUNCTION(almanac_period_floor_##suffix) {                                          \
+        return pg::period_question<kind>(fcinfo, pg::Question::Floor);                            \
+    }                                                                                             \
+    ALMANAC_PG_FUNCTION(almanac_period_end_##suffix) {                                            \
+        return pg::period_question<kind>(fcinfo, pg::Question::End);                              \
+    }                                                                                             \
+    ALMANAC_PG_FUNCTION(almanac_period_label_##suffix) {                                          \
+        return pg::period_question<kind>(fcinfo, pg::Question::Label);                            \
+    }                                                                                             \
+    ALMANAC_PG_FUNCTION(almanac_period_serial_##suffix) {                                         \
+        return pg::period_question<kind>(fcinfo, pg::Question::Serial);                           \
+    }                                                                                             \
     ALMANAC_PG_FUNCTION(almanac_period_shift_##suffix) { return pg::period_shift<kind>(fcinfo); } \
-    ALMANAC_PG_FUNCTION(almanac_period_position_##suffix) {                            \
-        return pg::period_position<kind>(fcinfo);                                      \
-    }                                                                                  \
+    ALMANAC_PG_FUNCTION(almanac_period_position_##suffix) {                                       \
+        return pg::period_position<kind>(fcinfo);                                                 \
+    }                                                                                             \
     ALMANAC_PG_FUNCTION(almanac_valid_time_##suffix) { return pg::valid_time<kind>(fcinfo); }
 
 ALMANAC_PERIOD_FUNCTIONS(timestamptz, TimeKind::Timestamptz)

@@ -80,8 +80,8 @@ PeriodResult shifted_result(const Argument& t_arg, const TimeArgument& t, const 
                 write_number(time, moved);
             return text_result();
         default:
-            return PeriodResult{
-                TimestampGetDatum(timestamp_of_instant(moved) + sub_millisecond(t)), false};
+            return PeriodResult{TimestampGetDatum(timestamp_of_instant(moved) + sub_millisecond(t)),
+                                false};
     }
 }
 

@@ -34,6 +34,8 @@
 
 #define PGDLLEXPORT __attribute__((visibility("default")))
 
+// postgres.h comes first, as the server's headers require.
+// clang-format off
 extern "C" {
 #include "postgres.h"
 
@@ -47,3 +49,4 @@ extern "C" {
 #include "utils/memutils.h"
 #include "utils/timestamp.h"
 }
+// clang-format on

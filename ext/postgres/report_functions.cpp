@@ -11,8 +11,12 @@
 // Plain aggregates, parallel safe: a state keeps its rows beside the core's
 // chart, fed row by row (so every limit and error meets the same row as in
 // SQLite); combining feeds the other state's rows in after its own, and the
-// byte form is the rows. Rows whose x ties keep the order they arrived in,
-// which in a parallel plan is the order the workers' states are combined.
+// byte form is the rows. Rows reach an aggregate in no fixed order (a
+// parallel plan gives each worker a share), so the picture is drawn from the
+// rows in one canonical order, by series, then x (categories by their text),
+// then y: every plan draws the same SVG, and it is the SQLite module's for
+// rows fed in that order.
+#include <algorithm>
 #include <optional>
 #include <string>
 #include <type_traits>
@@ -119,7 +123,8 @@ struct ChartTraits {
     static void read(ByteReader& in, ChartState<Chart>& state) {
         std::uint8_t flags = in.u8();
         std::string text = in.text();
-        if (flags & 1) state.settings.accept(flags & 2 ? std::optional<std::string>(text) : std::nullopt);
+        if (flags & 1)
+            state.settings.accept(flags & 2 ? std::optional<std::string>(text) : std::nullopt);
         std::int64_t rows = in.count(static_cast<std::int64_t>(ChartLimits{}.max_points) + 1);
         for (std::int64_t i = 0; i < rows; ++i) state.add(read_row(in));
     }
@@ -274,16 +279,32 @@ Datum chart_row(FunctionCallInfo fcinfo, const char* name, int layer_index, int 
     PG_RETURN_POINTER(state);
 }
 
+// The canonical order of a chart's rows (see the contract above).
+bool drawn_before(const ChartRow& a, const ChartRow& b) {
+    if (a.series != b.series) return a.series < b.series;
+    if (a.kind != b.kind) return a.kind < b.kind;
+    if (a.kind == AxisKind::Category ? a.category != b.category : a.x != b.x)
+        return a.kind == AxisKind::Category ? a.category < b.category : a.x < b.x;
+    if (a.layer != b.layer) return a.layer < b.layer;
+    if (a.y.has_value() != b.y.has_value()) return !a.y.has_value();
+    return a.y && *a.y < *b.y;
+}
+
 // Both charts and the sparkline end alike: their text, or NULL when no row had a place.
 template <typename State>
 Datum chart_final(FunctionCallInfo fcinfo) {
     State* state = state_argument<State>(fcinfo);
     if (!state || state->chart.empty()) PG_RETURN_NULL();
     bool ok = guarded([&] {
+        State drawn;
+        std::vector<ChartRow> rows = state->rows;
+        std::stable_sort(rows.begin(), rows.end(), drawn_before);
+        drawn.settings = state->settings;
+        for (const ChartRow& row : rows) drawn.add(row);
         if constexpr (std::is_same_v<State, SparklineState>)
-            result_text() = state->chart.render();
+            result_text() = drawn.chart.render();
         else
-            result_text() = state->chart.render_svg(state->settings.options());
+            result_text() = drawn.chart.render_svg(drawn.settings.options());
     });
     if (!ok) report_failure();
     PG_RETURN_TEXT_P(cstring_to_text_with_len(result_text().data(), int(result_text().size())));
@@ -311,16 +332,14 @@ ALMANAC_REPORT_ROWS(timestamp, TimeKind::Timestamp, false)
 ALMANAC_REPORT_ROWS(date, TimeKind::Date, false)
 ALMANAC_REPORT_ROWS(text, TimeKind::Text, false)
 
-#define ALMANAC_REPORT_STATE(name, State, function)                                      \
-    ALMANAC_PG_FUNCTION(almanac_##name##_final) { return pg::chart_final<State>(fcinfo); } \
-    ALMANAC_PG_FUNCTION(almanac_##name##_combine) {                                      \
-        return pg::combine_states<State>(fcinfo, function);                              \
-    }                                                                                    \
-    ALMANAC_PG_FUNCTION(almanac_##name##_serialize) {                                    \
-        return pg::serialize_state<State>(fcinfo);                                       \
-    }                                                                                    \
-    ALMANAC_PG_FUNCTION(almanac_##name##_deserialize) {                                  \
-        return pg::deserialize_state<State>(fcinfo, function);                           \
+#define ALMANAC_REPORT_STATE(name, State, function)                                                \
+    ALMANAC_PG_FUNCTION(almanac_##name##_final) { return pg::chart_final<State>(fcinfo); }         \
+    ALMANAC_PG_FUNCTION(almanac_##name##_combine) {                                                \
+        return pg::combine_states<State>(fcinfo, function);                                        \
+    }                                                                                              \
+    ALMANAC_PG_FUNCTION(almanac_##name##_serialize) { return pg::serialize_state<State>(fcinfo); } \
+    ALMANAC_PG_FUNCTION(almanac_##name##_deserialize) {                                            \
+        return pg::deserialize_state<State>(fcinfo, function);                                     \
     }
 ALMANAC_REPORT_STATE(sparkline, pg::SparklineState, pg::kSparkline)
 ALMANAC_REPORT_STATE(svg_line_chart, pg::LineChartState, pg::kLineChart)

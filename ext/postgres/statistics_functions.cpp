@@ -94,7 +94,8 @@ struct EwmaState {
 };
 
 constexpr const char* kEwma = "ewma";
-constexpr Argument kEwmaX{kEwma, 1, "x"}, kEwmaT{kEwma, 2, "t"}, kEwmaHalfLife{kEwma, 3, "half_life"};
+constexpr Argument kEwmaX{kEwma, 1, "x"}, kEwmaT{kEwma, 2, "t"},
+    kEwmaHalfLife{kEwma, 3, "half_life"};
 
 void same_half_life(EwmaState& into, const EwmaState& from) {
     if (!from.configured) return;
@@ -111,10 +112,10 @@ void same_half_life(EwmaState& into, const EwmaState& from) {
                 (into.time_based ? into.half_life_ms == from.half_life_ms
                                  : into.half_life == from.half_life);
     if (!same)
-        raise_argument_error(kEwmaHalfLife, from.first_half_life,
-                             "expected the same half_life in every row (the first was " +
-                                 into.first_half_life + ")",
-                             ERRCODE_INVALID_PARAMETER_VALUE);
+        raise_argument_error(
+            kEwmaHalfLife, from.first_half_life,
+            "expected the same half_life in every row (the first was " + into.first_half_life + ")",
+            ERRCODE_INVALID_PARAMETER_VALUE);
 }
 
 template <>
@@ -145,8 +146,6 @@ struct StateTraits<EwmaState> {
 };
 
 namespace {
-
-enum class Direction { Add, Remove };
 
 // ---- moving_mean rows -----------------------------------------------------------
 
@@ -201,13 +200,9 @@ Datum moments_row(FunctionCallInfo fcinfo, const char* name, Direction direction
 }
 
 Datum moments_final(FunctionCallInfo fcinfo, bool slope) {
-    BivariateMoments* moments = state_argument<BivariateMoments>(fcinfo);
-    std::optional<double> value;
-    if (moments &&
-        !guarded([&] { value = slope ? moments->slope_stderr() : moments->residual_sd(); }))
-        report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    return optional_double_final<BivariateMoments>(fcinfo, [slope](const BivariateMoments& m) {
+        return slope ? m.slope_stderr() : m.residual_sd();
+    });
 }
 
 // ---- ewma rows ------------------------------------------------------------------------
@@ -287,11 +282,8 @@ Datum ewma_number_row(FunctionCallInfo fcinfo, Direction direction) {
 }
 
 Datum ewma_final(FunctionCallInfo fcinfo) {
-    EwmaState* ewma = state_argument<EwmaState>(fcinfo);
-    std::optional<double> value;
-    if (ewma && !guarded([&] { value = ewma->weights.mean(); })) report_failure();
-    if (!value) PG_RETURN_NULL();
-    PG_RETURN_FLOAT8(*value);
+    return optional_double_final<EwmaState>(
+        fcinfo, [](const EwmaState& ewma) { return ewma.weights.mean(); });
 }
 
 }  // namespace
@@ -302,9 +294,7 @@ using pg::Direction;
 using pg::TimeKind;
 
 ALMANAC_PG_FUNCTION(almanac_moving_mean_step) { return pg::mean_row(fcinfo, Direction::Add); }
-ALMANAC_PG_FUNCTION(almanac_moving_mean_inverse) {
-    return pg::mean_row(fcinfo, Direction::Remove);
-}
+ALMANAC_PG_FUNCTION(almanac_moving_mean_inverse) { return pg::mean_row(fcinfo, Direction::Remove); }
 ALMANAC_PG_FUNCTION(almanac_moving_mean_final) { return pg::mean_final(fcinfo); }
 ALMANAC_PG_FUNCTION(almanac_moving_mean_combine) {
     return pg::combine_states<pg::MeanState>(fcinfo, pg::kMean);
@@ -340,12 +330,12 @@ ALMANAC_PG_FUNCTION(almanac_moments_deserialize) {
     return pg::deserialize_state<almanac::BivariateMoments>(fcinfo, "resid_sd");
 }
 
-#define ALMANAC_EWMA_TIME(suffix, kind)                                     \
-    ALMANAC_PG_FUNCTION(almanac_ewma_##suffix##_step) {                     \
-        return pg::ewma_time_row<kind>(fcinfo, Direction::Add);             \
-    }                                                                       \
-    ALMANAC_PG_FUNCTION(almanac_ewma_##suffix##_inverse) {                  \
-        return pg::ewma_time_row<kind>(fcinfo, Direction::Remove);          \
+#define ALMANAC_EWMA_TIME(suffix, kind)                            \
+    ALMANAC_PG_FUNCTION(almanac_ewma_##suffix##_step) {            \
+        return pg::ewma_time_row<kind>(fcinfo, Direction::Add);    \
+    }                                                              \
+    ALMANAC_PG_FUNCTION(almanac_ewma_##suffix##_inverse) {         \
+        return pg::ewma_time_row<kind>(fcinfo, Direction::Remove); \
     }
 ALMANAC_EWMA_TIME(timestamptz, TimeKind::Timestamptz)
 ALMANAC_EWMA_TIME(timestamp, TimeKind::Timestamp)

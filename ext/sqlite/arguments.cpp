@@ -5,8 +5,8 @@
 
 #include "core/text/character_position.h"
 #include "core/text/error.h"
-#include "core/text/number_text.h"
 #include "core/text/error_message.h"
+#include "core/text/number_text.h"
 
 namespace almanac::sqlite {
 

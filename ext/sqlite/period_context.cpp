@@ -14,8 +14,8 @@ PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
     std::optional<std::string> zone_text;
     if (zone_arg) zone_text = read_text(*zone_arg, zone);
     try {
-        return calendar_from_text(*spec_text, zone_text ? std::optional<std::string_view>(*zone_text)
-                                                        : std::nullopt);
+        return calendar_from_text(
+            *spec_text, zone_text ? std::optional<std::string_view>(*zone_text) : std::nullopt);
     } catch (const CalendarTextError& error) {
         if (error.culprit() == CalendarTextError::Culprit::Zone)
             raise_argument_error(*zone_arg, zone, error.what());

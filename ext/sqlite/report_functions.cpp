@@ -53,13 +53,12 @@ namespace almanac::sqlite {
 
 namespace {
 
-
 // A number (including numeric TEXT, as SQLite reads it) or a time value.
 // With a zone, time values are placed on its wall clock (see time_axis_value).
 // With categories, TEXT that is neither a number nor a time value is a
 // category (the caller reads its text).
 std::optional<AxisValue> read_x(const ArgumentRef& arg, sqlite3_value* value,
-                               const ZoneClock* zone = nullptr, bool categories = false) {
+                                const ZoneClock* zone = nullptr, bool categories = false) {
     switch (sqlite3_value_type(value)) {
         case SQLITE_NULL:
             return std::nullopt;

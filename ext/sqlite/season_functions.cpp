@@ -60,8 +60,8 @@ PeriodPosition make_position(sqlite3_value** argv, int argc) {
     std::optional<std::string> zone;
     if (argc == 4) zone = read_text(kPositionZone, argv[3]);
     try {
-        return position_from_text(
-            *spec, *cycle, zone ? std::optional<std::string_view>(*zone) : std::nullopt);
+        return position_from_text(*spec, *cycle,
+                                  zone ? std::optional<std::string_view>(*zone) : std::nullopt);
     } catch (const CalendarTextError& error) {
         switch (error.culprit()) {
             case CalendarTextError::Culprit::Spec:

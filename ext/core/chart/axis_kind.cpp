@@ -28,7 +28,8 @@ AxisValue axis_value_of_text(std::string_view text, const ZoneClock* zone, bool 
     }
     try {
         TimeValue time = parse_time_text(text);
-        return AxisValue{AxisKind::Time, zone ? time_axis_value(time, *zone) : time_axis_value(time)};
+        return AxisValue{AxisKind::Time,
+                         zone ? time_axis_value(time, *zone) : time_axis_value(time)};
     } catch (const Error& error) {
         if (categories && !looks_like_a_date(text)) return AxisValue{AxisKind::Category, 0};
         // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.

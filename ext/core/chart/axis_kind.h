@@ -41,7 +41,8 @@ struct AxisValue {
     AxisKind kind;
     double value;  // 0 for a category (the caller keeps its text)
 };
-AxisValue axis_value_of_text(std::string_view text, const ZoneClock* zone, bool categories);  // "a number", "a time value", "a category"
+AxisValue axis_value_of_text(std::string_view text, const ZoneClock* zone,
+                             bool categories);  // "a number", "a time value", "a category"
 
 // Remembers the kind of the first x value and refuses the other kind later:
 // a chart cannot put numbers and dates on one axis.

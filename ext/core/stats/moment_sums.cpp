@@ -60,14 +60,15 @@ void BivariateMoments::merge(const BivariateMoments& other) {
 
 void BivariateMoments::write(ByteWriter& out) const {
     out.i64(n_);
-    for (const ExactSum* sum : {&sum_x_, &sum_y_, &sum_xx_, &sum_xy_, &sum_yy_}) out.exact_sum(*sum);
+    for (const ExactSum* sum : {&sum_x_, &sum_y_, &sum_xx_, &sum_xy_, &sum_yy_})
+        out.exact_sum(*sum);
 }
 
 BivariateMoments BivariateMoments::read(ByteReader& in) {
     BivariateMoments moments;
     moments.n_ = in.count(INT64_MAX);
-    for (ExactSum* sum : {&moments.sum_x_, &moments.sum_y_, &moments.sum_xx_, &moments.sum_xy_,
-                          &moments.sum_yy_})
+    for (ExactSum* sum :
+         {&moments.sum_x_, &moments.sum_y_, &moments.sum_xx_, &moments.sum_xy_, &moments.sum_yy_})
         in.add_exact_sum(*sum);
     return moments;
 }

@@ -28,8 +28,7 @@ void PeriodRange::advance() {
     }
     if (++row_ < kMostPeriods) return;
     throw Error("the range holds " + std::to_string(periods_in_range_) + " periods; at most " +
-                std::to_string(kMostPeriods) +
-                " per call: narrow the range or use a longer spec");
+                std::to_string(kMostPeriods) + " per call: narrow the range or use a longer spec");
 }
 
 }  // namespace almanac

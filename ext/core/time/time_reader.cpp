@@ -37,8 +37,9 @@ std::string TimeReader::read_serial(double serial) const {
 std::string TimeReader::result(const TimeReading& reading, bool with_time_of_day) const {
     LocalTime t = reading.local;
     if (reading.has_offset || zone_) {
-        Instant instant = reading.has_offset ? Instant{reading.local.time_since_epoch()} - reading.offset
-                                             : instant_of_local_reading(*zone_, reading.local);
+        Instant instant = reading.has_offset
+                              ? Instant{reading.local.time_since_epoch()} - reading.offset
+                              : instant_of_local_reading(*zone_, reading.local);
         t = LocalTime{instant.time_since_epoch()};
         with_time_of_day = true;
     }
