@@ -14,8 +14,9 @@
 // byte form is the rows. Rows reach an aggregate in no fixed order (a
 // parallel plan gives each worker a share), so the picture is drawn from the
 // rows in one canonical order, by series, then x (categories by their text),
-// then y: every plan draws the same SVG, and it is the SQLite module's for
-// rows fed in that order.
+// then layer, rows that tie keeping the order they came in (as in SQLite):
+// every plan draws the same SVG unless rows tie on all three, and it is the
+// SQLite module's for rows fed in that order.
 #include <algorithm>
 #include <optional>
 #include <string>
@@ -285,9 +286,7 @@ bool drawn_before(const ChartRow& a, const ChartRow& b) {
     if (a.kind != b.kind) return a.kind < b.kind;
     if (a.kind == AxisKind::Category ? a.category != b.category : a.x != b.x)
         return a.kind == AxisKind::Category ? a.category < b.category : a.x < b.x;
-    if (a.layer != b.layer) return a.layer < b.layer;
-    if (a.y.has_value() != b.y.has_value()) return !a.y.has_value();
-    return a.y && *a.y < *b.y;
+    return a.layer < b.layer;
 }
 
 // Both charts and the sparkline end alike: their text, or NULL when no row had a place.
