@@ -40,13 +40,18 @@ struct PeriodWalk {
     std::int64_t serial = 0;
 };
 
+// Core errors that name no argument: a time past year 9999 (22008), or the
+// limit of periods per call (54000).
 template <typename Body>
 void with_name(Body&& body) {
     try {
         body();
     } catch (const Error& error) {
         std::string what = error.what();
-        raise_function_error(kName, what, time_error_state(what));
+        raise_function_error(kName, what,
+                             time_error_state(what) == ERRCODE_DATETIME_VALUE_OUT_OF_RANGE
+                                 ? ERRCODE_DATETIME_VALUE_OUT_OF_RANGE
+                                 : ERRCODE_PROGRAM_LIMIT_EXCEEDED);
     }
 }
 
