@@ -57,7 +57,7 @@ fi
 local_view=()
 if [ -n "$local_time" ]; then
   quote_sql() { printf "'%s'" "${1//\'/\'\'}"; }
-  columns=$(sqlite3 -batch -init /dev/null "$db" \
+  columns=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "$db" \
     "SELECT group_concat('\"' || replace(name, '\"', '\"\"') || '\"', ', ') FROM pragma_table_xinfo('sales') WHERE name <> 'ts'")
   local_view=(-cmd "CREATE TEMP VIEW sales AS SELECT to_time(ts, $(quote_sql "$local_format"), $(quote_sql "$zone")) AS ts${columns:+, $columns} FROM main.sales;")
 fi
@@ -100,7 +100,8 @@ summary_table() {
     printf 'CREATE TEMP TABLE compared(segment, item, period, days_in_period, days_covered, complete, span,'
     printf ' trading_days, amount, per_trading_day, against, base_period, base_span, base_trading_days,'
     printf ' base_amount, base_per_trading_day, change_pct, change_per_day_pct);\n'
-    report sql/compare.sql insert unit "$unit" by_segment "$by_segment"
+    # The report's last line says which range it used; the summary states it apart.
+    report sql/compare.sql insert unit "$unit" by_segment "$by_segment" | grep -v "^INSERT INTO compared VALUES('range "
     printf "SELECT '<div class=\"wide\"><table class=\"summary\"><caption>%s ' || p.period || ' <span class=\"span\">' || p.span || '</span>'" "$noun"
     printf " || CASE WHEN p.complete THEN '' ELSE ' <span class=\"partial\">partial: ' || p.days_covered || ' of ' || p.days_in_period || ' days</span>' END"
     printf " || '</caption><thead><tr><th rowspan=\"2\">Shop</th><th rowspan=\"2\">Amount</th><th rowspan=\"2\">Trading days</th>"
@@ -120,6 +121,8 @@ escape_html() { sed -e 's/&/\&amp;/g' -e 's/</\&lt;/g' -e 's/>/\&gt;/g'; }
 
 section() { printf '\n== %s ==\n' "$1"; }
 
+section "What would mislead a report: rows that do not read, empty amounts, stray and future rows, short days (sql/data_check.sql)"
+report sql/data_check.sql column
 section "The latest week against the week before and the same ISO week a year earlier, per shop (sql/compare.sql)"
 report sql/compare.sql column by_segment 1
 section "The latest month to date against the month before and a year earlier (sql/compare.sql)"
@@ -139,15 +142,17 @@ report sql/weekday_profile.sql column
 section "Seasonal profile: weekday and month-of-year index per item, 100 = an ordinary day (sql/seasonal_profile.sql)"
 report sql/seasonal_profile.sql column
 anomalies_list=$(report sql/anomalies.sql list)   # day|item|amount|typical|score|kind, for the charts too
-recent_start=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "$db" \
+recent_start=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "${local_view[@]}" "$db" \
   "SELECT period_shift(max(period_floor(ts, 'week', '$zone')), -12, 'week') FROM sales")
 section "Unusual days of the last 13 weeks, against the same weekday of the 8 weeks either side (sql/anomalies.sql)"
 report sql/anomalies.sql column start "'$recent_start'"
 printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6 { n[$6]++ } END {
   printf "Over the whole range: %d spike, %d drop, %d closed (item-days)\n", n["spike"], n["drop"], n["closed"] }'
 
-# A table with a segment column (the demo's shops) is broken down by it.
-by_segment=$(sqlite3 -batch -init /dev/null "$db" \
+# A table with a segment column (the demo's shops) is broken down by it. The
+# module is loaded for this look too: sales may be a view that calls almanac's
+# functions (to_time, to_amount), and SQLite compiles a view to list its columns.
+by_segment=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "${local_view[@]}" "$db" \
   "SELECT count(*) FROM pragma_table_xinfo('sales') WHERE name = 'segment'")
 
 # Charts: weekly totals per shop as bars, the top three items together (the

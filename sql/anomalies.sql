@@ -39,13 +39,19 @@
 --   @zone       IANA time zone of the shop's calendar       default 'UTC'
 --   @start      first local day listed, "'YYYY-MM-DD'"     default: the day of the first sale
 --   @stop       local day after the last one listed        default: the day after the last sale
---   @item       unset: every item; a name: that item only
+--   @item       unset or '*': every item; a name: that item only (a name that
+--               matches no item stops the report naming the closest item)
+--   @day_start  'HH:MM': business days that begin at that hour    default: midnight
 --   @threshold  |score| above which a day is listed       default 3.5
 --   @by_segment 1: a first column segment, and the days of each segment
 --               (scored on that segment's rows alone, over its own trading
 --               days) after those of 'all segments' ('(none)' for a NULL
 --               segment)                                  default 0
 --   The surrounding weeks are read outside [@start, @stop) too, when there are sales there.
+--   Whole periods only: every day scored and every day it is scored against is
+--   a whole day of the data's range, chosen as in sql/trend.sql (stray and
+--   future rows left out and named on the last line of the output).
+--   @unit and @last are refused.
 --
 -- Columns, one row per unusual day and item, oldest first:
 --   day      the local day, YYYY-MM-DD
@@ -59,72 +65,45 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/anomalies.sql
--- The rows are gathered in a temporary table first, so that the segment column
--- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_anomaly_rows;
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
-DROP VIEW IF EXISTS temp.almanac_anomaly_segments;
-CREATE TEMP VIEW almanac_anomaly_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_anomaly_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@threshold, 3.5) AS threshold, @item AS item_choice,
-         coalesce(@by_segment, 0) AS by_segment
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@threshold, 3.5) AS threshold, coalesce(@by_segment, 0) AS by_segment,
+         'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
+         json_extract(r, '$.start_if_cut') AS start, json_extract(r, '$.stop_if_cut') AS stop
+  FROM temp.almanac_range
+  WHERE refuse_parameter('@unit', @unit, 'anomalies.sql scores days; it takes no @unit') IS NULL
+    AND refuse_parameter('@last', @last, 'anomalies.sql lists days of [@start, @stop); set @start instead') IS NULL
 ),
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- 'all segments' from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing). Every item has a row for every day from
--- its segment's first sale to its last; sales = 0 on a day without any.
-day_totals AS MATERIALIZED (
-  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.amount
-  FROM settings, period_totals('sales', 'day', settings.zone) AS t
-  UNION ALL
-  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
-         t.sales, t.amount
-  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_anomaly_segments' END,
-                               'day', settings.zone) AS t
+-- Day totals per segment and item, every day from the segment's first sale to
+-- its last, a day without sales of the item as 0 (period_totals' zero fill).
+daily AS MATERIALIZED (
+  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
+         t.item, t.serial, period_label(t.period_start, settings.day, settings.zone) AS day, t.amount,
+         period_position(t.period_start, 'day', 'week', settings.zone) AS weekday
+  FROM settings, period_totals('sales', settings.day, settings.zone, settings.start, settings.stop) AS t
+  WHERE (t.all_segments = 1 OR settings.by_segment = 1)
+    AND t.covered_start = t.period_start AND t.covered_end = t.period_end
 ),
-daily_sales AS (
-  SELECT t.segment, t.serial, t.item, t.amount
-  FROM day_totals AS t, settings
-  WHERE t.sales > 0 AND (settings.item_choice IS NULL OR t.item = settings.item_choice)
-),
--- The first and last day with a sale of the segment, of any item.
-trading AS (
-  SELECT segment, min(period_start) AS first, max(period_end) AS stop
-  FROM day_totals
-  WHERE sales > 0
-  GROUP BY segment
-),
-days AS (
-  SELECT trading.segment, p.serial, p.period_start AS day, period_position(p.period_start, 'day', 'week') AS weekday
-  FROM settings, trading, periods(trading.first, trading.stop, 'day', settings.zone) AS p
-),
-daily AS (
-  SELECT d.segment, i.item, d.serial, d.day, d.weekday, coalesce(t.amount, 0) AS amount
-  FROM days AS d
-  JOIN (SELECT DISTINCT segment, item FROM daily_sales) AS i USING (segment)
-  LEFT JOIN daily_sales AS t ON t.segment = d.segment AND t.serial = d.serial AND t.item = i.item
-),
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM daily WHERE segment = 'all segments'),
 scored AS (
-  SELECT segment, item, day, amount,
-         median(amount) OVER same_weekday AS typical,
-         mad(amount) OVER same_weekday AS spread,
-         count(*) OVER same_weekday AS neighbours,
-         max(amount <> 0) OVER (PARTITION BY segment, item ORDER BY serial
+  SELECT segment, d.item, day, amount, median(amount) OVER same_weekday AS typical,
+         mad(amount) OVER same_weekday AS spread, count(*) OVER same_weekday AS neighbours,
+         max(amount <> 0) OVER (PARTITION BY segment, d.item ORDER BY serial
                                 ROWS BETWEEN 3 PRECEDING AND 1 PRECEDING) AS sold_before,
-         max(amount <> 0) OVER (PARTITION BY segment, item ORDER BY serial
+         max(amount <> 0) OVER (PARTITION BY segment, d.item ORDER BY serial
                                 ROWS BETWEEN 1 FOLLOWING AND 3 FOLLOWING) AS sold_after
-  FROM daily
-  WINDOW same_weekday AS (PARTITION BY segment, item, weekday ORDER BY serial
+  FROM daily AS d, chosen
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item
+  WINDOW same_weekday AS (PARTITION BY segment, d.item, weekday ORDER BY serial
                           ROWS BETWEEN 8 PRECEDING AND 8 FOLLOWING EXCLUDE CURRENT ROW)
 )
 SELECT sc.segment, sc.day, sc.item, sc.amount, sc.typical,
-       round(0.6745 * (sc.amount - sc.typical) / sc.spread, 1) AS score,
-       CASE WHEN sc.amount > sc.typical THEN 'spike'
+       round(0.6745 * (sc.amount - sc.typical) / sc.spread, 1) AS score, CASE WHEN sc.amount > sc.typical THEN 'spike'
             WHEN sc.amount = 0 THEN 'closed'
             ELSE 'drop' END AS kind
 FROM scored AS sc, settings
@@ -134,38 +113,7 @@ WHERE sc.neighbours >= 8 AND sc.spread > 0 AND (sc.amount <> 0 OR (sc.sold_befor
 -- Without @by_segment the columns are those of the report before segments.
 SELECT day, item, amount, typical, score, kind
 FROM temp.almanac_anomaly_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY day, item;
-SELECT * FROM temp.almanac_anomaly_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, day, item;
+SELECT * FROM temp.almanac_anomaly_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, day, item;
 DROP TABLE temp.almanac_anomaly_rows;
-DROP VIEW temp.almanac_anomaly_segments;
-
--- A name that matches no item gets one row that says so and names the item
--- closest to it: the most letter pairs in common, ignoring case (Dice's
--- coefficient of the two sets of pairs), ties by name; as totals.sql does.
-WITH
-missing AS (
-  SELECT @item AS wanted
-  WHERE @item IS NOT NULL AND @item <> '*' AND NOT EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item)
-),
-positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
-name_pairs AS (
-  SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM sales WHERE item IS NOT NULL) AS n, positions, missing
-  WHERE positions.k < length(n.item)
-),
-wanted_pairs AS (
-  SELECT DISTINCT substr(lower(missing.wanted), positions.k, 2) AS pair
-  FROM missing, positions WHERE positions.k < length(missing.wanted)
-),
-closest AS (
-  SELECT 'no item named ' || quote(missing.wanted) || '; the closest item is '
-           || coalesce(quote((SELECT n.item FROM name_pairs AS n
-                              GROUP BY n.item
-                              ORDER BY 2.0 * count(DISTINCT CASE WHEN n.pair IN wanted_pairs THEN n.pair END)
-                                         / (count(DISTINCT n.pair) + (SELECT count(*) FROM wanted_pairs)) DESC,
-                                       n.item
-                              LIMIT 1)), 'none: the table has no items') AS message
-  FROM missing
-)
-SELECT NULL AS day, message AS item, NULL AS amount, NULL AS typical, NULL AS score, NULL AS kind
-FROM closest;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+DROP TABLE temp.almanac_range;

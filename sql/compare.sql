@@ -16,6 +16,13 @@
 -- compared at all (its figures and changes are NULL): a partial period is never
 -- set against a whole one.
 --
+-- The latest period ends, by default, with the last whole day of the data:
+-- a day still running (it holds the present moment) is left out, stray rows
+-- and rows later than now too (data_range(); the last line of the output
+-- says which range was used and what was left out). With @day_start '04:00'
+-- every day counted here is a business day from 04:00 to 04:00, so the few
+-- sales after midnight of a shop open late count for the day they belong to.
+--
 -- Trading days are the local days of a span on which the segment (all of them
 -- for 'all segments') made at least one sale, of any item: a closed day is not
 -- a trading day. Per-trading-day figures take out the closed days and the
@@ -53,8 +60,10 @@
 --   @start       first local day of the data, "'YYYY-MM-DD'" default: the day of the first sale
 --   @stop        local day after the last one compared      default: the day after the last sale
 --   @item        unset: all items together; '*': one row per item; a name: that item only
---                (a name that matches no item gives one row that names the closest item)
+--                (a name that matches no item stops the report with a message that
+--                names the closest item, from known_name())
 --   @by_segment  1: rows for each segment as well as for all segments   default 0
+--   @day_start   'HH:MM': a business day begins at that hour     default: midnight
 --
 -- Columns:
 --   segment                'all segments', or with @by_segment = 1 also each segment
@@ -79,188 +88,110 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' -cmd '.headers on' shop.db < sql/compare.sql
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
--- The NATURAL LEFT JOIN finds sales.segment when the table has one and
--- otherwise joins nothing, leaving segment NULL: one view for both shapes.
-DROP VIEW IF EXISTS temp.almanac_compare_segments;
-CREATE TEMP VIEW almanac_compare_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 WITH
 settings AS (
-  SELECT coalesce(@unit, 'week') AS spec, coalesce(@zone, 'UTC') AS zone, @item AS item_choice,
-         coalesce(@by_segment, 0) AS by_segment, @against AS against
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment, @against AS against,
+         'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
+         coalesce(@unit, 'week') || coalesce(' from ' || period_floor('2000-01-03', coalesce(@unit, 'week'))
+                                             || ' ' || @day_start, '') AS spec,
+         'week' || coalesce(' from 2000-01-03 ' || @day_start, '') AS iso_week,
+         coalesce(@start, json_extract(r, '$.start')) AS start, coalesce(@stop, json_extract(r, '$.whole_stop')) AS stop
+  FROM temp.almanac_range
 ),
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- 'all segments' from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing); only days with sales. A span's amount is
--- the sum of its days' totals, its trading days the days listed.
-day_totals AS MATERIALIZED (
-  SELECT 'all segments' AS segment, t.item, t.serial AS day, t.period_start, t.period_end, t.amount
-  FROM settings, period_totals('sales', 'day', settings.zone) AS t
-  WHERE t.sales > 0
-  UNION ALL
-  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
-         t.amount
-  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_compare_segments' END,
-                               'day', settings.zone) AS t
-  WHERE t.sales > 0
+-- Day totals per segment and item, read in one pass (period_totals); only days
+-- with sales. A span's amount is the sum of its days' totals, its trading days
+-- the days listed.
+days AS MATERIALIZED (
+  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
+         t.item, t.serial AS day, t.amount
+  FROM settings, period_totals('sales', settings.day, settings.zone, settings.start, settings.stop) AS t
+  WHERE (t.all_segments = 1 OR settings.by_segment = 1) AND t.sales > 0
 ),
-range AS (
-  SELECT coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
-  FROM day_totals
-  WHERE segment = 'all segments'
-),
--- Local dates from here on: period starts and day serials are plain calendar
--- arithmetic on them (a local date's day serial is the same with or without
--- the zone), so no zone is needed.
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM days WHERE segment = 'all segments'),
 latest AS (
-  SELECT period_floor(period_shift(range.stop, -1, 'day'), settings.spec) AS start,
-         period_serial(range.start, 'day') AS data_first, period_serial(range.stop, 'day') AS data_after
-  FROM range, settings
+  SELECT period_floor(period_of_serial(data_after - 1, s.day, s.zone), s.spec, s.zone) AS start, data_first, data_after
+  FROM (SELECT period_serial(start, day, zone) AS data_first, period_serial(stop, day, zone) AS data_after
+        FROM settings), settings AS s
 ),
+-- The ISO week (the spec's periods are the calendar's weeks) is compared with
+-- the week of the same number a year earlier, 52 or 53 weeks back.
 bases AS (
-  SELECT 'previous' AS against, period_shift(latest.start, -1, settings.spec) AS start
-  FROM latest, settings
-  WHERE settings.against IS NULL OR settings.against = 'previous'
+  SELECT 'previous' AS against, period_shift(latest.start, -1, s.spec, s.zone) AS start
+  FROM latest, settings AS s
+  WHERE s.against IS NULL OR s.against = 'previous'
   UNION ALL
-  -- An ISO week label is how a week shows itself: YYYY-Www.
-  SELECT 'year',
-         CASE WHEN period_label(latest.start, settings.spec) GLOB '[0-9][0-9][0-9][0-9]-W[0-9][0-9]' THEN
-                CASE substr(period_label(latest.start, settings.spec), 6)
-                  WHEN substr(period_label(period_shift(latest.start, -52, 'week'), 'week'), 6)
-                    THEN period_shift(latest.start, -52, 'week')
-                  WHEN substr(period_label(period_shift(latest.start, -53, 'week'), 'week'), 6)
-                    THEN period_shift(latest.start, -53, 'week')
+  SELECT 'year', CASE WHEN period_floor(latest.start, s.iso_week, s.zone) = latest.start
+                   AND period_end(latest.start, s.iso_week, s.zone) = period_end(latest.start, s.spec, s.zone) THEN
+                CASE period_position(latest.start, 'week', 'year', s.zone)
+                  WHEN period_position(period_shift(latest.start, -52, s.iso_week, s.zone), 'week', 'year', s.zone)
+                    THEN period_shift(latest.start, -52, s.iso_week, s.zone)
+                  WHEN period_position(period_shift(latest.start, -53, s.iso_week, s.zone), 'week', 'year', s.zone)
+                    THEN period_shift(latest.start, -53, s.iso_week, s.zone)
                 END
-              ELSE period_floor(period_shift(latest.start, -12, 'month'), settings.spec)
+              ELSE period_floor(period_shift(latest.start, -12, 'month', s.zone), s.spec, s.zone)
          END
-  FROM latest, settings
-  WHERE settings.against IS NULL OR settings.against = 'year'
-),
-spans AS (
-  SELECT b.against, latest.start, b.start AS base_start,
-         period_serial(latest.start, 'day') AS first_day,
-         period_serial(period_end(latest.start, settings.spec), 'day') AS end_day,
-         latest.data_after - period_serial(latest.start, 'day') AS elapsed,
-         period_serial(b.start, 'day') AS base_first_day,
-         period_serial(period_end(b.start, settings.spec), 'day') AS base_end_day,
-         latest.data_first, latest.data_after
-  FROM bases AS b, latest, settings
+  FROM latest, settings AS s
+  WHERE s.against IS NULL OR s.against = 'year'
 ),
 windows AS (
-  SELECT against, start, base_start, first_day, end_day, elapsed, base_first_day,
-         min(base_first_day + elapsed, base_end_day) AS base_after_day,
+  SELECT *, min(base_first_day + elapsed, base_end_day) AS base_after_day,
          -- the base span counts only when the data covers all of it
-         base_first_day >= data_first AND min(base_first_day + elapsed, base_end_day) <= data_after AS base_covered,
-         data_after
-  FROM spans
+         base_first_day >= data_first AND min(base_first_day + elapsed, base_end_day) <= data_after AS base_covered
+  FROM (SELECT b.against, latest.start, b.start AS base_start, latest.data_first, latest.data_after,
+               period_serial(latest.start, s.day, s.zone) AS first_day,
+               period_serial(period_end(latest.start, s.spec, s.zone), s.day, s.zone) AS end_day,
+               latest.data_after - period_serial(latest.start, s.day, s.zone) AS elapsed,
+               period_serial(b.start, s.day, s.zone) AS base_first_day,
+               period_serial(period_end(b.start, s.spec, s.zone), s.day, s.zone) AS base_end_day
+        FROM bases AS b, latest, settings AS s)
 ),
--- Only the days compared are kept.
+-- Each day of a span, with the side it counts for (a base span ends before the latest starts).
 in_spans AS (
-  SELECT w.against, 'latest' AS side, c.segment, c.item, c.amount, c.day
-  FROM windows AS w JOIN day_totals AS c ON c.day >= w.first_day AND c.day < w.data_after
-  UNION ALL
-  SELECT w.against, 'base', c.segment, c.item, c.amount, c.day
-  FROM windows AS w JOIN day_totals AS c ON c.day >= w.base_first_day AND c.day < w.base_after_day
-  WHERE w.base_covered
+  SELECT w.against, d.day >= w.first_day AS latest, d.segment, d.item, d.amount, d.day
+  FROM windows AS w JOIN days AS d ON (d.day >= w.first_day AND d.day < w.data_after)
+    OR (w.base_covered AND d.day >= w.base_first_day AND d.day < w.base_after_day)
 ),
+-- Trading days count the days of every item of the segment; amounts only those of the items chosen.
 trading AS (
-  SELECT against, side, segment, count(DISTINCT day) AS trading_days
-  FROM in_spans GROUP BY 1, 2, 3
+  SELECT against, segment, count(DISTINCT CASE WHEN latest THEN day END) AS trading_days,
+         count(DISTINCT CASE WHEN NOT latest THEN day END) AS base_trading_days
+  FROM in_spans GROUP BY 1, 2
 ),
 amounts AS (
-  SELECT i.against, i.side, i.segment,
-         CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE i.item END AS item,
-         exact_sum(i.amount) AS amount
-  FROM in_spans AS i, settings
-  WHERE settings.item_choice IS NULL OR settings.item_choice = '*' OR i.item = settings.item_choice
-  GROUP BY 1, 2, 3, 4
-),
-segments AS (
-  SELECT 'all segments' AS segment
-  UNION ALL
-  SELECT DISTINCT segment FROM day_totals WHERE segment <> 'all segments'
+  SELECT i.against, i.segment, CASE WHEN chosen.item IS NULL THEN 'all items' ELSE i.item END AS item,
+         exact_sum(CASE WHEN latest THEN amount END) AS amount, exact_sum(CASE WHEN NOT latest THEN amount END) AS base
+  FROM in_spans AS i, chosen WHERE chosen.item IS NULL OR chosen.item = '*' OR i.item = chosen.item GROUP BY 1, 2, 3
 ),
 items AS (
-  SELECT DISTINCT CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE d.item END AS item
-  FROM day_totals AS d, settings
-  WHERE d.segment = 'all segments'
-    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR d.item = settings.item_choice)
+  SELECT DISTINCT CASE WHEN chosen.item IS NULL THEN 'all items' ELSE d.item END AS item FROM days AS d, chosen
+  WHERE d.segment = 'all segments' AND (chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item)
 ),
 compared AS (
-  SELECT g.segment, i.item, w.against, w.start, w.base_start, w.base_covered,
-         w.end_day - w.first_day AS days_in_period, w.elapsed,
-         w.base_after_day - w.base_first_day AS base_days,
-         coalesce(now_amount.amount, 0) AS amount, coalesce(now_days.trading_days, 0) AS trading_days,
-         CASE WHEN w.base_covered THEN coalesce(base_amount.amount, 0) END AS base_amount,
-         CASE WHEN w.base_covered THEN coalesce(base_days.trading_days, 0) END AS base_trading_days
-  FROM windows AS w
-  CROSS JOIN segments AS g
-  CROSS JOIN items AS i
-  LEFT JOIN amounts AS now_amount ON now_amount.against = w.against AND now_amount.side = 'latest'
-    AND now_amount.segment = g.segment AND now_amount.item = i.item
-  LEFT JOIN trading AS now_days ON now_days.against = w.against AND now_days.side = 'latest'
-    AND now_days.segment = g.segment
-  LEFT JOIN amounts AS base_amount ON base_amount.against = w.against AND base_amount.side = 'base'
-    AND base_amount.segment = g.segment AND base_amount.item = i.item
-  LEFT JOIN trading AS base_days ON base_days.against = w.against AND base_days.side = 'base'
-    AND base_days.segment = g.segment
-),
--- A name that matches no item gets one row that says so and names the item
--- closest to it: the most letter pairs in common, ignoring case (Dice's
--- coefficient of the two sets of pairs), ties by name.
-missing AS (
-  SELECT settings.item_choice AS wanted FROM settings
-  WHERE settings.item_choice IS NOT NULL AND settings.item_choice <> '*'
-    AND NOT EXISTS (SELECT 1 FROM day_totals AS d
-                    WHERE d.segment = 'all segments' AND d.item = settings.item_choice)
-),
-positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
-name_pairs AS (
-  SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM day_totals WHERE segment = 'all segments' AND item IS NOT NULL) AS n,
-       positions, missing
-  WHERE positions.k < length(n.item)
-),
-wanted_pairs AS (
-  SELECT DISTINCT substr(lower(missing.wanted), positions.k, 2) AS pair
-  FROM missing, positions WHERE positions.k < length(missing.wanted)
-),
-closest AS (
-  SELECT 'no item named ' || quote(missing.wanted) || '; the closest item is '
-           || coalesce(quote((SELECT n.item FROM name_pairs AS n
-                              GROUP BY n.item
-                              ORDER BY 2.0 * count(DISTINCT CASE WHEN n.pair IN wanted_pairs THEN n.pair END)
-                                         / (count(DISTINCT n.pair) + (SELECT count(*) FROM wanted_pairs)) DESC,
-                                       n.item
-                              LIMIT 1)), 'none: the table has no items') AS message
-  FROM missing
-),
-output AS (
-  SELECT c.segment, c.item, period_label(c.start, settings.spec) AS period, c.days_in_period,
-         c.elapsed AS days_covered, c.elapsed = c.days_in_period AS complete,
-         c.start || '..' || period_shift(c.start, c.elapsed - 1, 'day') AS span,
-         c.trading_days, round(c.amount, 2) AS amount,
-         round(c.amount / nullif(c.trading_days, 0), 2) AS per_trading_day,
-         c.against, period_label(c.base_start, settings.spec) AS base_period,
-         c.base_start || '..' || period_shift(c.base_start, c.base_days - 1, 'day') AS base_span,
-         c.base_trading_days, round(c.base_amount, 2) AS base_amount,
-         round(c.base_amount / nullif(c.base_trading_days, 0), 2) AS base_per_trading_day,
-         round(100.0 * (c.amount - c.base_amount) / nullif(c.base_amount, 0), 1) AS change_pct,
-         round(100.0 * (c.amount / nullif(c.trading_days, 0) - c.base_amount / nullif(c.base_trading_days, 0))
-               / nullif(c.base_amount / nullif(c.base_trading_days, 0), 0), 1) AS change_per_day_pct,
-         0 AS message_row
-  FROM compared AS c, settings
-  UNION ALL
-  SELECT NULL, closest.message, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL,
-         NULL, NULL, NULL, NULL, 1
-  FROM closest
+  SELECT g.segment, i.item, w.against, w.start, w.base_start, w.end_day - w.first_day AS days_in_period, w.elapsed,
+         w.base_after_day - w.base_first_day AS base_days, coalesce(a.amount, 0) AS amount,
+         coalesce(t.trading_days, 0) AS trading_days, CASE WHEN w.base_covered THEN coalesce(a.base, 0) END AS base_amount,
+         CASE WHEN w.base_covered THEN coalesce(t.base_trading_days, 0) END AS base_trading_days
+  FROM windows AS w CROSS JOIN (SELECT DISTINCT segment FROM days) AS g CROSS JOIN items AS i
+  LEFT JOIN trading AS t ON t.against = w.against AND t.segment = g.segment
+  LEFT JOIN amounts AS a ON a.against = w.against AND a.segment = g.segment AND a.item = i.item
 )
-SELECT segment, item, period, days_in_period, days_covered, complete, span, trading_days, amount,
-       per_trading_day, against, base_period, base_span, base_trading_days, base_amount,
-       base_per_trading_day, change_pct, change_per_day_pct
-FROM output
-ORDER BY message_row, segment <> 'all segments', segment, item, against <> 'previous';
-DROP VIEW temp.almanac_compare_segments;
+SELECT c.segment, c.item, period_label(c.start, coalesce(@unit, 'week'), s.zone) AS period, c.days_in_period,
+       c.elapsed AS days_covered, c.elapsed = c.days_in_period AS complete,
+       period_label(c.start, s.day, s.zone) || '..'
+         || period_label(period_shift(c.start, c.elapsed - 1, s.day, s.zone), s.day, s.zone) AS span,
+       c.trading_days, round(c.amount, 2) AS amount,
+       round(c.amount / nullif(c.trading_days, 0), 2) AS per_trading_day,
+       c.against, period_label(c.base_start, coalesce(@unit, 'week'), s.zone) AS base_period,
+       period_label(c.base_start, s.day, s.zone) || '..'
+         || period_label(period_shift(c.base_start, c.base_days - 1, s.day, s.zone), s.day, s.zone) AS base_span,
+       c.base_trading_days, round(c.base_amount, 2) AS base_amount,
+       round(c.base_amount / nullif(c.base_trading_days, 0), 2) AS base_per_trading_day,
+       round(100.0 * (c.amount - c.base_amount) / nullif(c.base_amount, 0), 1) AS change_pct,
+       round(100.0 * (c.amount / nullif(c.trading_days, 0) - c.base_amount / nullif(c.base_trading_days, 0))
+             / nullif(c.base_amount / nullif(c.base_trading_days, 0), 0), 1) AS change_per_day_pct
+FROM compared AS c, settings AS s ORDER BY c.segment <> 'all segments', c.segment, c.item, c.against <> 'previous';
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+DROP TABLE temp.almanac_range;

@@ -32,7 +32,9 @@
 --   @start   first local day, "'YYYY-MM-DD'"             default: @weeks before @stop
 --   @weeks   without @start: how many weeks before @stop  default 13 (0: from the first sale)
 --   @stop    local day after the last one                default: the day after the last sale
---   @item    one item to draw                            default: the @top items by amount
+--   @item    one item to draw ('*': the @top items; a name that matches no item
+--            stops the report naming the closest item)  default: the @top items by amount
+--   @day_start  'HH:MM': business days that begin at that hour     default: midnight
 --   @top     how many items, the largest amount first    default 3
 --   @title   the chart's title                           default 'Amount per day and 7-day moving mean'
 --   @width, @height  size in pixels                      default 960 x 400
@@ -52,6 +54,10 @@
 -- 3 after (RANGE over the day serial, so it is 7 calendar days); it starts on
 -- the 4th day and ends on the 4th day from the end, where the frame is whole.
 --
+-- Every day drawn is a whole day of the data's range: stray rows and rows
+-- later than now are left out (data_range()), and the title says so when any
+-- were. A day the range cuts is never drawn, so no partial period needs a mark.
+--
 -- Side effect: leaves the points in the temp table chart_points(item, serial,
 -- day, layer, value), for a look with SELECT or a chart of your own.
 --
@@ -59,30 +65,27 @@
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           shop.db < sql/daily_chart.sql > chart.svg
 DROP TABLE IF EXISTS temp.chart_points;
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
-DROP VIEW IF EXISTS temp.almanac_chart_segments;
-CREATE TEMP VIEW almanac_chart_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- segment NULL from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing); only days with sales. Kept in a temp
--- table for the chart's points and for its order of items, and dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
+-- Day totals per segment and item over the data's range, read in one pass
+-- (period_totals), only days with sales: kept in a temp table for the chart's
+-- points and for its order of items, and dropped at the end.
 DROP TABLE IF EXISTS temp.almanac_chart_days;
 CREATE TEMP TABLE almanac_chart_days AS
-SELECT NULL AS segment, t.item, t.serial, t.period_start, t.period_end, t.amount
-FROM period_totals('sales', 'day', coalesce(@zone, 'UTC')) AS t
-WHERE t.sales > 0
-UNION ALL
-SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end, t.amount
-FROM period_totals(CASE WHEN coalesce(@by_segment, 0) = 1 THEN 'temp.almanac_chart_segments' END, 'day',
-                   coalesce(@zone, 'UTC')) AS t
-WHERE t.sales > 0;
+SELECT CASE WHEN t.all_segments = 0 THEN coalesce(t.segment, '(none)') END AS segment, t.item, t.serial,
+       t.period_start, t.period_end, t.amount
+FROM temp.almanac_range,
+     period_totals('sales', 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC'),
+                   json_extract(r, '$.start'), json_extract(r, '$.stop')) AS t
+WHERE t.sales > 0 AND (t.all_segments = 1 OR coalesce(@by_segment, 0) = 1);
 CREATE TEMP TABLE chart_points AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
+         'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
+         (SELECT known_name(item, @item, 'item') FROM (SELECT DISTINCT item FROM temp.almanac_chart_days)) AS item
+  WHERE refuse_parameter('@unit', @unit, 'daily_chart.sql draws days; it takes no @unit') IS NULL
 ),
 -- 1,092 days of three items do not fit in 960 pixels: by default the chart
 -- shows the last 13 weeks, where a day is still a few pixels wide.
@@ -97,35 +100,32 @@ range AS (
          stop
   FROM data_range
 ),
--- The series a day counts for: its item; with @by_segment, 'all segments' (the
--- items' day totals from sales) and its own segment (those from the view).
+-- The series a day counts for: its item; with @by_segment, 'all segments' and its own segment.
 daily_sales AS (
   -- A day's takings in cents, so the smooth line is the mean of the amounts the raw line shows.
   SELECT d.serial, CASE WHEN settings.by_segment = 1 THEN coalesce(d.segment, 'all segments') ELSE d.item END AS item,
          round(exact_sum(d.amount), 2) AS amount
   FROM temp.almanac_chart_days AS d, settings, range
-  WHERE (@item IS NULL OR d.item = @item)
-    AND (settings.by_segment = 1 OR d.segment IS NULL)
-    AND d.serial >= period_serial(range.start, 'day', settings.zone)
-    AND d.serial < period_serial(range.stop, 'day', settings.zone)
-  GROUP BY 1, 2
+  WHERE (settings.item IS NULL OR settings.item = '*' OR d.item = settings.item)
+    AND d.serial >= period_serial(range.start, settings.day, settings.zone)
+    AND d.serial < period_serial(range.stop, settings.day, settings.zone) GROUP BY 1, 2
 ),
 chosen AS (
-  SELECT item FROM (SELECT item FROM daily_sales, settings WHERE settings.by_segment <> 1
-                     GROUP BY item ORDER BY exact_sum(amount) DESC, item LIMIT coalesce(@top, 3))
+  SELECT item FROM (SELECT d.item FROM daily_sales AS d, settings WHERE settings.by_segment <> 1
+                     GROUP BY d.item ORDER BY exact_sum(d.amount) DESC, d.item LIMIT coalesce(@top, 3))
   UNION ALL
-  SELECT DISTINCT item FROM daily_sales, settings WHERE settings.by_segment = 1
+  SELECT DISTINCT d.item FROM daily_sales AS d, settings WHERE settings.by_segment = 1
 ),
 daily AS (
-  SELECT c.item, p.serial, p.period_start AS day, coalesce(t.amount, 0) AS amount
-  FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
+  SELECT c.item, p.serial, period_label(p.period_start, settings.day, settings.zone) AS day,
+         coalesce(t.amount, 0) AS amount
+  FROM settings, range, periods(range.start, range.stop, settings.day, settings.zone) AS p
   CROSS JOIN chosen AS c
   LEFT JOIN daily_sales AS t ON t.serial = p.serial AND t.item = c.item
 )
 SELECT item, serial, day, 'raw' AS layer, amount AS value, 0 AS step FROM daily
 UNION ALL
-SELECT item, serial, day, 'smooth',
-       moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
+SELECT item, serial, day, 'smooth', moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
                                     RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING), 0
 FROM daily
 UNION ALL
@@ -134,57 +134,21 @@ SELECT 'unusual day', d.serial, d.day, 'smooth', CASE s.step WHEN 1 THEN 0 WHEN 
 FROM daily AS d
 JOIN json_each('["' || replace(coalesce(@marks, ''), ',', '","') || '"]') AS m ON m.value = d.day
 CROSS JOIN (SELECT 1 AS step UNION ALL SELECT 2 UNION ALL SELECT 3) AS s
-WHERE @item IS NOT NULL;
+WHERE @item IS NOT NULL AND @item <> '*';
 
-SELECT svg_line_chart(day, value, item, layer,
-                      json_object('title', coalesce(@title, 'Amount per day and 7-day moving mean'),
-                                  'y_caption', 'amount per day',
-                                  'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
-                                  -- Every item of the table, largest first: each item keeps
-                                  -- its colour in every chart, whichever items it shows.
-                                  -- By segment: 'all segments', then the segments by name.
-                                  'series_order', json(CASE WHEN coalesce(@by_segment, 0) = 1
-                                    THEN (SELECT json_group_array(segment) FROM (
-                                      SELECT 'all segments' AS segment
-                                      UNION ALL
-                                      SELECT * FROM (SELECT DISTINCT segment FROM temp.almanac_chart_days
-                                                     WHERE segment IS NOT NULL ORDER BY 1)))
-                                    ELSE (SELECT json_group_array(item) FROM (
-                                      SELECT item FROM temp.almanac_chart_days WHERE segment IS NULL
-                                      GROUP BY item ORDER BY exact_sum(amount) DESC, item)) END)))
-FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step)
--- A name that matches no item prints the one row below instead of a chart.
-HAVING @item IS NULL OR @item = '*' OR EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item);
-
--- A name that matches no item gets one row that says so and names the item
--- closest to it: the most letter pairs in common, ignoring case (Dice's
--- coefficient of the two sets of pairs), ties by name; as totals.sql does.
-WITH
-missing AS (
-  SELECT @item AS wanted
-  WHERE @item IS NOT NULL AND @item <> '*' AND NOT EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item)
-),
-positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
-name_pairs AS (
-  SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM sales WHERE item IS NOT NULL) AS n, positions, missing
-  WHERE positions.k < length(n.item)
-),
-wanted_pairs AS (
-  SELECT DISTINCT substr(lower(missing.wanted), positions.k, 2) AS pair
-  FROM missing, positions WHERE positions.k < length(missing.wanted)
-),
-closest AS (
-  SELECT 'no item named ' || quote(missing.wanted) || '; the closest item is '
-           || coalesce(quote((SELECT n.item FROM name_pairs AS n
-                              GROUP BY n.item
-                              ORDER BY 2.0 * count(DISTINCT CASE WHEN n.pair IN wanted_pairs THEN n.pair END)
-                                         / (count(DISTINCT n.pair) + (SELECT count(*) FROM wanted_pairs)) DESC,
-                                       n.item
-                              LIMIT 1)), 'none: the table has no items') AS message
-  FROM missing
+-- Every item of the table, largest first: each item keeps its colour in every chart, whichever
+-- items it shows. By segment: 'all segments', then the segments by name.
+WITH series AS (
+  SELECT 'all segments' AS name, 0 AS place WHERE coalesce(@by_segment, 0) = 1
+  UNION ALL
+  SELECT coalesce(segment, item), CASE WHEN segment IS NULL THEN -exact_sum(amount) ELSE 1 END
+  FROM temp.almanac_chart_days WHERE (segment IS NOT NULL) = (coalesce(@by_segment, 0) = 1) GROUP BY 1
 )
-SELECT message
-FROM closest;
+SELECT svg_line_chart(day, value, item, layer, json_object(
+         'title', coalesce(@title, 'Amount per day and 7-day moving mean') || (SELECT CASE WHEN json_extract(r,
+           '$.left_out') > 0 THEN ' (' || json_extract(r, '$.note') || ')' ELSE '' END FROM temp.almanac_range),
+         'y_caption', 'amount per day', 'width', coalesce(@width, 960), 'height', coalesce(@height, 400),
+         'series_order', (SELECT json_group_array(name) FROM (SELECT name FROM series ORDER BY place, name))))
+FROM (SELECT * FROM temp.chart_points ORDER BY item, layer, serial, step);
 DROP TABLE temp.almanac_chart_days;
-DROP VIEW temp.almanac_chart_segments;
+DROP TABLE temp.almanac_range;

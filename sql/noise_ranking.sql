@@ -35,15 +35,21 @@
 --   @by_segment   1: a first column segment, and the ranking of each segment
 --                 (computed on that segment's rows alone) after the one of
 --                 'all segments' ('(none)' for rows whose segment is NULL)   default 0
---   Weeks are ISO weeks (Monday start). A week only partly inside the range
---   pulls the line down at that end: choose @start on a Monday and @stop on a
---   Monday to fit whole weeks only.
+--   @item         unset or '*': every item; a name: that item's row only (a name
+--                 that matches no item stops the report naming the closest item)
+--   @day_start    'HH:MM': weeks of business days that begin at that hour
+--   Whole periods only: weeks are ISO weeks (Monday start), and only those
+--   wholly inside the range are fitted (covered_start = period_start and
+--   covered_end = period_end in period_totals): a week cut by either end
+--   would pull the line down there. The range is chosen as in sql/trend.sql
+--   (stray and future rows left out and named on the last line of the
+--   output). @unit and @last make no sense here and are refused.
 --
 -- Columns, one row per item, noisiest first:
 --   rank             1 = noisiest
 --   item
---   weeks            weeks in the fit (all weeks of the range, a week without sales as 0)
---   mean_per_week    mean weekly amount
+--   weeks            weeks in the fit (all whole weeks of the range, a week without sales as 0)
+--   mean_per_week    mean weekly amount over those weeks (the same number as in sql/trend.sql)
 --   resid_sd         spread of the weeks around the item's trend line, resid_sd(total, week serial)
 --   noise_pct        100 * resid_sd / mean_per_week: the typical miss of the line, in percent of a mean week
 --   sd_pct           100 * stddev_samp / mean_per_week: the same without taking the trend out
@@ -54,82 +60,46 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/noise_ranking.sql
--- The rows are gathered in a temporary table first, so that the segment column
--- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_noise_rows;
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
-DROP VIEW IF EXISTS temp.almanac_noise_segments;
-CREATE TEMP VIEW almanac_noise_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_noise_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
+         'week' || coalesce(' from 2000-01-03 ' || @day_start, '') AS spec,
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
+  FROM temp.almanac_range
+  WHERE refuse_parameter('@unit', @unit, 'noise_ranking.sql fits whole ISO weeks; it takes no @unit') IS NULL
+    AND refuse_parameter('@last', @last, 'noise_ranking.sql fits every whole week of the range') IS NULL
 ),
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- 'all segments' from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing); everything below is computed per
--- segment, so a segment's figures are those of the report run on that segment
--- alone. Every item has a row for every day from the first sale to the last;
--- sales = 0 on a day without any.
-day_totals AS MATERIALIZED (
-  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.amount
-  FROM settings, period_totals('sales', 'day', settings.zone) AS t
-  UNION ALL
-  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
-         t.sales, t.amount
-  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_noise_segments' END,
-                               'day', settings.zone) AS t
+-- Weekly totals, whole weeks only, an item's week without sales as 0 (period_totals' zero fill);
+-- each segment is fitted on its own rows.
+weekly AS MATERIALIZED (
+  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
+         t.item, t.serial, t.sales, t.amount AS total
+  FROM settings, period_totals('sales', settings.spec, settings.zone, settings.start, settings.stop) AS t
+  WHERE (t.all_segments = 1 OR settings.by_segment = 1)
+    AND t.covered_start = t.period_start AND t.covered_end = t.period_end
 ),
--- The local days of a segment's first and last sale, of any item.
-range AS (
-  SELECT segment, coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
-  FROM day_totals
-  WHERE sales > 0
-  GROUP BY segment
-),
-weeks AS (
-  SELECT range.segment, p.serial, p.label
-  FROM settings, range, periods(range.start, range.stop, 'week', settings.zone) AS p
-),
--- The day totals of the range summed per week; only weeks with sales appear here.
-weekly_sales AS (
-  SELECT d.segment, period_serial(d.period_start, 'week', settings.zone) AS serial, d.item,
-         exact_sum(d.amount) AS amount
-  FROM day_totals AS d JOIN range USING (segment), settings
-  WHERE d.serial >= period_serial(range.start, 'day', settings.zone)
-    AND d.serial < period_serial(range.stop, 'day', settings.zone)
-  GROUP BY 1, 2, 3
-  HAVING sum(d.sales) > 0
-),
--- Every week for every item: an item's week without sales is 0, not missing,
--- or the line would be fitted to the good weeks only.
-weekly AS (
-  SELECT w.segment, i.item, w.serial, coalesce(t.amount, 0) AS total
-  FROM weeks AS w
-  JOIN (SELECT DISTINCT segment, item FROM weekly_sales) AS i USING (segment)
-  LEFT JOIN weekly_sales AS t ON t.segment = w.segment AND t.serial = w.serial AND t.item = i.item
-),
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM weekly WHERE segment = 'all segments'),
 fit AS (
-  SELECT segment, item, count(*) AS weeks, avg(total) AS mean,
+  SELECT segment, w.item, count(*) AS weeks, avg(total) AS mean,
          resid_sd(total, serial) AS resid_sd, stddev_samp(total) AS sd
-  FROM weekly
-  GROUP BY segment, item
+  FROM weekly AS w, chosen
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR w.item = chosen.item GROUP BY segment, w.item
+  HAVING sum(w.sales) > 0
 )
-SELECT segment, row_number() OVER (PARTITION BY segment ORDER BY resid_sd / mean DESC, item) AS rank,
-       item, weeks,
-       round(mean, 2) AS mean_per_week,
-       round(resid_sd, 2) AS resid_sd,
-       round(100.0 * resid_sd / mean, 1) AS noise_pct,
-       round(100.0 * sd / mean, 1) AS sd_pct
+SELECT segment, row_number() OVER (PARTITION BY segment ORDER BY resid_sd / mean DESC, item) AS rank, item, weeks,
+       round(mean, 2) AS mean_per_week, round(resid_sd, 2) AS resid_sd,
+       round(100.0 * resid_sd / mean, 1) AS noise_pct, round(100.0 * sd / mean, 1) AS sd_pct
 FROM fit
 WHERE mean > 0;
 -- Without @by_segment the columns are those of the report before segments.
 SELECT rank, item, weeks, mean_per_week, resid_sd, noise_pct, sd_pct
 FROM temp.almanac_noise_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY rank;
-SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, rank;
+SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, rank;
 DROP TABLE temp.almanac_noise_rows;
-DROP VIEW temp.almanac_noise_segments;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+DROP TABLE temp.almanac_range;

@@ -28,7 +28,12 @@
 --   @zone    IANA time zone of the shop's calendar        default 'UTC'
 --   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
 --   @stop    local day after the last one                default: the day after the last sale
---   @item    unset: every item; a name: that item only
+--   @item    unset or '*': every item; a name: that item only (a name that
+--            matches no item stops the report naming the closest item)
+--   @day_start  'HH:MM': business days that begin at that hour     default: midnight
+--   Whole periods only: the days are the whole days of the range, chosen as
+--   in sql/trend.sql (stray and future rows left out and named on the last
+--   line of the output). @unit and @last are refused.
 --   @by_segment  1: a first column segment, and the profile of each segment
 --                (computed on that segment's rows alone, over its own range)
 --                after the one of 'all segments' ('(none)' for a NULL segment)   default 0
@@ -44,138 +49,76 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/seasonal_profile.sql
--- The rows are gathered in a temporary table first, so that the segment column
--- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_seasonal_rows;
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
-DROP VIEW IF EXISTS temp.almanac_seasonal_segments;
-CREATE TEMP VIEW almanac_seasonal_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_seasonal_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice, coalesce(@by_segment, 0) AS by_segment
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
+         'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
+  FROM temp.almanac_range
+  WHERE refuse_parameter('@unit', @unit, 'seasonal_profile.sql profiles weekdays and months; it takes no @unit')
+        IS NULL
+    AND refuse_parameter('@last', @last, 'seasonal_profile.sql profiles every day of the range') IS NULL
 ),
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- 'all segments' from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing). Every item has a row for every day from
--- the first sale to the last; sales = 0 on a day without any.
-day_totals AS MATERIALIZED (
-  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.amount
-  FROM settings, period_totals('sales', 'day', settings.zone) AS t
-  UNION ALL
-  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
-         t.sales, t.amount
-  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_seasonal_segments' END,
-                               'day', settings.zone) AS t
+-- Day totals per segment and item, every day of the segment's range, a day
+-- without sales of the item as 0 (period_totals' zero fill).
+daily AS MATERIALIZED (
+  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
+         t.item, t.amount, period_position(t.period_start, 'day', 'week', settings.zone) AS weekday,
+         period_position(t.period_start, 'month', 'year', settings.zone) AS month
+  FROM settings, period_totals('sales', settings.day, settings.zone, settings.start, settings.stop) AS t
+  WHERE (t.all_segments = 1 OR settings.by_segment = 1)
+    AND t.covered_start = t.period_start AND t.covered_end = t.period_end
 ),
--- The local days of a segment's first and last sale, of any item.
-range AS (
-  SELECT segment, coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
-  FROM day_totals
-  WHERE sales > 0
-  GROUP BY segment
-),
-daily_sales AS (
-  SELECT t.segment, t.serial, t.item, t.amount
-  FROM day_totals AS t, settings
-  WHERE t.sales > 0 AND (settings.item_choice IS NULL OR t.item = settings.item_choice)
-),
-days AS (
-  SELECT range.segment, p.serial, period_position(p.period_start, 'day', 'week') AS weekday,
-         period_position(p.period_start, 'month', 'year') AS month
-  FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
-),
-daily AS (
-  SELECT d.segment, i.item, d.weekday, d.month, coalesce(t.amount, 0) AS amount
-  FROM days AS d
-  JOIN (SELECT DISTINCT segment, item FROM daily_sales) AS i USING (segment)
-  LEFT JOIN daily_sales AS t ON t.segment = d.segment AND t.serial = d.serial AND t.item = i.item
-),
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM daily WHERE segment = 'all segments'),
 overall AS (
-  SELECT segment, item, avg(amount) AS mean, count(*) AS days FROM daily GROUP BY segment, item
+  SELECT segment, d.item, avg(amount) AS mean, count(*) AS days
+  FROM daily AS d, chosen
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item GROUP BY segment, d.item
 ),
+-- Each weekday's and month's index, and its place (1: the peak; ties to the earlier one).
 by_weekday AS (
-  SELECT d.segment, d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  SELECT d.segment, d.item, d.weekday AS position, 100.0 * avg(d.amount) / o.mean AS idx,
+         row_number() OVER (PARTITION BY d.segment, d.item ORDER BY 100.0 * avg(d.amount) / o.mean DESC, d.weekday) AS place
   FROM daily AS d JOIN overall AS o USING (segment, item) GROUP BY d.segment, d.item, d.weekday
 ),
 by_month AS (
-  SELECT d.segment, d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx
+  SELECT d.segment, d.item, d.month AS position, 100.0 * avg(d.amount) / o.mean AS idx,
+         row_number() OVER (PARTITION BY d.segment, d.item ORDER BY 100.0 * avg(d.amount) / o.mean DESC, d.month) AS place
   FROM daily AS d JOIN overall AS o USING (segment, item) GROUP BY d.segment, d.item, d.month
 ),
-peaks AS (
-  SELECT segment, item,
-         (SELECT position FROM by_weekday AS w WHERE w.segment = o.segment AND w.item = o.item
-          ORDER BY idx DESC, position LIMIT 1) AS day,
-         (SELECT position FROM by_month AS m WHERE m.segment = o.segment AND m.item = o.item
-          ORDER BY idx DESC, position LIMIT 1) AS month
-  FROM overall AS o
+weekdays AS (
+  SELECT segment, item, max(CASE place WHEN 1 THEN position END) AS peak,
+         CAST(round(max(CASE position WHEN 1 THEN idx END)) AS INTEGER) AS mon, CAST(round(max(CASE position WHEN 2 THEN idx END)) AS INTEGER) AS tue,
+         CAST(round(max(CASE position WHEN 3 THEN idx END)) AS INTEGER) AS wed, CAST(round(max(CASE position WHEN 4 THEN idx END)) AS INTEGER) AS thu,
+         CAST(round(max(CASE position WHEN 5 THEN idx END)) AS INTEGER) AS fri, CAST(round(max(CASE position WHEN 6 THEN idx END)) AS INTEGER) AS sat,
+         CAST(round(max(CASE position WHEN 7 THEN idx END)) AS INTEGER) AS sun
+  FROM by_weekday GROUP BY segment, item
+),
+months AS (
+  SELECT segment, item, max(CASE place WHEN 1 THEN position END) AS peak,
+         CAST(round(max(CASE position WHEN 1 THEN idx END)) AS INTEGER) AS jan, CAST(round(max(CASE position WHEN 2 THEN idx END)) AS INTEGER) AS feb,
+         CAST(round(max(CASE position WHEN 3 THEN idx END)) AS INTEGER) AS mar, CAST(round(max(CASE position WHEN 4 THEN idx END)) AS INTEGER) AS apr,
+         CAST(round(max(CASE position WHEN 5 THEN idx END)) AS INTEGER) AS may, CAST(round(max(CASE position WHEN 6 THEN idx END)) AS INTEGER) AS jun,
+         CAST(round(max(CASE position WHEN 7 THEN idx END)) AS INTEGER) AS jul, CAST(round(max(CASE position WHEN 8 THEN idx END)) AS INTEGER) AS aug,
+         CAST(round(max(CASE position WHEN 9 THEN idx END)) AS INTEGER) AS sep, CAST(round(max(CASE position WHEN 10 THEN idx END)) AS INTEGER) AS oct,
+         CAST(round(max(CASE position WHEN 11 THEN idx END)) AS INTEGER) AS nov, CAST(round(max(CASE position WHEN 12 THEN idx END)) AS INTEGER) AS "dec"
+  FROM by_month GROUP BY segment, item
 )
-SELECT o.segment, o.item,
-       substr('MonTueWedThuFriSatSun', 3 * p.day - 2, 3) AS peak_day,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 1) AS mon,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 2) AS tue,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 3) AS wed,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 4) AS thu,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 5) AS fri,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 6) AS sat,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_weekday WHERE segment = o.segment AND item = o.item AND position = 7) AS sun,
-       substr('JanFebMarAprMayJunJulAugSepOctNovDec', 3 * p.month - 2, 3) AS peak_month,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 1) AS jan,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 2) AS feb,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 3) AS mar,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 4) AS apr,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 5) AS may,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 6) AS jun,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 7) AS jul,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 8) AS aug,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 9) AS sep,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 10) AS oct,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 11) AS nov,
-       (SELECT CAST(round(idx) AS INTEGER) FROM by_month WHERE segment = o.segment AND item = o.item AND position = 12) AS "dec",
-       o.days
-FROM overall AS o JOIN peaks AS p USING (segment, item);
+SELECT o.segment, o.item, substr('MonTueWedThuFriSatSun', 3 * w.peak - 2, 3) AS peak_day,
+       w.mon, w.tue, w.wed, w.thu, w.fri, w.sat, w.sun,
+       substr('JanFebMarAprMayJunJulAugSepOctNovDec', 3 * m.peak - 2, 3) AS peak_month,
+       m.jan, m.feb, m.mar, m.apr, m.may, m.jun, m.jul, m.aug, m.sep, m.oct, m.nov, m."dec", o.days
+FROM overall AS o JOIN weekdays AS w USING (segment, item) JOIN months AS m USING (segment, item);
 -- Without @by_segment the columns are those of the report before segments.
 SELECT item, peak_day, mon, tue, wed, thu, fri, sat, sun, peak_month, jan, feb, mar, apr, may, jun, jul, aug,
        sep, oct, nov, "dec", days
 FROM temp.almanac_seasonal_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item;
-SELECT * FROM temp.almanac_seasonal_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, item;
+SELECT * FROM temp.almanac_seasonal_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, item;
 DROP TABLE temp.almanac_seasonal_rows;
-DROP VIEW temp.almanac_seasonal_segments;
-
--- A name that matches no item gets one row that says so and names the item
--- closest to it: the most letter pairs in common, ignoring case (Dice's
--- coefficient of the two sets of pairs), ties by name; as totals.sql does.
-WITH
-missing AS (
-  SELECT @item AS wanted
-  WHERE @item IS NOT NULL AND @item <> '*' AND NOT EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item)
-),
-positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
-name_pairs AS (
-  SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM sales WHERE item IS NOT NULL) AS n, positions, missing
-  WHERE positions.k < length(n.item)
-),
-wanted_pairs AS (
-  SELECT DISTINCT substr(lower(missing.wanted), positions.k, 2) AS pair
-  FROM missing, positions WHERE positions.k < length(missing.wanted)
-),
-closest AS (
-  SELECT 'no item named ' || quote(missing.wanted) || '; the closest item is '
-           || coalesce(quote((SELECT n.item FROM name_pairs AS n
-                              GROUP BY n.item
-                              ORDER BY 2.0 * count(DISTINCT CASE WHEN n.pair IN wanted_pairs THEN n.pair END)
-                                         / (count(DISTINCT n.pair) + (SELECT count(*) FROM wanted_pairs)) DESC,
-                                       n.item
-                              LIMIT 1)), 'none: the table has no items') AS message
-  FROM missing
-)
-SELECT message AS item, NULL AS peak_day, NULL AS mon, NULL AS tue, NULL AS wed, NULL AS thu, NULL AS fri,
-       NULL AS sat, NULL AS sun, NULL AS peak_month, NULL AS jan, NULL AS feb, NULL AS mar, NULL AS apr,
-       NULL AS may, NULL AS jun, NULL AS jul, NULL AS aug, NULL AS sep, NULL AS oct, NULL AS nov,
-       NULL AS "dec", NULL AS days
-FROM closest;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+DROP TABLE temp.almanac_range;

@@ -60,8 +60,18 @@
 --                 (computed on that segment's rows alone: its own range, weeks
 --                 and test) after the one of 'all segments' ('(none)' for rows
 --                 whose segment is NULL)                  default 0
---   Only whole ISO weeks (Monday to Sunday) inside [@start, @stop) are used:
---   a week cut by either end would look like a drop.
+--   @item         unset or '*': every item; a name: that item's row only (a name
+--                 that matches no item stops the report naming the closest item)
+--   @day_start    'HH:MM': weeks of business days that begin at that hour
+--   Whole periods only: only whole ISO weeks (Monday to Sunday) inside the
+--   range are used (covered_start = period_start and covered_end = period_end
+--   in period_totals): a week cut by either end would look like a drop.
+--   The range: [@start, @stop) when given; by default each segment's own
+--   days from its first sale to its last, without stray rows (a run of days
+--   more than 90 empty days and a quarter of the span away from the rest) and
+--   rows later than now, which are left out of every segment (data_range());
+--   the last line of the output says which range was used and what was left out.
+--   @unit and @last make no sense here and are refused.
 --
 -- The verdict rule:
 --   'too few periods'  fewer than 10 whole weeks: the normal approximation
@@ -74,14 +84,15 @@
 -- Columns, one row per item, rising items first:
 --   item
 --   verdict          see the rule above
---   pct_per_year     (365.2425/7) * sen_slope / mean_per_week, in percent: a
---                    year of the Sen slope next to the typical week (the mean
---                    of the weeks the slope used)
+--   pct_per_year     (365.2425/7) * sen_slope / the mean of the weeks the slope
+--                    used, in percent: a year of the Sen slope next to the
+--                    typical week in which the item trades
 --   p_value          two-sided p-value of the (seasonal) Mann-Kendall test,
 --                    rounded to 4 places (0.0: below 0.00005)
 --   test             'seasonal (ISO week)' or 'plain' (less than two whole years)
 --   weeks            whole weeks in the range
---   mean_per_week    mean weekly amount (of the weeks the Sen slope used)
+--   mean_per_week    mean weekly amount over those weeks (a week without sales as 0),
+--                    the same number as in sql/noise_ranking.sql
 --   sen_slope        Sen slope: change of the weekly amount per week
 --   ls_slope         least-squares slope, regr_slope, for comparison: a
 --                    season or one wild week can pull it far from the Sen slope
@@ -91,129 +102,78 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/trend.sql
--- The rows are gathered in a temporary table first, so that the segment column
--- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_trend_rows;
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
-DROP VIEW IF EXISTS temp.almanac_trend_segments;
-CREATE TEMP VIEW almanac_trend_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_trend_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@spark_weeks, 4) AS spark_weeks,
-         10 AS min_weeks, 104 AS seasonal_weeks, coalesce(@by_segment, 0) AS by_segment
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@spark_weeks, 4) AS spark_weeks, 10 AS min_weeks,
+         104 AS seasonal_weeks, coalesce(@by_segment, 0) AS by_segment,
+         'week' || coalesce(' from 2000-01-03 ' || @day_start, '') AS spec,
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
+  FROM temp.almanac_range
+  WHERE refuse_parameter('@unit', @unit, 'trend.sql judges whole ISO weeks; it takes no @unit') IS NULL
+    AND refuse_parameter('@last', @last, 'trend.sql judges every whole week of the range; set @start instead') IS NULL
 ),
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- 'all segments' from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing). Every item has a row for every day from
--- its segment's first sale to its last; sales = 0 on a day without any.
-days AS MATERIALIZED (
-  SELECT 'all segments' AS segment, t.item, t.period_start, t.period_end, t.sales, t.amount
-  FROM settings, period_totals('sales', 'day', settings.zone) AS t
-  UNION ALL
-  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.period_start, t.period_end, t.sales,
-         t.amount
-  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_trend_segments' END,
-                               'day', settings.zone) AS t
+-- Weekly totals, whole weeks only, an item's week without sales as 0 (period_totals' zero fill).
+weekly AS MATERIALIZED (
+  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
+         t.item, t.serial, t.sales, t.amount AS total,
+         period_position(t.period_start, 'week', 'year', settings.zone) AS week_of_year
+  FROM settings, period_totals('sales', settings.spec, settings.zone, settings.start, settings.stop) AS t
+  WHERE (t.all_segments = 1 OR settings.by_segment = 1)
+    AND t.covered_start = t.period_start AND t.covered_end = t.period_end
 ),
--- The local days of a segment's first and last sale (period_start and
--- period_end are those of a day here).
-bounds AS (
-  SELECT segment, coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
-  FROM days
-  WHERE sales > 0
-  GROUP BY segment
-),
--- Whole weeks: from the first Monday on or after start to the last Monday
--- on or before stop.
-range AS (
-  SELECT b.segment,
-         CASE WHEN period_floor(b.start, 'week', s.zone) = period_floor(b.start, 'day', s.zone)
-              THEN b.start ELSE period_end(b.start, 'week', s.zone) END AS start,
-         period_floor(b.stop, 'week', s.zone) AS stop
-  FROM bounds AS b, settings AS s
-),
-weeks AS (
-  SELECT range.segment, p.serial, period_position(p.period_start, 'week', 'year', settings.zone) AS week_of_year
-  FROM settings, range, periods(range.start, range.stop, 'week', settings.zone) AS p
-),
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM weekly WHERE segment = 'all segments'),
 span AS (
-  SELECT segment, count(*) AS weeks, min(serial) AS first, max(serial) AS last,
-         count(*) >= (SELECT seasonal_weeks FROM settings) AS seasonal
-  FROM weeks
-  GROUP BY segment
-),
--- The day totals summed per week; only weeks with sales appear here.
-weekly_sales AS (
-  SELECT d.segment, period_serial(d.period_start, 'week', settings.zone) AS serial, d.item,
-         exact_sum(d.amount) AS amount
-  FROM days AS d JOIN span USING (segment), settings
-  WHERE period_serial(d.period_start, 'week', settings.zone) BETWEEN span.first AND span.last
-  GROUP BY 1, 2, 3
-  HAVING sum(d.sales) > 0
-),
--- Every week for every item: an item's week without sales is 0, not
--- missing, or the trend would be judged on the good weeks only.
-weekly AS (
-  SELECT w.segment, i.item, w.serial, w.week_of_year, coalesce(t.amount, 0) AS total
-  FROM weeks AS w
-  JOIN (SELECT DISTINCT segment, item FROM weekly_sales) AS i USING (segment)
-  LEFT JOIN weekly_sales AS t ON t.segment = w.segment AND t.serial = w.serial AND t.item = i.item
+  SELECT segment, count(DISTINCT serial) AS weeks, min(serial) AS first,
+         count(DISTINCT serial) >= (SELECT seasonal_weeks FROM settings) AS seasonal
+  FROM weekly GROUP BY segment
 ),
 -- The season of each week for the tests: its ISO week number when the
 -- range is seasonal, else NULL; and NULL as well, in a seasonal range,
 -- for a week of the year in which the item never sold.
 seasons AS (
-  SELECT w.segment, w.item, w.serial, w.total,
+  SELECT w.segment, w.item, w.serial, w.total, w.sales,
          CASE WHEN span.seasonal AND traded.any_sales THEN w.week_of_year END AS season
   FROM weekly AS w JOIN span USING (segment)
   JOIN (SELECT segment, item, week_of_year, max(total <> 0) AS any_sales
         FROM weekly GROUP BY 1, 2, 3) AS traded USING (segment, item, week_of_year)
 ),
 fit AS (
-  SELECT s.segment, s.item, span.seasonal,
-         CASE WHEN span.seasonal THEN mann_kendall_p(s.total, s.serial, s.season)
+  SELECT s.segment, s.item, span.seasonal, CASE WHEN span.seasonal THEN mann_kendall_p(s.total, s.serial, s.season)
               ELSE mann_kendall_p(s.total, s.serial) END AS p,
          CASE WHEN span.seasonal THEN theil_sen_slope(s.total, s.serial, s.season)
               ELSE theil_sen_slope(s.total, s.serial) END AS sen,
          CASE WHEN span.seasonal THEN avg(CASE WHEN s.season IS NOT NULL THEN s.total END)
-              ELSE avg(s.total) END AS mean,
-         regr_slope(s.total, s.serial) AS ls
-  FROM seasons AS s JOIN span USING (segment)
-  GROUP BY s.segment, s.item
+              ELSE avg(s.total) END AS traded_mean,
+         avg(s.total) AS mean, regr_slope(s.total, s.serial) AS ls
+  FROM seasons AS s JOIN span USING (segment), chosen
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR s.item = chosen.item GROUP BY s.segment, s.item
+  HAVING sum(s.sales) > 0
 ),
 shape AS (
   SELECT segment, item, sparkline(total, block) AS shape
-  FROM (SELECT w.segment, w.item, (w.serial - span.first) / settings.spark_weeks AS block,
-               avg(w.total) AS total
-        FROM weekly AS w JOIN span USING (segment), settings
-        GROUP BY 1, 2, 3)
-  GROUP BY segment, item
+  FROM (SELECT w.segment, w.item, (w.serial - span.first) / settings.spark_weeks AS block, avg(w.total) AS total
+        FROM weekly AS w JOIN span USING (segment), settings GROUP BY 1, 2, 3) GROUP BY segment, item
 )
-SELECT f.segment, f.item,
-       CASE WHEN span.weeks < settings.min_weeks THEN 'too few periods'
+SELECT f.segment, f.item, CASE WHEN span.weeks < settings.min_weeks THEN 'too few periods'
             WHEN f.p IS NULL OR f.p >= 0.05 THEN 'no clear trend'
             WHEN coalesce(nullif(f.sen, 0), f.ls) > 0 THEN 'rising'
             WHEN coalesce(nullif(f.sen, 0), f.ls) < 0 THEN 'falling'
             ELSE 'no clear trend' END AS verdict,
-       round(100.0 * (365.2425 / 7) * f.sen / f.mean, 1) AS pct_per_year,
-       round(f.p, 4) AS p_value,
-       CASE WHEN f.seasonal THEN 'seasonal (ISO week)' ELSE 'plain' END AS test,
-       span.weeks,
-       round(f.mean, 2) AS mean_per_week,
-       round(f.sen, 2) AS sen_slope,
-       round(f.ls, 2) AS ls_slope,
-       s.shape,
-       row_number() OVER (PARTITION BY f.segment ORDER BY f.sen / f.mean DESC, f.item) AS place
+       round(100.0 * (365.2425 / 7) * f.sen / f.traded_mean, 1) AS pct_per_year, round(f.p, 4) AS p_value,
+       CASE WHEN f.seasonal THEN 'seasonal (ISO week)' ELSE 'plain' END AS test, span.weeks,
+       round(f.mean, 2) AS mean_per_week, round(f.sen, 2) AS sen_slope, round(f.ls, 2) AS ls_slope, s.shape,
+       row_number() OVER (PARTITION BY f.segment ORDER BY f.sen / f.traded_mean DESC, f.item) AS place
 FROM fit AS f JOIN shape AS s USING (segment, item) JOIN span USING (segment), settings;
 -- Without @by_segment the columns are those of the report before segments.
 SELECT item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
 FROM temp.almanac_trend_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY place;
 SELECT segment, item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
-FROM temp.almanac_trend_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, place;
+FROM temp.almanac_trend_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, place;
 DROP TABLE temp.almanac_trend_rows;
-DROP VIEW temp.almanac_trend_segments;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+DROP TABLE temp.almanac_range;

@@ -30,6 +30,11 @@
 --   @start   first local day, "'YYYY-MM-DD'"             default: the day of the first sale
 --   @stop    local day after the last one                default: the day after the last sale
 --   @item    unset: all items together; '*': one profile per item; a name: that item only
+--            (a name that matches no item stops the report naming the closest item)
+--   @day_start  'HH:MM': business days that begin at that hour     default: midnight
+--   Whole periods only: the days counted are whole days of the range. The
+--   range is chosen as in sql/trend.sql (stray and future rows left out and
+--   named on the last line of the output). @unit and @last are refused.
 --   @by_segment  1: a first column segment, and the profile of each segment
 --                (computed on that segment's rows alone, over its own range)
 --                after the one of 'all segments' ('(none)' for a NULL segment)   default 0
@@ -49,128 +54,58 @@
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
 --           -cmd '.mode column' shop.db < sql/weekday_profile.sql
--- The rows are gathered in a temporary table first, so that the segment column
--- appears only with @by_segment = 1; the table is dropped at the end.
+DROP TABLE IF EXISTS temp.almanac_range;
+CREATE TEMP TABLE almanac_range AS SELECT
+  data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
 DROP TABLE IF EXISTS temp.almanac_weekday_rows;
--- period_totals keys by item only: for @by_segment it reads this view, whose
--- item is [segment, item], so each segment's days are totalled on their own.
-DROP VIEW IF EXISTS temp.almanac_weekday_segments;
-CREATE TEMP VIEW almanac_weekday_segments AS
-  SELECT s.ts, json_array(coalesce(segment, '(none)'), s.item) AS item, s.qty, s.amount
-  FROM sales AS s NATURAL LEFT JOIN (SELECT NULL AS segment) AS no_segment;
 CREATE TEMP TABLE almanac_weekday_rows AS
 WITH
 settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, @item AS item_choice, coalesce(@by_segment, 0) AS by_segment
+  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
+         'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
+         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
+  FROM temp.almanac_range
+  WHERE refuse_parameter('@unit', @unit, 'weekday_profile.sql profiles days; it takes no @unit') IS NULL
+    AND refuse_parameter('@last', @last, 'weekday_profile.sql profiles every day of the range') IS NULL
 ),
--- Day totals per item, read in one pass without sorting the rows (period_totals):
--- 'all segments' from sales, and with @by_segment each segment from the view
--- above (a NULL source reads nothing); everything below is computed per
--- segment, so a segment's figures are those of the report run on that segment
--- alone. Every item has a row for every day from the first sale to the last;
--- sales = 0 on a day without any.
-day_totals AS MATERIALIZED (
-  SELECT 'all segments' AS segment, t.item, t.serial, t.period_start, t.period_end, t.sales, t.qty, t.amount
-  FROM settings, period_totals('sales', 'day', settings.zone) AS t
-  UNION ALL
-  SELECT json_extract(t.item, '$[0]'), json_extract(t.item, '$[1]'), t.serial, t.period_start, t.period_end,
-         t.sales, t.qty, t.amount
-  FROM settings, period_totals(CASE WHEN settings.by_segment = 1 THEN 'temp.almanac_weekday_segments' END,
-                               'day', settings.zone) AS t
+-- Day totals per segment and item, every day of the segment's range (period_totals' zero fill).
+totals AS MATERIALIZED (
+  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
+         t.item, t.period_start, t.sales, t.qty, t.amount
+  FROM settings, period_totals('sales', settings.day, settings.zone, settings.start, settings.stop) AS t
+  WHERE (t.all_segments = 1 OR settings.by_segment = 1)
+    AND t.covered_start = t.period_start AND t.covered_end = t.period_end
 ),
--- The local days of a segment's first and last sale, of any item.
-range AS (
-  SELECT segment, coalesce(@start, min(period_start)) AS start, coalesce(@stop, max(period_end)) AS stop
-  FROM day_totals
-  WHERE sales > 0
-  GROUP BY segment
-),
--- The chosen item's days with sales; all items together are the exact sum of
--- the items' day totals.
-chosen AS (
-  SELECT t.segment, CASE WHEN settings.item_choice IS NULL THEN 'all items' ELSE t.item END AS item,
-         t.serial AS day, exact_sum(t.qty) AS qty, exact_sum(t.amount) AS amount
-  FROM day_totals AS t, settings
-  WHERE t.sales > 0
-    AND (settings.item_choice IS NULL OR settings.item_choice = '*' OR t.item = settings.item_choice)
-  GROUP BY 1, 2, 3
-),
-daily_sales AS (
-  SELECT c.segment, c.day AS serial, c.item, c.qty, c.amount
-  FROM chosen AS c JOIN range USING (segment), settings
-  WHERE c.day >= period_serial(range.start, 'day', settings.zone)
-    AND c.day < period_serial(range.stop, 'day', settings.zone)
-),
--- Every day of the range for every item. Day serial 0 is 1970-01-01, a
--- Thursday, so (serial + 3) mod 7 counts from Monday = 0 (the outer + 7 keeps
--- days before 1970 positive).
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM totals WHERE segment = 'all segments'),
+-- The chosen item's days; all items together are the exact sum of the items' day totals.
 daily AS (
-  SELECT range.segment, i.item, ((p.serial + 3) % 7 + 7) % 7 AS weekday,
-         t.serial AS sold, t.qty, t.amount
-  FROM settings, range, periods(range.start, range.stop, 'day', settings.zone) AS p
-  JOIN (SELECT DISTINCT segment, item FROM chosen) AS i ON i.segment = range.segment
-  LEFT JOIN daily_sales AS t ON t.segment = range.segment AND t.serial = p.serial AND t.item = i.item
+  SELECT t.segment, CASE WHEN chosen.item IS NULL THEN 'all items' ELSE t.item END AS item,
+         period_position(t.period_start, 'day', 'week', settings.zone) - 1 AS weekday,
+         sum(t.sales) AS sales, exact_sum(t.qty) AS qty, exact_sum(t.amount) AS amount
+  FROM totals AS t, chosen, settings
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item GROUP BY 1, 2, t.period_start
 ),
 profile AS (
-  SELECT segment, item, weekday, count(*) AS days, count(sold) AS days_with_sales,
-         coalesce(exact_sum(qty), 0) AS qty, coalesce(exact_sum(amount), 0) AS amount,
-         avg(amount) AS mean, median(amount) AS median
-  FROM daily
-  GROUP BY segment, item, weekday
+  SELECT segment, item, weekday, count(*) AS days, count(CASE WHEN sales > 0 THEN 1 END) AS days_with_sales,
+         exact_sum(qty) AS qty, exact_sum(amount) AS amount,
+         avg(CASE WHEN sales > 0 THEN amount END) AS mean, median(CASE WHEN sales > 0 THEN amount END) AS median
+  FROM daily GROUP BY segment, item, weekday
 ),
 overall AS (
-  SELECT segment, item, exact_sum(amount) AS amount,
-         exact_sum(amount) / exact_sum(days_with_sales) AS mean_day
-  FROM profile
-  GROUP BY segment, item
+  SELECT segment, item, exact_sum(amount) AS amount, exact_sum(amount) / exact_sum(days_with_sales) AS mean_day
+  FROM profile GROUP BY segment, item
 )
 SELECT p.segment, p.weekday AS weekday_number, CASE p.weekday WHEN 0 THEN 'Monday' WHEN 1 THEN 'Tuesday' WHEN 2 THEN 'Wednesday'
          WHEN 3 THEN 'Thursday' WHEN 4 THEN 'Friday' WHEN 5 THEN 'Saturday' ELSE 'Sunday' END AS weekday,
-       p.item, p.days, p.days_with_sales, p.qty,
-       round(p.amount, 2) AS amount,
-       round(100.0 * p.amount / o.amount, 1) AS share_pct,
-       round(p.mean, 2) AS mean_per_day,
-       round(p.median, 2) AS median_per_day,
-       round(100.0 * p.mean / o.mean_day, 1) AS "index"
+       p.item, p.days, p.days_with_sales, p.qty, round(p.amount, 2) AS amount,
+       round(100.0 * p.amount / o.amount, 1) AS share_pct, round(p.mean, 2) AS mean_per_day,
+       round(p.median, 2) AS median_per_day, round(100.0 * p.mean / o.mean_day, 1) AS "index"
 FROM profile AS p JOIN overall AS o USING (segment, item);
 -- Without @by_segment the columns are those of the report before segments.
 SELECT weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day, "index"
 FROM temp.almanac_weekday_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item, weekday_number;
-SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day,
-       "index"
-FROM temp.almanac_weekday_rows WHERE @by_segment = 1
-ORDER BY segment <> 'all segments', segment, item, weekday_number;
+SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day, "index"
+FROM temp.almanac_weekday_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, item, weekday_number;
 DROP TABLE temp.almanac_weekday_rows;
-DROP VIEW temp.almanac_weekday_segments;
-
--- A name that matches no item gets one row that says so and names the item
--- closest to it: the most letter pairs in common, ignoring case (Dice's
--- coefficient of the two sets of pairs), ties by name; as totals.sql does.
-WITH
-missing AS (
-  SELECT @item AS wanted
-  WHERE @item IS NOT NULL AND @item <> '*' AND NOT EXISTS (SELECT 1 FROM sales AS s WHERE s.item = @item)
-),
-positions(k) AS (SELECT 1 UNION ALL SELECT k + 1 FROM positions WHERE k < 200),
-name_pairs AS (
-  SELECT n.item, substr(lower(n.item), positions.k, 2) AS pair
-  FROM (SELECT DISTINCT item FROM sales WHERE item IS NOT NULL) AS n, positions, missing
-  WHERE positions.k < length(n.item)
-),
-wanted_pairs AS (
-  SELECT DISTINCT substr(lower(missing.wanted), positions.k, 2) AS pair
-  FROM missing, positions WHERE positions.k < length(missing.wanted)
-),
-closest AS (
-  SELECT 'no item named ' || quote(missing.wanted) || '; the closest item is '
-           || coalesce(quote((SELECT n.item FROM name_pairs AS n
-                              GROUP BY n.item
-                              ORDER BY 2.0 * count(DISTINCT CASE WHEN n.pair IN wanted_pairs THEN n.pair END)
-                                         / (count(DISTINCT n.pair) + (SELECT count(*) FROM wanted_pairs)) DESC,
-                                       n.item
-                              LIMIT 1)), 'none: the table has no items') AS message
-  FROM missing
-)
-SELECT NULL AS weekday, message AS item, NULL AS days, NULL AS days_with_sales, NULL AS qty, NULL AS amount,
-       NULL AS share_pct, NULL AS mean_per_day, NULL AS median_per_day, NULL AS "index"
-FROM closest;
+SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+DROP TABLE temp.almanac_range;

@@ -17,7 +17,7 @@
 #include "boundary.h"
 #include "calendar_cache.h"
 #include "core/text/error.h"
-#include "core/time/period_range.h"
+#include "core/time/period_cursor.h"
 #include "period_results.h"
 
 namespace almanac::postgres {
@@ -31,7 +31,7 @@ constexpr Argument kStart{kName, 1, "start"}, kStop{kName, 2, "stop"}, kSpec{kNa
 struct PeriodWalk {
     CalendarCache cache;
     const PeriodCalendar* calendar = nullptr;
-    std::optional<PeriodRange> range;
+    std::optional<PeriodCursor> range;
     TimeArgument like{};  // start, for the results' type (its bytes are not kept)
     TimeValue like_time;
     // The current row, for the C part.

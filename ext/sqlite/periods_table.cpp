@@ -19,7 +19,7 @@
 
 #include "arguments.h"
 #include "core/text/error.h"
-#include "core/time/period_range.h"
+#include "core/time/period_cursor.h"
 #include "period_context.h"
 #include "registration.h"
 
@@ -36,7 +36,7 @@ struct Cursor {
     sqlite3_vtab_cursor base{};
     std::optional<PeriodCalendar> calendar;
     TimeValue like;
-    std::optional<PeriodRange> range;  // walks *calendar; none when there are no rows
+    std::optional<PeriodCursor> range;  // walks *calendar; none when there are no rows
     sqlite3_int64 row = 0;
     sqlite3_value* arguments[kArguments] = {nullptr, nullptr, nullptr, nullptr};
 
@@ -179,7 +179,7 @@ int next(sqlite3_vtab_cursor* base) {
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
     } catch (const Error& error) {
-        // Past the limit of periods per call (core/time/period_range.h).
+        // Past the limit of periods per call (core/time/period_cursor.h).
         try {
             return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
         } catch (const std::bad_alloc&) {

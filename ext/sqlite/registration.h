@@ -14,5 +14,8 @@ int register_order_statistics_functions(sqlite3* db);
 int register_report_functions(sqlite3* db);
 int register_export_functions(sqlite3* db);
 int register_season_functions(sqlite3* db);
+int register_name_functions(sqlite3* db);
+int register_data_range_functions(sqlite3* db);
+int register_data_check_functions(sqlite3* db);
 
 }  // namespace almanac::sqlite

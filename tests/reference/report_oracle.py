@@ -337,7 +337,8 @@ def trend(rows, zone, spark_weeks=4, start=None, stop=None):
             used = [(x, y, 0) for x, y in zip(xs, ys)]
             p = seasonal_kendall_p(used) if len(xs) >= 3 else None
         sen = median_of_slopes(used)
-        mean = statistics.fmean(y for _, y, _ in used)
+        traded_mean = statistics.fmean(y for _, y, _ in used)   # the weeks the slope used
+        mean = statistics.fmean(ys)                              # every whole week, as `weeks` counts
         ls = statistics.linear_regression(xs, ys)[0]
         direction = sen if sen else ls
         if weeks < 10:
@@ -350,8 +351,8 @@ def trend(rows, zone, spark_weeks=4, start=None, stop=None):
         for x, y in zip(xs, ys):
             blocks[(x - xs[0]) // spark_weeks].append(y)
         block_means = [statistics.fmean(blocks[b]) for b in sorted(blocks)]
-        result[item] = dict(weeks=weeks, seasonal=seasonal, p=p, sen=sen, mean=mean, ls=ls, verdict=verdict,
-                            pct_per_year=100 * (365.2425 / 7) * sen / mean,
+        result[item] = dict(weeks=weeks, seasonal=seasonal, p=p, sen=sen, mean=mean, traded_mean=traded_mean,
+                            ls=ls, verdict=verdict, pct_per_year=100 * (365.2425 / 7) * sen / traded_mean,
                             shape_levels=sparkline_levels(block_means))
     return result
 

@@ -54,8 +54,18 @@ def parameter_lines(params):
 def report(database, name, **params):
     """Rows of sql/<name>.sql as dicts, through the sqlite3 shell's JSON mode."""
     script = parameter_lines(params) + ".mode json\n" + (SQL / f"{name}.sql").read_text()
-    output = run_shell(script, database=str(database))
-    return json.loads(output) if output.strip() else []
+    return json_rows(run_shell(script, database=str(database)))
+
+
+def json_rows(output):
+    """The rows of the shell's JSON output; the range line ([{"note": ...}]) left out."""
+    # Each result set is one JSON array; the last, [{"note": "range ..."}], says which range was used.
+    decoder, sets, at = json.JSONDecoder(), [], 0
+    while output[at:].strip():
+        value, end = decoder.raw_decode(output[at:].lstrip())
+        at = len(output) - len(output[at:].lstrip()) + end
+        sets.append(value)
+    return [row for rows in sets if not (len(rows) == 1 and list(rows[0]) == ["note"]) for row in rows]
 
 
 def close(got, expected, digits):
@@ -245,7 +255,7 @@ def test_a_range_from_parameters_and_a_view_over_another_table(fixture_db, tmp_p
     script = (".parameter set @zone America/Denver\n.parameter set @unit month\n.mode json\n"
               "CREATE TEMP VIEW sales AS SELECT sold_at AS ts, product AS item, units AS qty, total AS amount"
               " FROM pos_export;\n" + (SQL / "totals.sql").read_text())
-    check_totals(json.loads(run_shell(script, database=str(other))),
+    check_totals(json_rows(run_shell(script, database=str(other))),
                  oracle.period_totals(rows, ZONE, oracle.month_of))
 
 
@@ -305,9 +315,9 @@ def test_segments_add_up_exactly_to_the_all_segments_row(partial_db, unit):
 def test_a_table_without_a_segment_column_is_one_segment(fixture_db):
     path, rows = fixture_db
     got = report(path, "totals", zone=ZONE, unit="month", by_segment=1)
-    # Rows without a segment are segment '(none)': that row equals the whole (report_oracle.period_totals).
-    check_totals(got, oracle.period_totals(rows, ZONE, oracle.month_of, by_segment=True))
-    assert {row["segment"] for row in got} == {"all segments", "(none)"}
+    # A source without a segment column has only the rollup (DESIGN: "only all_segments = 1 rows").
+    check_totals(got, oracle.period_totals(rows, ZONE, oracle.month_of))
+    assert {row["segment"] for row in got} == {"all segments"}
 
 
 # --- trend and noise -------------------------------------------------------------------------
@@ -318,18 +328,19 @@ def check_trend(got, expected):
         e = expected[row["item"]]
         assert row["weeks"] == e["weeks"]                            # oracle: whole ISO weeks by datetime
         assert row["test"] == ("seasonal (ISO week)" if e["seasonal"] else "plain")  # oracle: 104 whole weeks
-        assert close(row["mean_per_week"], e["mean"], 2)            # oracle: statistics.fmean of the weeks used
+        assert close(row["mean_per_week"], e["mean"], 2)            # oracle: statistics.fmean of every whole week
         assert close(row["sen_slope"], e["sen"], 2)                 # oracle: statistics.median of pairwise slopes
         assert close(row["ls_slope"], e["ls"], 2)                   # oracle: statistics.linear_regression
         assert close(row["p_value"], e["p"], 4)                     # oracle: brute-force (seasonal) Kendall S, Var(S)
-        assert close(row["pct_per_year"], e["pct_per_year"], 1)     # oracle: 100 * 365.2425/7 * sen / mean
+        assert close(row["pct_per_year"], e["pct_per_year"], 1)     # oracle: 100 * 365.2425/7 * sen / mean of the weeks used
         assert row["verdict"] == e["verdict"]                       # oracle: the header's rule on the values above
         shape = row["shape"]
         assert len(shape) == len(e["shape_levels"])                 # oracle: one block per 4 weeks
         for char, levels in zip(shape, e["shape_levels"]):
             assert ord(char) - 0x2581 in levels                     # oracle: the README sparkline rule on fmean of blocks
     # The report lists rising items first: by Sen slope relative to the mean, descending.
-    assert [row["item"] for row in got] == sorted(expected, key=lambda i: (-expected[i]["sen"] / expected[i]["mean"], i))
+    assert [row["item"] for row in got] == sorted(
+        expected, key=lambda i: (-expected[i]["sen"] / expected[i]["traded_mean"], i))
     count("trend rows", len(got))
 
 
@@ -514,26 +525,25 @@ def dice_closest(wanted, names):
 @pytest.mark.parametrize("wanted", ["flat te", "Winter Sop", "Zzz"])
 def test_an_item_that_matches_nothing_names_the_closest_item(partial_db, name, wanted):
     path, rows = partial_db
-    output = run_shell(parameter_lines({"zone": ZONE, "item": wanted}) + ".mode json\n"
-                       + (SQL / f"{name}.sql").read_text(), database=str(path))
-    got = json.loads(output)
     names = sorted({row[1] for row in rows})
-    # One row, no chart; the closest name by Dice's coefficient of the sets of letter pairs,
-    # ignoring case, ties by name (from memory: Dice 1945, "Measures of the amount of
-    # ecologic association between species"), computed here in Python.
-    expected = f"no item named '{wanted}'; the closest item is '{dice_closest(wanted, names)}'"
-    assert len(got) == 1 and "<svg" not in output
-    assert [value for value in got[0].values() if value is not None] == [expected]
-    assert got[0].get("item", expected) == expected   # table reports say it in the item column
+    # The report stops with known_name's message; the closest name by Dice's coefficient of the
+    # sets of letter pairs, ignoring case, ties by name (from memory: Dice 1945, "Measures of the
+    # amount of ecologic association between species"), computed here in Python.
+    expected = (f"known_name(): argument 2 (wanted) = '{wanted}': expected one of the items; "
+                f"the closest is '{dice_closest(wanted, names)}'")
+    with pytest.raises(RuntimeError) as stopped:
+        run_shell(parameter_lines({"zone": ZONE, "item": wanted}) + ".mode json\n"
+                  + (SQL / f"{name}.sql").read_text(), database=str(path))
+    assert expected in str(stopped.value)
 
 
 def test_the_closest_item_of_the_fixture_by_hand(partial_db):
     path, _ = partial_db
     # worked by hand (from memory: Dice's coefficient): 'flat te' shares fl la at t- -t te with 'Flat tea' (Dice 12/13), more than any other name.
-    assert report(path, "totals", zone=ZONE, item="flat te")[0]["item"] == \
-        "no item named 'flat te'; the closest item is 'Flat tea'"
-    assert report(path, "compare", zone=ZONE, item="Winter Sop")[0]["item"] == \
-        "no item named 'Winter Sop'; the closest item is 'Winter soup'"
+    for name, wanted, closest in [("totals", "flat te", "Flat tea"), ("compare", "Winter Sop", "Winter soup")]:
+        with pytest.raises(RuntimeError) as stopped:
+            report(path, name, zone=ZONE, item=wanted)
+        assert f"= '{wanted}': expected one of the items; the closest is '{closest}'" in str(stopped.value)
 
 
 # --- the chart -------------------------------------------------------------------------------

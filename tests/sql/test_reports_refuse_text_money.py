@@ -14,7 +14,8 @@ import pytest
 
 from conftest import MODULE, SOURCE
 
-REPORTS = sorted((SOURCE / "sql").glob("*.sql"))
+# sql/data_check.sql is the one that must not stop: it lists such rows (test_reports_planted_faults.py).
+REPORTS = sorted(r for r in (SOURCE / "sql").glob("*.sql") if r.name != "data_check.sql")
 # The hint both refusals end with (the README "Reading shop exports": "'1,050.00'
 # stops a report instead of counting as 1").
 HINT = ("expected a number; money or quantities written as text must be read with to_amount() "

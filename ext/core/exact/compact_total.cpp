@@ -66,6 +66,33 @@ void CompactTotal::add_real(double v) {
     has_value_ = has_real_ = true;
 }
 
+void CompactTotal::add(const CompactTotal& other) {
+    if (!other.has_value_) return;
+    if (!spilled_ && !other.spilled_) {
+        // Both in the fast form: one term when the other's integer has at most 64 bits.
+        bool negative = other.narrow_ < 0;
+        Uint128 magnitude = negative ? Uint128(0) - Uint128(other.narrow_) : Uint128(other.narrow_);
+        if (magnitude >> 64 == 0 &&
+            (magnitude == 0 || add_to_narrow(narrow_, exponent_, static_cast<std::uint64_t>(magnitude),
+                                             other.exponent_, negative))) {
+            has_value_ = true;
+            has_real_ = has_real_ || other.has_real_;
+            return;
+        }
+    }
+    if (!spilled_) spill();
+    // The REAL total first, as in add_integer: it is the one that can run out of memory.
+    if (other.spilled_) {
+        spilled_->reals.add(other.spilled_->reals, 0);
+    } else {
+        other.add_narrow_into(spilled_->reals);
+    }
+    // The integer total means something only while no REAL came, on either side.
+    if (!other.has_real_) spilled_->integers += other.spilled_ ? other.spilled_->integers : other.narrow_;
+    has_value_ = true;
+    has_real_ = has_real_ || other.has_real_;
+}
+
 std::optional<ExactTotal::Value> CompactTotal::value() const {
     if (!has_value_) return std::nullopt;
     constexpr auto kLeast = std::numeric_limits<std::int64_t>::min();

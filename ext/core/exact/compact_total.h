@@ -30,6 +30,10 @@ class CompactTotal {
     void add_integer(std::int64_t v);
     // v must be finite (the reader refuses infinities first).
     void add_real(double v);
+    // Adds every value `other` holds, exactly: afterwards value() is what one
+    // total over both runs of values gives, so totals read in parts (by
+    // segment, by thread) merge without a rounding.
+    void add(const CompactTotal& other);
     // The same as ExactTotal::value() over the same values.
     std::optional<ExactTotal::Value> value() const;
 

@@ -126,3 +126,37 @@ TEST_CASE("a CompactTotal is small") {
     // The reason it exists: period_totals keeps two per item and period.
     CHECK(sizeof(CompactTotal) <= 32);
 }
+
+TEST_CASE("totals of two runs merged give one total's answer over both, whatever the split") {
+    // ExactTotal over the whole run is the reference (compared with math.fsum elsewhere).
+    std::mt19937_64 random(7);
+    for (int series = 0; series < 2000; ++series) {
+        int kind = series % 4;
+        int length = std::uniform_int_distribution<int>(0, 80)(random);
+        std::vector<Term> terms;
+        for (int n = 0; n < length; ++n) terms.push_back(random_term(random, kind));
+        // Mixed kinds across the split: integers on one side, reals on the other.
+        if (series % 7 == 0 && !terms.empty()) terms.front() = random_term(random, (kind + 1) % 4);
+        ExactTotal reference;
+        for (const Term& term : terms) {
+            if (term.integer) {
+                reference.add_integer(term.i);
+            } else {
+                reference.add_real(term.r);
+            }
+        }
+        std::size_t split = std::uniform_int_distribution<std::size_t>(0, terms.size())(random);
+        CompactTotal left, right;
+        for (std::size_t n = 0; n < terms.size(); ++n) {
+            CompactTotal& side = n < split ? left : right;
+            if (terms[n].integer) {
+                side.add_integer(terms[n].i);
+            } else {
+                side.add_real(terms[n].r);
+            }
+        }
+        left.add(right);
+        INFO("series " << series << " split " << split);
+        REQUIRE(same(left.value(), reference.value()));
+    }
+}

@@ -3,64 +3,56 @@
 
 #include <catch2/catch.hpp>
 
-#include "core/text/error.h"
-#include "core/time/calendar_from_text.h"
+#include "core/time/time_value.h"
 
 using namespace almanac;
 
-TEST_CASE("a range lists every period that overlaps it, in order, partial ones included") {
-    // 2026-03-01 is a Sunday: its ISO week starts Monday 2026-02-23; the range
-    // to 2026-03-20 (a Friday) touches four weeks (common practice, ISO 8601).
-    PeriodCalendar calendar = calendar_from_text("week", std::nullopt);
-    PeriodRange range(calendar, parse_time_text("2026-03-01").utc_instant(),
-                      parse_time_text("2026-03-20").utc_instant());
-    std::vector<std::string> labels;
-    for (; !range.done(); range.advance()) labels.push_back(calendar.label(range.current()));
-    CHECK(labels == std::vector<std::string>{"2026-W09", "2026-W10", "2026-W11", "2026-W12"});
+namespace {
+Instant at(const char* text) { return parse_time_text(text).utc_instant(); }
+PeriodCalendar calendar_of(const char* spec, const char* zone = nullptr) {
+    return PeriodCalendar(parse_period_spec(spec), zone ? ZoneClock::named(zone) : ZoneClock::utc());
+}
+}  // namespace
+
+TEST_CASE("the data's range runs from the local day of the earliest row to the end of the latest's") {
+    // Denver is UTC-7 in January (tzdata): local midnight of 2026-01-07 is 07:00 UTC.
+    PeriodCalendar weeks = calendar_of("week", "America/Denver");
+    PeriodRange range = covering_range(weeks, std::nullopt, std::nullopt, at("2026-01-07 10:00"),
+                                       at("2026-01-20 03:00"));
+    CHECK(range.start == at("2026-01-07 07:00"));  // 03:00 local on the 7th: that day's midnight
+    CHECK(range.stop == at("2026-01-20 07:00"));   // 20:00 local on the 19th: the 20th's midnight
+    CHECK(range.periods() == 3);                   // weeks of Jan 5, 12 and 19 (ISO weeks)
+    Period first = weeks.period_by_serial(range.first_serial);
+    Coverage part = coverage_of(first, range);
+    CHECK(part.start == range.start);  // the first week covered from Wednesday
+    CHECK(part.end == first.end);
 }
 
-TEST_CASE("an empty or reversed range has no periods") {
-    PeriodCalendar calendar = calendar_from_text("day", std::nullopt);
-    Instant t = parse_time_text("2026-03-01").utc_instant();
-    CHECK(PeriodRange(calendar, t, t).done());
-    CHECK(PeriodRange(calendar, t + Millis(1), t).done());
+TEST_CASE("sub-day units take whole periods of the earliest and latest rows") {
+    PeriodCalendar hours = calendar_of("hour");
+    PeriodRange range = covering_range(hours, std::nullopt, std::nullopt, at("2026-01-07 10:20"),
+                                       at("2026-01-07 12:05"));
+    CHECK(range.start == at("2026-01-07 10:00"));
+    CHECK(range.stop == at("2026-01-07 13:00"));
+    CHECK(range.periods() == 3);
 }
 
-TEST_CASE("a range of more periods than the limit stops with an error saying how many") {
-    PeriodCalendar calendar = calendar_from_text("second", std::nullopt);
-    Instant start = parse_time_text("2000-01-01").utc_instant();
-    PeriodRange range(calendar, start, start + std::chrono::hours(24 * 366));
-    std::int64_t rows = 1;
-    try {
-        while (!range.done()) {
-            range.advance();
-            ++rows;
-        }
-        FAIL("no error");
-    } catch (const Error& error) {
-        // 366 days of seconds (from memory: 86400 seconds a day).
-        CHECK(std::string(error.what()).find("the range holds 31622400 periods") == 0);
-        CHECK(rows == PeriodRange::kMostPeriods);
-    }
+TEST_CASE("given bounds are used as they are; an empty range lists no period") {
+    PeriodCalendar months = calendar_of("month");
+    PeriodRange range = covering_range(months, at("2026-01-15"), std::nullopt, at("2026-01-01"),
+                                       at("2026-03-02 09:00"));
+    CHECK(range.start == at("2026-01-15"));
+    CHECK(range.stop == at("2026-03-03"));
+    CHECK(range.periods() == 3);
+    CHECK(covering_range(months, at("2026-02-01"), at("2026-02-01")).periods() == 0);
 }
 
-TEST_CASE("calendar texts say which of spec and zone was wrong") {
-    try {
-        calendar_from_text("wek", std::nullopt);
-        FAIL("no error");
-    } catch (const CalendarTextError& error) {
-        CHECK(error.culprit() == CalendarTextError::Culprit::Spec);
-    }
-    try {
-        calendar_from_text("week", std::string_view("Mars/Base"));
-        FAIL("no error");
-    } catch (const CalendarTextError& error) {
-        CHECK(error.culprit() == CalendarTextError::Culprit::Zone);
-    }
-    try {
-        position_from_text("week", "month", std::nullopt);
-        FAIL("no error");
-    } catch (const CalendarTextError& error) {
-        CHECK(error.culprit() == CalendarTextError::Culprit::Cycle);
-    }
+TEST_CASE("a bound inside a day is written as a date-time, a day start as a date") {
+    PeriodCalendar days = calendar_of("day", "Europe/Berlin");
+    // Berlin is UTC+1 in January (tzdata).
+    CHECK(format_range_bound(days, at("2026-01-06 23:00")) == "2026-01-07");
+    CHECK(format_range_bound(days, at("2026-01-07 11:30")) == "2026-01-07 12:30:00+01:00");
+    CHECK(format_range_bound(calendar_of("week"), at("2026-01-07 11:30:00.250")) ==
+          "2026-01-07 11:30:00.250");
+    CHECK(format_range_bound(calendar_of("hour"), at("2026-01-07 11:00")) == "2026-01-07 11:00:00");
 }
