@@ -31,6 +31,8 @@ Where things go, and why:
 - Stopping: pg_ctl stop -m fast, then -m immediate, then SIGKILL of the
   postmaster named in postmaster.pid; then the folder is removed.
 """
+import contextlib
+import json
 import os
 import pathlib
 import pwd
@@ -208,3 +210,40 @@ class Server:
 
     def server_log(self):
         return self.log.read_text() if self.log.exists() else ""
+
+
+@contextlib.contextmanager
+def almanac_server(name, rows=None, **options):
+    """A connection to a server of our own with CREATE EXTENSION almanac done and, when
+    rows are given, the seeded sales (seeded_sales.py) loaded into `sales`."""
+    import seeded_sales
+    with PrivateInstallation() as installation, Server(installation, name, **options) as server:
+        connection = server.connect()
+        try:
+            connection.cursor().execute("CREATE EXTENSION almanac")
+            if rows is not None:
+                seeded_sales.load_postgres(connection, rows)
+            yield connection
+        finally:
+            connection.close()
+
+
+def run(connection, settings, sql):
+    """The rows of sql, after the SET commands in settings."""
+    with connection.cursor() as cursor:
+        cursor.execute(settings)
+        cursor.execute(sql)
+        return cursor.fetchall()
+
+
+def explained_plan(connection, settings, sql, options="VERBOSE"):
+    """The root of EXPLAIN (options, FORMAT JSON) sql: PostgreSQL's own account of its plan."""
+    explained = run(connection, settings, f"EXPLAIN ({options}, FORMAT JSON) {sql}")[0][0]
+    return (explained if isinstance(explained, list) else json.loads(explained))[0]["Plan"]
+
+
+def plan_nodes(plan):
+    """Every node of a plan, the root first."""
+    yield plan
+    for child in plan.get("Plans", []):
+        yield from plan_nodes(child)
