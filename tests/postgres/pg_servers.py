@@ -63,9 +63,14 @@ def server_account():
     try:
         entry = pwd.getpwnam(SERVER_USER)
     except KeyError:
-        subprocess.run(["useradd", "--system", "--no-create-home", "--home-dir", "/nonexistent",
-                        "--shell", "/usr/sbin/nologin", SERVER_USER], check=True, capture_output=True)
-        entry = pwd.getpwnam(SERVER_USER)
+        # Two test files started at once may both get here: whichever useradd loses
+        # finds the user made by the other.
+        made = subprocess.run(["useradd", "--system", "--no-create-home", "--home-dir", "/nonexistent",
+                               "--shell", "/usr/sbin/nologin", SERVER_USER], capture_output=True, text=True)
+        try:
+            entry = pwd.getpwnam(SERVER_USER)
+        except KeyError:
+            raise RuntimeError(f"useradd {SERVER_USER} failed: {made.stderr}") from None
     return entry.pw_uid, entry.pw_gid
 
 
@@ -174,9 +179,10 @@ class Server:
         self.stop()
 
     def _run(self, program, *args, timeout=120):
-        result = subprocess.run([str(self.installation.bindir / program), *args], user=self.uid,
-                                group=self.gid, extra_groups=[], cwd=self.folder, capture_output=True,
-                                text=True, timeout=timeout)
+        # As root, the program runs as the server's user, with no other groups.
+        account = {"user": self.uid, "group": self.gid, "extra_groups": []} if os.geteuid() == 0 else {}
+        result = subprocess.run([str(self.installation.bindir / program), *args], **account, cwd=self.folder,
+                                capture_output=True, text=True, timeout=timeout)
         if result.returncode != 0:
             log = self.log.read_text() if self.log.exists() else ""
             raise RuntimeError(f"{program} {' '.join(args)} failed ({result.returncode}):\n"
