@@ -7,6 +7,12 @@ when a test fails:
     with PrivateInstallation() as installation, Server(installation, "single") as server:
         with server.connect() as connection: ...
 
+The tests are ctests with the label postgres (tests/postgres/CMakeLists.txt,
+when the build has ALMANAC_POSTGRES); one file by hand, after building the
+targets almanac and almanac_postgres:
+
+    cd tests && ALMANAC_BUILD=../build /usr/bin/python3 -m pytest -q postgres/test_sharded.py
+
 Where things go, and why:
 
 - Everything lives in one temporary folder under /tmp (mode 0755): the checkout
