@@ -26,7 +26,7 @@ import sys
 import time
 
 sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent))
-from pg_servers import SOURCE, PrivateInstallation, Server  # noqa: E402
+from pg_servers import SOURCE, almanac_server, explained_plan, plan_nodes  # noqa: E402
 
 MODULE = os.environ.get("ALMANAC_MODULE", str(SOURCE / "build" / "almanac.so"))
 ROWS = int(sys.argv[1]) if len(sys.argv) > 1 else 10_000_000
@@ -67,6 +67,11 @@ WORKERS = ("SET max_parallel_workers_per_gather = {n}; SET parallel_setup_cost =
            "SET min_parallel_table_scan_size = 0")
 
 
+def fetch(cursor, sql):
+    cursor.execute(sql)
+    return cursor.fetchall()
+
+
 def best(run):
     times, answer = [], None
     for _ in range(REPEAT):
@@ -88,35 +93,23 @@ def main():
     lite.close()
 
     settings = {"shared_buffers": "'1GB'", "work_mem": "'256MB'", "max_parallel_workers_per_gather": "2"}
-    with PrivateInstallation() as installation, Server(installation, "bench", settings=settings) as server:
-        pg = server.connect()
+    with almanac_server("bench", settings=settings) as pg:
         cursor = pg.cursor()
-        cursor.execute("CREATE EXTENSION almanac")
         began = time.perf_counter()
         cursor.execute(PG_GENERATE)
         print(f"  PostgreSQL: {ROWS:,} rows made in {time.perf_counter() - began:.1f} s")
         cursor.execute("SELECT count(*) FROM sales")  # a first scan, so every timed scan finds the table cached
         results = {}
         for n in (0, 2):
-            cursor.execute(WORKERS.format(n=n))
-            cursor.execute(f"EXPLAIN (ANALYZE, FORMAT JSON) {PG_WEEKLY}")
-            plan = cursor.fetchone()[0][0]["Plan"]
-            launched = sum(node.get("Workers Launched", 0) for node in walk(plan))
-            shape = " > ".join(f"{node.get('Partial Mode', '')} {node['Node Type']}".strip()
-                               for node in walk(plan) if node["Node Type"] in ("Aggregate", "Gather", "Gather Merge", "Sort"))
-            shape += " (" + ", ".join(node["Strategy"] for node in walk(plan) if "Strategy" in node) + ")"
-
-            def weekly():
-                cursor.execute(PG_WEEKLY)
-                return cursor.fetchall()
-            results[n] = best(weekly) + (f"{launched} workers launched; {shape}",)
+            plan = explained_plan(pg, WORKERS.format(n=n), PG_WEEKLY, options="ANALYZE")
+            nodes = list(plan_nodes(plan))
+            launched = sum(node.get("Workers Launched", 0) for node in nodes)
+            shape = " > ".join(f"{node.get('Partial Mode', '')} {node['Node Type']}".strip() for node in nodes
+                               if node["Node Type"] in ("Aggregate", "Gather", "Gather Merge", "Sort"))
+            shape += " (" + ", ".join(node["Strategy"] for node in nodes if "Strategy" in node) + ")"
+            results[n] = best(lambda: fetch(cursor, PG_WEEKLY)) + (f"{launched} workers launched; {shape}",)
         cursor.execute(WORKERS.format(n=0))
-
-        def own():
-            cursor.execute(PG_OWN)
-            return cursor.fetchall()
-        own_seconds, _ = best(own)
-        pg.close()
+        own_seconds, _ = best(lambda: fetch(cursor, PG_OWN))
 
     rows = [("SQLite period_totals", lite_seconds, ""),
             ("PostgreSQL moving_mean, 0 workers", results[0][0], results[0][2]),
@@ -128,12 +121,6 @@ def main():
     same = lite_answer == results[0][1] == results[2][1]
     print(f"  groups: {len(lite_answer):,}; the three ways' means are {'bit-identical' if same else 'DIFFERENT'}")
     return 0 if same and lite_answer else 1
-
-
-def walk(plan):
-    yield plan
-    for child in plan.get("Plans", []):
-        yield from walk(child)
 
 
 if __name__ == "__main__":

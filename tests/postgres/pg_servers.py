@@ -7,6 +7,12 @@ when a test fails:
     with PrivateInstallation() as installation, Server(installation, "single") as server:
         with server.connect() as connection: ...
 
+The tests are ctests with the label postgres (tests/postgres/CMakeLists.txt,
+when the build has ALMANAC_POSTGRES); one file by hand, after building the
+targets almanac and almanac_postgres:
+
+    cd tests && ALMANAC_BUILD=../build /usr/bin/python3 -m pytest -q postgres/test_sharded.py
+
 Where things go, and why:
 
 - Everything lives in one temporary folder under /tmp (mode 0755): the checkout
@@ -31,6 +37,8 @@ Where things go, and why:
 - Stopping: pg_ctl stop -m fast, then -m immediate, then SIGKILL of the
   postmaster named in postmaster.pid; then the folder is removed.
 """
+import contextlib
+import json
 import os
 import pathlib
 import pwd
@@ -61,9 +69,14 @@ def server_account():
     try:
         entry = pwd.getpwnam(SERVER_USER)
     except KeyError:
-        subprocess.run(["useradd", "--system", "--no-create-home", "--home-dir", "/nonexistent",
-                        "--shell", "/usr/sbin/nologin", SERVER_USER], check=True, capture_output=True)
-        entry = pwd.getpwnam(SERVER_USER)
+        # Two test files started at once may both get here: whichever useradd loses
+        # finds the user made by the other.
+        made = subprocess.run(["useradd", "--system", "--no-create-home", "--home-dir", "/nonexistent",
+                               "--shell", "/usr/sbin/nologin", SERVER_USER], capture_output=True, text=True)
+        try:
+            entry = pwd.getpwnam(SERVER_USER)
+        except KeyError:
+            raise RuntimeError(f"useradd {SERVER_USER} failed: {made.stderr}") from None
     return entry.pw_uid, entry.pw_gid
 
 
@@ -172,9 +185,10 @@ class Server:
         self.stop()
 
     def _run(self, program, *args, timeout=120):
-        result = subprocess.run([str(self.installation.bindir / program), *args], user=self.uid,
-                                group=self.gid, extra_groups=[], cwd=self.folder, capture_output=True,
-                                text=True, timeout=timeout)
+        # As root, the program runs as the server's user, with no other groups.
+        account = {"user": self.uid, "group": self.gid, "extra_groups": []} if os.geteuid() == 0 else {}
+        result = subprocess.run([str(self.installation.bindir / program), *args], **account, cwd=self.folder,
+                                capture_output=True, text=True, timeout=timeout)
         if result.returncode != 0:
             log = self.log.read_text() if self.log.exists() else ""
             raise RuntimeError(f"{program} {' '.join(args)} failed ({result.returncode}):\n"
@@ -208,3 +222,40 @@ class Server:
 
     def server_log(self):
         return self.log.read_text() if self.log.exists() else ""
+
+
+@contextlib.contextmanager
+def almanac_server(name, rows=None, **options):
+    """A connection to a server of our own with CREATE EXTENSION almanac done and, when
+    rows are given, the seeded sales (seeded_sales.py) loaded into `sales`."""
+    import seeded_sales
+    with PrivateInstallation() as installation, Server(installation, name, **options) as server:
+        connection = server.connect()
+        try:
+            connection.cursor().execute("CREATE EXTENSION almanac")
+            if rows is not None:
+                seeded_sales.load_postgres(connection, rows)
+            yield connection
+        finally:
+            connection.close()
+
+
+def run(connection, settings, sql):
+    """The rows of sql, after the SET commands in settings."""
+    with connection.cursor() as cursor:
+        cursor.execute(settings)
+        cursor.execute(sql)
+        return cursor.fetchall()
+
+
+def explained_plan(connection, settings, sql, options="VERBOSE"):
+    """The root of EXPLAIN (options, FORMAT JSON) sql: PostgreSQL's own account of its plan."""
+    explained = run(connection, settings, f"EXPLAIN ({options}, FORMAT JSON) {sql}")[0][0]
+    return (explained if isinstance(explained, list) else json.loads(explained))[0]["Plan"]
+
+
+def plan_nodes(plan):
+    """Every node of a plan, the root first."""
+    yield plan
+    for child in plan.get("Plans", []):
+        yield from plan_nodes(child)

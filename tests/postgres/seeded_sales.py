@@ -17,6 +17,7 @@ isoweekday()), a season; amount has NULLs, negative returns, cents, values
 near 1e12 and near 1e-7 (so an inexact sum shows); qty is an integer.
 Times are unique, so every order by x or ts is total.
 """
+import contextlib
 import datetime
 import io
 import random
@@ -121,6 +122,18 @@ def load_sqlite(connection, rows, name="sales"):
     connection.executemany(f"INSERT INTO {name} VALUES ({','.join('?' * len(COLUMNS))})",
                            [r[:5] + (r[8],) + r[6:] for r in rows])
     connection.commit()
+
+
+@contextlib.contextmanager
+def sqlite_sales(rows):
+    """A SQLite connection with the built almanac loaded and the rows in `sales`."""
+    from conftest import connect
+    connection = connect()
+    try:
+        load_sqlite(connection, rows)
+        yield connection
+    finally:
+        connection.close()
 
 
 def pg_copy_text(rows):

@@ -15,7 +15,7 @@ import psycopg2
 import pytest
 
 from conftest import connect
-from pg_servers import PrivateInstallation, Server
+from pg_servers import almanac_server
 
 LONG_SPEC = "d" * 201
 # (SQLite expression, PostgreSQL expression); None: the same text
@@ -97,11 +97,8 @@ CASES = [
 
 @pytest.fixture(scope="module")
 def pg():
-    with PrivateInstallation() as installation, Server(installation, "errors") as server:
-        connection = server.connect()
-        connection.cursor().execute("CREATE EXTENSION almanac")
+    with almanac_server("errors") as connection:
         yield connection
-        connection.close()
 
 
 def sqlite_message(sql):

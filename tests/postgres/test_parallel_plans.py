@@ -20,7 +20,7 @@ import pytest
 
 import engine_answers
 import seeded_sales
-from pg_servers import PrivateInstallation, Server
+from pg_servers import almanac_server, explained_plan, plan_nodes, run
 
 ROWS = 100_000
 FORCE_PARALLEL = ("SET max_parallel_workers_per_gather = 2; SET parallel_setup_cost = 0; "
@@ -54,10 +54,7 @@ SAMPLE = {"svg_line_chart", "svg_bar_chart", "theil_sen_slope", "theil_sen_slope
 
 @pytest.fixture(scope="module")
 def pg():
-    with PrivateInstallation() as installation, Server(installation, "parallel") as server:
-        connection = server.connect()
-        connection.cursor().execute("CREATE EXTENSION almanac")
-        seeded_sales.load_postgres(connection, seeded_sales.generate(ROWS, seed=5))
+    with almanac_server("parallel", seeded_sales.generate(ROWS, seed=5)) as connection:
         # Statistics on the weekly key, so the planner knows there are about 160 weeks,
         # not a group per row, and aggregates partially in the workers.
         connection.cursor().execute(
@@ -66,20 +63,6 @@ def pg():
             "CREATE STATISTICS sales_sample_week ON (period_floor(ts, 'week')) FROM sales_sample; "
             "ANALYZE sales; ANALYZE sales_sample")
         yield connection
-        connection.close()
-
-
-def run(pg, settings, sql):
-    with pg.cursor() as cursor:
-        cursor.execute(settings)
-        cursor.execute(sql)
-        return cursor.fetchall()
-
-
-def nodes(plan):
-    yield plan
-    for child in plan.get("Plans", []):
-        yield from nodes(child)
 
 
 def test_every_aggregate_is_parallel_safe_with_a_combine_function(pg):
@@ -109,9 +92,8 @@ def test_parallel_plan(pg, name, grouped):
         sql = f"SELECT period_floor(ts, 'week'), {call} FROM {table} GROUP BY 1 ORDER BY 1"
     else:
         sql = f"SELECT {call} FROM {table}"
-    explained = run(pg, FORCE_PARALLEL, f"EXPLAIN (ANALYZE, VERBOSE, FORMAT JSON) {sql}")[0][0]
-    plan = (explained if isinstance(explained, list) else json.loads(explained))[0]["Plan"]
-    every = list(nodes(plan))
+    plan = explained_plan(pg, FORCE_PARALLEL, sql, options="ANALYZE, VERBOSE")
+    every = list(plan_nodes(plan))
     # source: PostgreSQL's EXPLAIN; a parallel aggregate is Finalize above Gather above Partial
     finalize = [n for n in every if n.get("Partial Mode") == "Finalize"]
     partial = [n for n in every if n.get("Partial Mode") == "Partial"]

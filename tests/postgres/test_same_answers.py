@@ -18,10 +18,9 @@ instant, local wall-clock TEXT for a timestamp, a TEXT date for a date.
 """
 import pytest
 
-from conftest import connect
 import engine_answers
 import seeded_sales
-from pg_servers import PrivateInstallation, Server
+from pg_servers import almanac_server
 
 ROWS = 120_000
 counts = {}
@@ -34,20 +33,14 @@ def rows():
 
 @pytest.fixture(scope="module")
 def lite(rows):
-    connection = connect()
-    seeded_sales.load_sqlite(connection, rows)
-    yield connection
-    connection.close()
+    with seeded_sales.sqlite_sales(rows) as connection:
+        yield connection
 
 
 @pytest.fixture(scope="module")
 def pg(rows):
-    with PrivateInstallation() as installation, Server(installation, "single") as server:
-        connection = server.connect()
-        connection.cursor().execute("CREATE EXTENSION almanac")
-        seeded_sales.load_postgres(connection, rows)
+    with almanac_server("single", rows) as connection:
         yield connection
-        connection.close()
     print(f"\ncompared values: {counts}")
 
 
@@ -84,32 +77,24 @@ def spec_id(case):
 
 
 @pytest.mark.parametrize("case", SPECS, ids=spec_id)
-def test_period_functions_on_text_times(lite, pg, case):
+def test_period_functions_on_text_and_timestamptz(lite, pg, case):
     spec, zoned = case
     z = ", zone" if zoned else ""
-    columns = (f"period_floor({{t}}, '{spec}'{z}), period_end({{t}}, '{spec}'{z}), "
-               f"period_label({{t}}, '{spec}'{z}), period_serial({{t}}, '{spec}'{z}), "
-               f"period_shift({{t}}, 3, '{spec}'{z}), period_shift({{t}}, -14, '{spec}'{z})")
     rows = share(SPECS, case)
-    check(f"text {spec_id(case)}", lite, pg,
-          f"SELECT id, {columns.format(t='ts_text')} FROM sales WHERE {rows} ORDER BY id",
-          f"SELECT id, {columns.format(t='ts_text')} FROM sales WHERE {rows} ORDER BY id")
-
-
-@pytest.mark.parametrize("case", SPECS, ids=spec_id)
-def test_period_functions_on_timestamptz(lite, pg, case):
+    # TEXT times, the same in both engines
+    columns = (f"period_floor(ts_text, '{spec}'{z}), period_end(ts_text, '{spec}'{z}), "
+               f"period_label(ts_text, '{spec}'{z}), period_serial(ts_text, '{spec}'{z}), "
+               f"period_shift(ts_text, 3, '{spec}'{z}), period_shift(ts_text, -14, '{spec}'{z})")
+    query = f"SELECT id, {{columns}} FROM sales WHERE {rows} ORDER BY id"
+    check(f"text {spec_id(case)}", lite, pg, query.format(columns=columns), query.format(columns=columns))
     # An instant: PostgreSQL's timestamptz against SQLite's Unix seconds (x).
-    spec, zoned = case
-    z = ", zone" if zoned else ""
-    pg_columns = (f"extract(epoch FROM period_floor(ts, '{spec}'{z})), extract(epoch FROM period_end(ts, '{spec}'{z})), "
-                  f"period_label(ts, '{spec}'{z}), period_serial(ts, '{spec}'{z}), "
-                  f"extract(epoch FROM period_shift(ts, 3, '{spec}'{z}))")
-    lite_columns = (f"period_floor(x, '{spec}'{z}), period_end(x, '{spec}'{z}), period_label(x, '{spec}'{z}), "
-                    f"period_serial(x, '{spec}'{z}), period_shift(x, 3, '{spec}'{z})")
-    rows = share(SPECS, case)
-    check(f"timestamptz {spec_id(case)}", lite, pg,
-          f"SELECT id, {lite_columns} FROM sales WHERE {rows} ORDER BY id",
-          f"SELECT id, {pg_columns} FROM sales WHERE {rows} ORDER BY id", numeric_ok=True)
+    calls = [f"period_floor({{t}}, '{spec}'{z})", f"period_end({{t}}, '{spec}'{z})", f"period_label({{t}}, '{spec}'{z})",
+             f"period_serial({{t}}, '{spec}'{z})", f"period_shift({{t}}, 3, '{spec}'{z})"]
+    lite_columns = ", ".join(call.format(t="x") for call in calls)
+    pg_columns = ", ".join(call.format(t="ts") if "label" in call or "serial" in call
+                           else f"extract(epoch FROM {call.format(t='ts')})" for call in calls)
+    check(f"timestamptz {spec_id(case)}", lite, pg, query.format(columns=lite_columns),
+          query.format(columns=pg_columns), numeric_ok=True)
 
 
 @pytest.mark.parametrize("spec", LOCAL_SPECS)
@@ -235,13 +220,20 @@ FAMILIES = {
     "moments": ("", "resid_sd(amount, x), slope_stderr(amount, x), ewma(amount, x, 604800.0), "
                     "ewma(amount, {t}, '2 weeks'), ewma(amount, ts_text, '5 days'), ewma(amount, local, 'PT36H'), "
                     "ewma(amount, day, 'P7D')"),
-    "sparkline": ("sparkline(amount, x), sparkline(qty, {t}), sparkline(amount, local), sparkline(amount, ts_text)", ""),
+    "sparkline": ("sparkline(amount, x), sparkline(qty, {t}), sparkline(amount, ts_text)", ""),
+    # Wall-clock times of different shops can be equal, and DESIGN leaves the order
+    # of equal x open, so this one is compared only within a shop.
+    "sparkline over wall-clock times": ("sparkline(amount, local)", ""),
 }
+WITHIN_A_SHOP = {"sparkline over wall-clock times"}
 GROUPINGS = ["", "shop, item", "shop, item, period_label({t}, 'month', zone)", "shop, period_serial({t}, 'week', zone)"]
 
 
-@pytest.mark.parametrize("grouping", GROUPINGS, ids=lambda g: f"by ({g})")
-@pytest.mark.parametrize("family", FAMILIES)
+AGGREGATE_CASES = [(family, grouping) for family in FAMILIES for grouping in GROUPINGS
+                   if family not in WITHIN_A_SHOP or grouping.startswith("shop")]
+
+
+@pytest.mark.parametrize("family,grouping", AGGREGATE_CASES, ids=[f"{f} by ({g})" for f, g in AGGREGATE_CASES])
 def test_aggregates(lite, pg, family, grouping):
     exact, close = FAMILIES[family]
     keys = grouping + ", " if grouping else ""

@@ -24,7 +24,7 @@ import pytest
 
 import engine_answers
 import seeded_sales
-from pg_servers import PrivateInstallation, Server
+from pg_servers import PrivateInstallation, Server, explained_plan, plan_nodes, run
 
 ROWS = 30_000
 SHARDS = {"shard_a": ("denver", "adelaide"), "shard_b": ("kolkata",)}
@@ -81,25 +81,15 @@ def coordinator():
         connection.close()
 
 
-def query(connection, sql, settings="SET enable_partitionwise_aggregate = on"):
-    with connection.cursor() as cursor:
-        cursor.execute(settings)
-        cursor.execute(sql)
-        return cursor.fetchall()
-
-
-def nodes(plan):
-    yield plan
-    for child in plan.get("Plans", []):
-        yield from nodes(child)
+PARTITIONWISE = "SET enable_partitionwise_aggregate = on"
 
 
 def test_shards_have_the_weekly_statistics(coordinator):
     _, shards = coordinator
     for shard in shards:
         connection = shard.connect()
-        rows = query(connection, "SELECT expr, n_distinct FROM pg_stats_ext_exprs WHERE statistics_name = "
-                                 "'sales_by_shop_week'", settings="SELECT 1")
+        rows = run(connection, "SELECT 1", "SELECT expr, n_distinct FROM pg_stats_ext_exprs "
+                                           "WHERE statistics_name = 'sales_by_shop_week'")
         connection.close()
         # source: PostgreSQL's pg_stats_ext_exprs, filled by ANALYZE for the expression statistics
         assert len(rows) == 1 and "period_floor" in rows[0][0] and rows[0][1] != 0, rows
@@ -109,9 +99,8 @@ def test_shards_have_the_weekly_statistics(coordinator):
 def test_report_runs_on_the_shards(coordinator, report):
     connection, _ = coordinator
     sql = WEEKLY if report == "weekly" else ZONED
-    explained = query(connection, f"EXPLAIN (VERBOSE, FORMAT JSON) {sql.format(table='sales')}")[0][0]
-    plan = (explained if isinstance(explained, list) else json.loads(explained))[0]["Plan"]
-    every = list(nodes(plan))
+    plan = explained_plan(connection, PARTITIONWISE, sql.format(table="sales"))
+    every = list(plan_nodes(plan))
     # source: PostgreSQL's EXPLAIN VERBOSE
     local = [n["Node Type"] for n in every if n["Node Type"] == "Aggregate"]
     assert not local, f"{report}: the coordinator aggregates:\n{json.dumps(plan, indent=1)}"
@@ -130,8 +119,8 @@ def test_report_runs_on_the_shards(coordinator, report):
 def test_report_gives_the_single_server_answers(coordinator, report):
     connection, _ = coordinator
     sql = WEEKLY if report == "weekly" else ZONED
-    sharded = query(connection, sql.format(table="sales"))
-    single = query(connection, sql.format(table="sales_single"))  # oracle: the same query over one local table
+    sharded = run(connection, PARTITIONWISE, sql.format(table="sales"))
+    single = run(connection, PARTITIONWISE, sql.format(table="sales_single"))  # oracle: the same query over one local table
     assert single
     inexact = range(11, 14) if report == "weekly" else ()
     compared = engine_answers.compare(report, single, sharded, inexact=inexact)

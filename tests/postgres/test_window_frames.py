@@ -12,10 +12,9 @@ PostgreSQL's own catalog (pg_aggregate.aggminvtransfn).
 """
 import pytest
 
-from conftest import connect
 import engine_answers
 import seeded_sales
-from pg_servers import PrivateInstallation, Server
+from pg_servers import almanac_server
 
 ROWS = 30_000
 SLIDING = ("exact_sum", "moving_mean", "median", "resid_sd", "slope_stderr", "ewma")
@@ -42,20 +41,14 @@ def rows():
 
 @pytest.fixture(scope="module")
 def lite(rows):
-    connection = connect()
-    seeded_sales.load_sqlite(connection, rows)
-    yield connection
-    connection.close()
+    with seeded_sales.sqlite_sales(rows) as connection:
+        yield connection
 
 
 @pytest.fixture(scope="module")
 def pg(rows):
-    with PrivateInstallation() as installation, Server(installation, "windows") as server:
-        connection = server.connect()
-        connection.cursor().execute("CREATE EXTENSION almanac")
-        seeded_sales.load_postgres(connection, rows)
+    with almanac_server("windows", rows) as connection:
         yield connection
-        connection.close()
 
 
 def test_sliding_aggregates_have_inverse_transitions(pg):
