@@ -73,7 +73,7 @@ def test_every_aggregate_is_parallel_safe_with_a_combine_function(pg):
         FROM pg_aggregate a JOIN pg_proc p ON p.oid = a.aggfnoid
         JOIN pg_depend d ON d.classid = 'pg_proc'::regclass AND d.objid = p.oid AND d.deptype = 'e'
         JOIN pg_extension e ON e.oid = d.refobjid AND e.extname = 'almanac'""")
-    # source: PostgreSQL's catalogs; DESIGN: every aggregate PARALLEL SAFE with a combine function
+    # source: PostgreSQL's catalogs; ext/postgres/README.md: every aggregate PARALLEL SAFE with a combine function
     names = {row[0] for row in rows}
     assert {name.split("(")[0] for name in AGGREGATES} <= names, f"aggregates found: {sorted(names)}"
     for name, arguments, parallel, combine, internal, serial, deserial in rows:

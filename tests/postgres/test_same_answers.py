@@ -221,7 +221,7 @@ FAMILIES = {
                     "ewma(amount, {t}, '2 weeks'), ewma(amount, ts_text, '5 days'), ewma(amount, local, 'PT36H'), "
                     "ewma(amount, day, 'P7D')"),
     "sparkline": ("sparkline(amount, x), sparkline(qty, {t}), sparkline(amount, ts_text)", ""),
-    # Wall-clock times of different shops can be equal, and DESIGN leaves the order
+    # Wall-clock times of different shops can be equal, and ext/README.md ("Charts") leaves the order
     # of equal x open, so this one is compared only within a shop.
     "sparkline over wall-clock times": ("sparkline(amount, local)", ""),
 }

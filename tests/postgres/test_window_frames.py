@@ -20,7 +20,7 @@ ROWS = 30_000
 SLIDING = ("exact_sum", "moving_mean", "median", "resid_sd", "slope_stderr", "ewma")
 EXACT = ("exact_sum(amount) OVER w, exact_sum(qty) OVER w, moving_mean(amount) OVER w, moving_mean(amount, 5) OVER w, "
          "median(amount) OVER w")
-# DESIGN lets these recompute their frame, so they slide over short frames only.
+# ext/README.md lets these recompute each frame, so they slide over short frames only.
 RECOMPUTING = "mad(amount) OVER w, theil_sen_slope(amount, x) OVER w, mann_kendall_p(amount, x) OVER w, " \
               "theil_sen_slope(amount, x, dow) OVER w"
 CLOSE = "resid_sd(amount, x) OVER w, slope_stderr(amount, x) OVER w, ewma(amount, x, 86400.0) OVER w, ewma(amount, {t}, '3 days') OVER w"

@@ -24,7 +24,9 @@ For ```sqlite3 and ```sh blocks, spaces at the end of a line are not compared:
 the shell's column mode pads its last column, and editors strip such spaces.
 
 A ```sql or ```sqlite3 block without its ```text block is an error, and so is
-a ```sh block that holds a query (SELECT) but no output to check.
+a ```sh block that holds a query (SELECT) but no output to check. A link from
+one page to a file of the repository, or to a heading of a page, must lead
+somewhere.
 """
 import os
 import pathlib
@@ -98,6 +100,33 @@ def test_every_example_has_its_output():
                                       (lang == "sh" and re.search(r"\bSELECT\b", body, re.I)))]
     assert missing == [], "each of these blocks must be followed by a ```text block with its output"
     assert len(examples("sql")) >= 40
+
+
+def outside_fences(text):
+    return FENCE.sub("", text)
+
+
+def heading_anchors(text):
+    """The anchors a Markdown renderer gives the headings: lower case, punctuation
+    dropped, spaces as hyphens (common practice of GitHub's renderer)."""
+    return {re.sub(r"[^\w\- ]", "", heading.strip().lower()).replace(" ", "-")
+            for heading in re.findall(r"^#+ (.*)$", outside_fences(text), re.M)}
+
+
+def test_every_link_between_pages_leads_somewhere():
+    broken = []
+    for name in PAGES:
+        page = SOURCE / name
+        for target in re.findall(r"\]\(([^)\s]+)\)", outside_fences(page.read_text())):
+            if re.match(r"[a-z]+:", target):
+                continue  # a web address
+            path, _, anchor = target.partition("#")
+            destination = (page.parent / path) if path else page
+            if not destination.exists():
+                broken.append(f"{name}: {target} (no such file)")
+            elif anchor and destination.suffix == ".md" and anchor not in heading_anchors(destination.read_text()):
+                broken.append(f"{name}: {target} (no such heading)")
+    assert broken == []
 
 
 SQL_EXAMPLES = examples("sql")
