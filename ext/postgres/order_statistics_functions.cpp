@@ -75,7 +75,7 @@ struct StateTraits<PointRows> {
         for (const SeasonalPoint& p : state.rows) {
             out.f64(p.x);
             out.f64(p.y);
-            out.f64(p.season);
+            out.f64(p.season.real);  // seasons arrive as float8: always Kind::Real
         }
     }
     static void read(ByteReader& in, PointRows& state) {
@@ -84,7 +84,7 @@ struct StateTraits<PointRows> {
             SeasonalPoint p;
             p.x = in.f64();
             p.y = in.f64();
-            p.season = in.f64();
+            p.season = numbered_season(in.f64());
             state.rows.push_back(p);
         }
     }
@@ -134,14 +134,13 @@ Datum point_row(FunctionCallInfo fcinfo, const char* name, Direction direction) 
     bool ok = guarded([&] {
         finite_number({name, 1, "y"}, y);
         finite_number({name, 2, "x"}, x);
-        if (seasonal) finite_number({name, 3, "season"}, season);
-        SeasonalPoint point{x, y, season};
+        SeasonalPoint point{x, y, numbered_season(season)};
         if (direction == Direction::Add) {
             ensure_room(name, state->rows.size());
             state->rows.push_back(point);
         } else {
             remove_row(state->rows, [&](const SeasonalPoint& p) {
-                return p.x == point.x && p.y == point.y && p.season == point.season;
+                return p.x == point.x && p.y == point.y && same_season(p.season, point.season);
             });
         }
     });
