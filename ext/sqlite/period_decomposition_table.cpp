@@ -15,7 +15,8 @@
 //     amount = trend + season + noise to rounding, with a season of n_p
 //     periods: the number of spec periods in a cycle by mean lengths
 //     (core/time/periods_per_cycle.h: day/week 7, week/year 52, ...). The
-//     pair must nest as period_position allows.
+//     pair must nest as period_position allows, with at most 2,000 periods
+//     in a cycle.
 //  4. The settings are statsmodels' STL defaults: seasonal span 7, trend and
 //     low-pass spans from it and n_p, degree 1, no jumps. Robust (2 inner,
 //     15 outer passes) for a series of at least four whole cycles, else not
@@ -83,6 +84,7 @@ enum Column {
 // The first columns are every listing's (totals_values.h).
 static_assert(kSerial + 1 == kSeriesColumns, "segment ... serial come first");
 constexpr int kFirstArgument = kSource;
+constexpr std::int64_t kLongestSeason = 2000;  // periods per cycle (README "Limits")
 constexpr int kArguments = 5;
 
 const ArgumentRef kSourceArg{kName, 1, "source"};
@@ -98,10 +100,19 @@ struct Request {
 };
 
 // The season's length; the pair must nest as period_position allows.
+// At most kLongestSeason periods: STL's work per item grows with n_p squared
+// (its trend smoother spans about two cycles), and 'hour' in 'year' (8,766)
+// would take minutes an item.
 std::size_t season_length(sqlite3_value* spec, sqlite3_value* cycle, sqlite3_value* zone) {
     const SpecInCycle pair =
         read_spec_in_cycle(kSpecArg, spec, kCycleArg, cycle, zone ? &kZoneArg : nullptr, zone);
-    return static_cast<std::size_t>(periods_per_cycle(pair.spec, pair.cycle));
+    const std::int64_t length = periods_per_cycle(pair.spec, pair.cycle);
+    if (length > kLongestSeason)
+        raise_argument_error(kCycleArg, cycle,
+                             "a cycle of " + std::to_string(length) + " '" + pair.spec.describe() +
+                                 "' periods; expected at most " + std::to_string(kLongestSeason) +
+                                 " (decompose a longer spec, such as 'day' in 'year')");
+    return static_cast<std::size_t>(length);
 }
 
 DecompositionOptions read_options(sqlite3_value* value) {

@@ -174,6 +174,9 @@ DECOMPOSITION = [
      "period_decomposition(): argument 2 (spec) = 'fortnight': "),
     ("SELECT * FROM period_decomposition('sales', 'day', 'week', 'Mars/Olympus')",
      "period_decomposition(): argument 4 (zone) = 'Mars/Olympus': "),
+    ("SELECT * FROM period_decomposition('sales', 'hour', 'year')",
+     "period_decomposition(): argument 3 (cycle) = 'year': a cycle of 8766 'hour' periods; expected at most "
+     "2000 (decompose a longer spec, such as 'day' in 'year')"),
     ("SELECT * FROM period_decomposition('sales', 'day')",
      "period_decomposition(): cycle is missing; " + DECOMPOSITION_USAGE),
 ]
