@@ -81,6 +81,8 @@ enum Column {
     kZone,
     kOptions
 };
+// The first columns are every listing's (totals_values.h).
+static_assert(kSerial + 1 == kSeriesColumns, "segment ... serial come first");
 constexpr int kFirstArgument = kSource;
 constexpr std::int64_t kLongestSeason = 2000;  // periods per cycle (README "Limits")
 constexpr int kArguments = 5;
@@ -249,8 +251,7 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
                               /*wants_qty=*/false};
         cursor->reading = read_source(table_connection(base->pVtab), request);
         if (cursor->reading.series.empty()) return SQLITE_OK;
-        cursor->like.representation = cursor->reading.totals->representation();
-        cursor->like.integer_input = cursor->reading.totals->integer_input();
+        cursor->like = boundary_form(*cursor->reading.totals);
         cursor->series = 0;
         cursor->done = false;
         start_series(*cursor);
@@ -299,25 +300,11 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
             const PeriodCalendar& calendar = *cursor->calendar;
             const Period& period = cursor->current;
             const StlParts& parts = cursor->current_series.parts;
+            if (index < kSeriesColumns) {
+                return result_series_column(context, index, series, *cursor->reading.totals, period,
+                                            calendar, cursor->like);
+            }
             switch (index) {
-                case kSegment:
-                    if (series.all_segments) return sqlite3_result_null(context);
-                    return result_value(context, series.group->key());
-                case kAllSegments:
-                    return sqlite3_result_int(context, series.all_segments ? 1 : 0);
-                case kItem:
-                    return result_value(context, cursor->reading.totals->item(series.item));
-                case kPeriodStart:
-                    return result_boundary(context, cursor->like, period.start, calendar);
-                case kPeriodEnd:
-                    return result_boundary(context, cursor->like, period.end, calendar);
-                case kLabel: {
-                    std::string label = calendar.label(period);
-                    return sqlite3_result_text(context, label.c_str(),
-                                               static_cast<int>(label.size()), SQLITE_TRANSIENT);
-                }
-                case kSerial:
-                    return sqlite3_result_int64(context, period.serial);
                 case kAmount: {
                     const PeriodCell* found = series.group->at(series.item, period.serial);
                     return result_total(context, found, found ? &found->amount : nullptr);

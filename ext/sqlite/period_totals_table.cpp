@@ -81,6 +81,8 @@ enum Column {
     kStart,
     kStop
 };
+// The first columns are every listing's (totals_values.h).
+static_assert(kSerial + 1 == kSeriesColumns, "segment ... serial come first");
 constexpr int kFirstArgument = kSource;
 constexpr int kArguments = 5;
 constexpr int kReadsQty = 1 << kArguments;  // an idxNum bit beside the argument bits
@@ -223,8 +225,7 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
                               (mask & kReadsQty) != 0};
         cursor->reading = read_source(table->db, request);
         if (cursor->reading.series.empty()) return SQLITE_OK;
-        cursor->like.representation = cursor->reading.totals->representation();
-        cursor->like.integer_input = cursor->reading.totals->integer_input();
+        cursor->like = boundary_form(*cursor->reading.totals);
         cursor->series = 0;
         cursor->current = cursor->calendar->period_by_serial(cursor->listed().range.first_serial);
         cursor->done = false;
@@ -283,25 +284,11 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
             const PeriodCalendar& calendar = *cursor->calendar;
             const Period& period = cursor->current;
             auto cell = [&] { return series.group->at(series.item, period.serial); };
+            if (index < kSeriesColumns) {
+                return result_series_column(context, index, series, *cursor->reading.totals, period,
+                                            calendar, cursor->like);
+            }
             switch (index) {
-                case kSegment:
-                    if (series.all_segments) return sqlite3_result_null(context);
-                    return result_value(context, series.group->key());
-                case kAllSegments:
-                    return sqlite3_result_int(context, series.all_segments ? 1 : 0);
-                case kItem:
-                    return result_value(context, cursor->reading.totals->item(series.item));
-                case kPeriodStart:
-                    return result_boundary(context, cursor->like, period.start, calendar);
-                case kPeriodEnd:
-                    return result_boundary(context, cursor->like, period.end, calendar);
-                case kLabel: {
-                    std::string label = calendar.label(period);
-                    return sqlite3_result_text(context, label.c_str(),
-                                               static_cast<int>(label.size()), SQLITE_TRANSIENT);
-                }
-                case kSerial:
-                    return sqlite3_result_int64(context, period.serial);
                 case kCoveredStart:
                     return result_covered(context, cursor->like,
                                           coverage_of(period, series.range).start, calendar);

@@ -5,6 +5,8 @@
 #pragma once
 
 #include "core/stats/period_totals.h"
+#include "core/stats/period_totals_listing.h"
+#include "core/time/period_calendar.h"
 #include "sqlite_api.h"
 
 namespace almanac::sqlite {
@@ -16,5 +18,18 @@ void result_value(sqlite3_context* context, const ValueKey& key);
 // rows held only NULLs there (total nullptr or empty), else INTEGER while
 // every value was an INTEGER and the sum fits, or the correctly rounded REAL.
 void result_total(sqlite3_context* context, const PeriodCell* cell, const CompactTotal* total);
+
+// The columns every listing of period series begins with, in this order:
+// segment, all_segments, item, period_start, period_end, label, serial.
+constexpr int kSeriesColumns = 7;
+
+// How the listing writes its boundaries: like the earliest counted row's ts.
+TimeValue boundary_form(const PeriodTotals& totals);
+
+// Column `index` (below kSeriesColumns) of the row of `period` in `series`;
+// boundaries in the representation of `like` (boundary_form).
+void result_series_column(sqlite3_context* context, int index, const ListedSeries& series,
+                          const PeriodTotals& totals, const Period& period,
+                          const PeriodCalendar& calendar, const TimeValue& like);
 
 }  // namespace almanac::sqlite
