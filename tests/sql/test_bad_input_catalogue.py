@@ -70,9 +70,7 @@ NUMBER_SLOTS = (
     + [("moving_mean({v})", "moving_mean", 1, "x"), ("median({v})", "median", 1, "x"),
        ("percentile_cont({v}, 0.5)", "percentile_cont", 1, "x"),
        ("theil_sen_slope({v}, 1)", "theil_sen_slope", 1, "y"), ("theil_sen_slope(1, {v})", "theil_sen_slope", 2, "x"),
-       ("theil_sen_slope(1, 2, {v})", "theil_sen_slope", 3, "season"),
        ("mann_kendall_p({v}, 1)", "mann_kendall_p", 1, "y"), ("mann_kendall_p(1, {v})", "mann_kendall_p", 2, "x"),
-       ("mann_kendall_p(1, 2, {v})", "mann_kendall_p", 3, "season"),
        ("mad({v})", "mad", 1, "x"), ("ewma({v}, 1, 1)", "ewma", 1, "x"), ("sparkline({v}, 1)", "sparkline", 1, "y"),
        ("svg_line_chart(1, {v}, 'a')", "svg_line_chart", 2, "y"),
        ("svg_bar_chart(1, {v}, 'a')", "svg_bar_chart", 2, "y"),
@@ -379,6 +377,46 @@ add("valid_number(X'01')", Result(0, "valid_number never raises; a BLOB is not a
 add("valid_number(9e999)", Result(0, "DESIGN: infinities are not numbers to add"))
 add("valid_number(NULL)", Result(None, "SQL: NULL gives NULL"))
 add("valid_number(3)", Result(1, "an INTEGER is a number"))
+
+# ---- seasons: any value but NULL names a season (DESIGN "Trend, season and noise, apart") ----
+THREE_POINTS = "(SELECT {fn}(y, x, {v}) FROM (SELECT 1 AS y, 1 AS x UNION ALL SELECT 3, 2 UNION ALL SELECT 2, 3))"
+for v in ("'abc'", "''", "'1,234.50'", "X'0102'", "9e999", "-9e999", "CAST(X'310032' AS TEXT)"):
+    add(THREE_POINTS.format(fn="theil_sen_slope", v=v), Result(0.5, "by hand: one season, slopes 2, 0.5, -1"))
+    add(THREE_POINTS.format(fn="mann_kendall_p", v=v),
+        Result(0.6015081344405899, "scipy.stats.kendalltau([1, 2, 3], [1, 3, 2], method='asymptotic').pvalue"))
+
+# ---- period_decomposition: spec, cycle, zone and options are checked before the source is read ----
+DECOMPOSE = "SELECT * FROM period_decomposition('no_such_table', {args})"
+SEASONAL_SPAN = "expected an odd whole number of cycles from 7 to 1000001"
+for args, n, name, shown, expected in (
+        ("'week', 'month'", 3, "cycle", "'month'", "'week' periods do not nest in 'month' cycles; "),
+        ("'day', 'day'", 3, "cycle", "'day'", "'day' periods do not nest in 'day' cycles; "),
+        ("'day', 'week', NULL, '{\"seasonal\": 8}'", 5, "options", "'{\"seasonal\": 8}'",
+         'key "seasonal" = 8: ' + SEASONAL_SPAN),
+        ("'day', 'week', NULL, '{\"seasonal\": 3}'", 5, "options", "'{\"seasonal\": 3}'",
+         'key "seasonal" = 3: ' + SEASONAL_SPAN),
+        ("'day', 'week', NULL, '{\"trend\": 15}'", 5, "options", "'{\"trend\": 15}'",
+         'unknown key "trend": expected "seasonal" or "robust"'),
+        ("'day', 'week', NULL, '{\"robust\": 1}'", 5, "options", "'{\"robust\": 1}'",
+         'key "robust" = 1: expected true or false'),
+        ("'day', 'week', NULL, '[7]'", 5, "options", "'[7]'",
+         'expected a JSON object such as {"seasonal": 13, "robust": true}, not an array'),
+        ("'day', 'week', NULL, 7", 5, "options", "7", "expected TEXT, not a number"),
+        ("'day', 'week', 'Mars/Olympus'", 4, "zone", "'Mars/Olympus'", None),
+        ("'day', 'week'", None, None, None, None)):
+    if n is None:
+        add(DECOMPOSE.format(args=args), Error("period_decomposition(): argument 1 (source) = 'no_such_table': "
+                                               "no table or view of that name (expected 'name' or 'schema.name')"))
+    elif expected is None:
+        add(DECOMPOSE.format(args=args), arg("period_decomposition", n, name, shown, "not in the tz database; " + ZONE))
+    elif expected.endswith("cycles; "):
+        from test_season_errors import NEST
+        add(DECOMPOSE.format(args=args), arg("period_decomposition", n, name, shown, expected + NEST))
+    else:
+        add(DECOMPOSE.format(args=args), arg("period_decomposition", n, name, shown, expected))
+add("SELECT * FROM period_decomposition('no_such_table', 'day')",
+    Error("period_decomposition(): cycle is missing; expected period_decomposition(source, spec, cycle [, zone [, options]])"))
+add("SELECT count(*) FROM period_decomposition(NULL, 'day', 'week')", Result(0, "as period_totals: a NULL source gives no rows"))
 
 SHAPE = re.compile(r"^(?P<fn>[a-z_0-9]+)\(\): (?:argument (?P<n>[1-9]) \((?P<name>[a-z_]+)\) = (?P<value>.+?): "
                    r"(?P<expected>\S.*)|(?!argument )(?P<message>\S.*))$", re.S)
