@@ -14,12 +14,9 @@ int register_order_statistics_functions(sqlite3* db);
 int register_report_functions(sqlite3* db);
 int register_export_functions(sqlite3* db);
 int register_season_functions(sqlite3* db);
-<<<<<<< HEAD
 int register_name_functions(sqlite3* db);
 int register_data_range_functions(sqlite3* db);
 int register_data_check_functions(sqlite3* db);
-=======
 int register_period_decomposition_table(sqlite3* db);
->>>>>>> stl
 
 }  // namespace almanac::sqlite
