@@ -137,7 +137,7 @@ def test_the_totals_of_every_item_match_plain_python_sums(databases):
 
 @pytest.mark.parametrize("report, parameter, value, message", [
     ("trend", "unit", "month", "@unit = 'month': trend.sql judges whole ISO weeks; it takes no @unit"),
-    ("noise_ranking", "last", 4, "@last = 4: noise_ranking.sql fits every whole week of the range"),
+    ("noise_ranking", "last", 4, "@last = 4: noise_ranking.sql decomposes every whole day of the range"),
     ("weekday_profile", "unit", "month", "@unit = 'month': weekday_profile.sql profiles days"),
     ("seasonal_profile", "unit", "week", "@unit = 'week': seasonal_profile.sql profiles weekdays and months"),
     ("anomalies", "unit", "week", "@unit = 'week': anomalies.sql scores days"),
