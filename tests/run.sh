@@ -11,7 +11,11 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 # link), g++-multilib builds unit.32bit, locales gives the locale test its
 # localedef, GNU time measures the processes of the job benchmark (bench.jobs);
 # g++-mingw-w64-x86-64-posix, wine64 and npm (which fetches the SQLite
-# amalgamation) serve the Windows stage.
+# amalgamation) serve the Windows stage. python3-venv gives the wheel test
+# (tests/python) its fresh virtual environment and pip, python3-wheel the wheel
+# reader that checks the archive's hashes; the desktop-client test
+# (tests/desktop) runs sqlitebrowser under xvfb, drives it with xdotool, reads
+# its copied result grid with xclip and takes screenshots with imagemagick.
 # Debian's npm package is asked for only when no npm is on the PATH: a machine
 # whose Node.js comes with its own npm (NodeSource's nodejs) refuses Debian's.
 # Each stage prints its elapsed seconds (the whole must stay under 30 minutes).
@@ -22,7 +26,8 @@ command -v npm > /dev/null || npm_package=(npm)
 "$root/tests/setup.sh" --tests chromium fonts-dejavu-core poppler-utils \
   clang libclang-rt-14-dev valgrind \
   dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales time \
-  g++-mingw-w64-x86-64-posix gcc-mingw-w64-x86-64-posix wine64 "${npm_package[@]}"
+  g++-mingw-w64-x86-64-posix gcc-mingw-w64-x86-64-posix wine64 \
+  python3-venv python3-wheel xvfb sqlitebrowser xdotool xclip imagemagick "${npm_package[@]}"
 took "installing and building"
 cd "$root/build"
 # The 32-bit unit tests are built only where -m32 links (g++-multilib, installed above).

@@ -105,7 +105,7 @@ stage_valgrind() {
   echo "hardening: SQL-level tests with the sqlite3 shell under valgrind memcheck"
   cd "$root/build"
   ALMANAC_SHELL_PREFIX="valgrind -q --error-exitcode=99 --leak-check=full --errors-for-leak-kinds=definite --show-leak-kinds=definite" \
-    ctest --output-on-failure -j "$jobs" -R '^sql\.(test_readme_examples|test_bad_input_catalogue)$'
+    ctest --output-on-failure -j "$jobs" -R '^sql\.(test_markdown_examples|test_bad_input_catalogue)$'
 }
 
 for stage in "${stages[@]}"; do

@@ -67,7 +67,7 @@ def test_week_serials_count_iso_weeks(days_table):
 
 
 ISO_EXAMPLES = [
-    # (date, ISO week date) — CHECKS.md, from memory; confirmed with isocalendar() below
+    # (date, ISO week date): ISO 8601 week dates from memory, confirmed with isocalendar() below
     ("2008-12-29", "2009-W01", 1),
     ("2010-01-03", "2009-W53", 7),
     ("2005-01-01", "2004-W53", 6),
@@ -77,10 +77,10 @@ ISO_EXAMPLES = [
 @pytest.mark.parametrize("day,week,weekday", ISO_EXAMPLES)
 def test_iso_8601_examples(days_table, day, week, weekday):
     year, number, iso_weekday = dt.date.fromisoformat(day).isocalendar()  # oracle: isocalendar()
-    assert (f"{year}-W{number:02d}", iso_weekday) == (week, weekday), "CHECKS.md example vs isocalendar()"
+    assert (f"{year}-W{number:02d}", iso_weekday) == (week, weekday), "remembered ISO week date vs isocalendar()"
     for value in (day, day + " 23:59:59", day + "T00:00:00Z"):
         (label,) = days_table.execute("SELECT period_label(?, 'week')", (value,)).fetchone()
-        assert label == week, f"period_label({value!r}, 'week') = {label!r}, expected {week!r} (CHECKS.md)"
+        assert label == week, f"period_label({value!r}, 'week') = {label!r}, expected {week!r} (ISO 8601, from memory)"
 
 
 def test_zoned_week_label_uses_the_local_date(days_table):

@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: MIT
 """NIST StRD certified values against almanac's exact statistics.
 
-Sources (CHECKS.md): NIST StRD linear regression dataset Norris and analysis
+Sources: NIST StRD linear regression dataset Norris and analysis
 of variance datasets SmLs01-SmLs09, read at test time from the copies Debian's
 python3-scipy ships; NIST StRD univariate NumAcc1/3/4 from memory. Each check
 prints its number of correct digits, LRE = -log10(|value - certified| / |certified|).
@@ -144,7 +144,7 @@ def test_smls_pooled_within_group_sum_of_squares(name):
 
 
 NUMACC = {
-    # NIST StRD univariate (from memory, CHECKS.md): data, certified mean, certified sd.
+    # NIST StRD univariate (from memory): data, certified mean, certified sd.
     "NumAcc1": ([10000001.0, 10000003.0, 10000002.0], "10000002", "1"),
     "NumAcc3": ([1000000.2] + [1000000.1, 1000000.3] * 500, "1000000.2", "0.1"),
     "NumAcc4": ([10000000.2] + [10000000.1, 10000000.3] * 500, "10000000.2", "0.1"),

@@ -7,7 +7,7 @@
 using namespace almanac;
 
 TEST_CASE("NumAcc1 has mean 10000002 and standard deviation 1") {
-    // NIST StRD NumAcc1 certified values (from memory, CHECKS.md).
+    // NIST StRD univariate NumAcc1 certified values (from memory).
     UnivariateMoments m;
     for (double v : {10000001.0, 10000003.0, 10000002.0}) m.add(v);
     CHECK(*m.standard_deviation(true) == 1.0);

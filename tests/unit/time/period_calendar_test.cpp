@@ -39,7 +39,7 @@ TEST_CASE("weeks start on Monday unless told otherwise") {
 }
 
 TEST_CASE("ISO 8601 week labels use the ISO week-numbering year") {
-    // CHECKS.md, from memory: 2008-12-29 is 2009-W01-1; 2010-01-03 is 2009-W53-7;
+    // ISO 8601 week dates, from memory: 2008-12-29 is 2009-W01-1; 2010-01-03 is 2009-W53-7;
     // 2005-01-01 is 2004-W53-6.
     auto week = utc("week");
     CHECK(label(week, "2008-12-29") == "2009-W01");
@@ -63,7 +63,7 @@ TEST_CASE("multiples count from the period holding 1970-01-01") {
 }
 
 TEST_CASE("half-months run from the 1st to the 15th and the 16th to the last day") {
-    // Semi-monthly periods (common practice, CHECKS.md).
+    // Semi-monthly periods, the 1st-15th and the 16th-last day (common practice).
     auto half = utc("half-month");
     CHECK(label(half, "2026-02-15 23:59") == "2026-02 (1-15)");
     CHECK(label(half, "2026-02-16") == "2026-02 (16-28)");

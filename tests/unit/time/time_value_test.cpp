@@ -14,7 +14,7 @@ TEST_CASE("a bare date is a calendar day, not an instant") {
 }
 
 TEST_CASE("the Julian day of J2000.0 is 2000-01-01 12:00 UTC") {
-    // J2000.0 epoch = JD 2451545.0 (from memory; CHECKS.md).
+    // J2000.0 epoch = JD 2451545.0 (from memory).
     auto value = parse_time_real(2451545.0);
     CHECK(value.representation == Representation::JulianDay);
     CHECK(format_date_time(LocalTime{value.instant().time_since_epoch()},
