@@ -115,5 +115,5 @@ SELECT day, item, amount, typical, score, kind
 FROM temp.almanac_anomaly_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY day, item;
 SELECT * FROM temp.almanac_anomaly_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, day, item;
 DROP TABLE temp.almanac_anomaly_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

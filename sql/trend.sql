@@ -175,5 +175,5 @@ FROM temp.almanac_trend_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY place;
 SELECT segment, item, verdict, pct_per_year, p_value, test, weeks, mean_per_week, sen_slope, ls_slope, shape
 FROM temp.almanac_trend_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, place;
 DROP TABLE temp.almanac_trend_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;
