@@ -101,7 +101,7 @@ summary_table() {
     printf ' trading_days, amount, per_trading_day, against, base_period, base_span, base_trading_days,'
     printf ' base_amount, base_per_trading_day, change_pct, change_per_day_pct);\n'
     # The report's last line says which range it used; the summary states it apart.
-    report sql/compare.sql insert unit "$unit" by_segment "$by_segment" | grep -v "^INSERT INTO compared VALUES('range "
+    report sql/compare.sql insert unit "$unit" by_segment "$by_segment" | grep -v "^INSERT INTO compared VALUES('\(range \|left out\|[0-9]* rows\? without\)"
     printf "SELECT '<div class=\"wide\"><table class=\"summary\"><caption>%s ' || p.period || ' <span class=\"span\">' || p.span || '</span>'" "$noun"
     printf " || CASE WHEN p.complete THEN '' ELSE ' <span class=\"partial\">partial: ' || p.days_covered || ' of ' || p.days_in_period || ' days</span>' END"
     printf " || '</caption><thead><tr><th rowspan=\"2\">Shop</th><th rowspan=\"2\">Amount</th><th rowspan=\"2\">Trading days</th>"

@@ -191,5 +191,5 @@ SELECT segment, first_day, last_day, days FROM temp.almanac_closure_rows
 ORDER BY segment <> 'all segments', segment, first_day;
 DROP TABLE temp.almanac_anomaly_rows;
 DROP TABLE temp.almanac_closure_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

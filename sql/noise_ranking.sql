@@ -168,5 +168,5 @@ SELECT rank, item, days, mean_per_day, noise_sd, noise_pct, trend_strength, seas
 FROM temp.almanac_noise_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY rank;
 SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, rank;
 DROP TABLE temp.almanac_noise_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

@@ -173,5 +173,5 @@ SELECT item, peak_day, mon, tue, wed, thu, fri, sat, sun, day_noise_pct, peak_mo
 FROM temp.almanac_seasonal_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item;
 SELECT * FROM temp.almanac_seasonal_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, item;
 DROP TABLE temp.almanac_seasonal_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

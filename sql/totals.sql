@@ -126,5 +126,5 @@ SELECT period_label(t.first_start, coalesce(@unit, 'week'), s.zone) AS period, t
 FROM per_period AS t, shape AS s
 WHERE @last IS NULL OR t.period > (SELECT max(period) FROM per_period) - @last
 ORDER BY t.period, t.segment <> 'all segments', t.segment, t.item;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

@@ -235,5 +235,5 @@ SELECT segment, item, verdict, pct_per_year, p_value, test, weeks, mean_per_week
 FROM temp.almanac_trend_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, place;
 DROP TABLE temp.almanac_trend_rows;
 DROP TABLE temp.almanac_parts_sales;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

@@ -101,7 +101,7 @@ def result_sets(output):
 
 
 def is_note(rows):
-    return len(rows) == 1 and list(rows[0]) == ["note"]   # the range line every report ends with
+    return all(list(row) == ["note"] for row in rows)   # the range lines every report ends with
 
 
 def is_closures(rows):

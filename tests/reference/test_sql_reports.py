@@ -59,13 +59,13 @@ def report(database, name, **params):
 
 def json_rows(output):
     """The rows of the shell's JSON output; the range line ([{"note": ...}]) left out."""
-    # Each result set is one JSON array; the last, [{"note": "range ..."}], says which range was used.
+    # Each result set is one JSON array; the last, [{"note": "range ..."}, ...], says which range was used.
     decoder, sets, at = json.JSONDecoder(), [], 0
     while output[at:].strip():
         value, end = decoder.raw_decode(output[at:].lstrip())
         at = len(output) - len(output[at:].lstrip()) + end
         sets.append(value)
-    return [row for rows in sets if not (len(rows) == 1 and list(rows[0]) == ["note"]) for row in rows]
+    return [row for rows in sets if not all(list(row) == ["note"] for row in rows) for row in rows]
 
 
 def close(got, expected, digits):

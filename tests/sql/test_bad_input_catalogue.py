@@ -368,7 +368,7 @@ add("(SELECT data_range(t, 1, 'day') FROM (SELECT '2026-01-01' AS t) WHERE 0)",
 add("(SELECT json_extract(data_range(t, a, 'day', 'UTC', '2026-06-01'), '$.note') FROM (SELECT '2026-01-01' AS t, "
     "NULL AS a UNION ALL SELECT '2026-01-03', 2.5 UNION ALL SELECT '2027-01-01', 1))",
     Result("range 2026-01-01..2026-01-03: 3 days, 2 rows; left out: 1 future row on 2027-01-01; 1 row without an "
-           "amount (counted in sales, not in amount; sql/data_check.sql lists them)",
+           "amount (sql/data_check.sql lists it)",
            "by hand: two rows up to now, one after it, one of the three without an amount"))
 add("valid_number('1,050.00')", Result(0, "DESIGN: '1,234.50' is not a number; valid_number never raises"))
 add("valid_number(' 12.5')", Result(1, "DESIGN: TEXT SQLite reads as a number is a number"))
