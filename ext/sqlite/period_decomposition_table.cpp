@@ -15,7 +15,8 @@
 //     amount = trend + season + noise to rounding, with a season of n_p
 //     periods: the number of spec periods in a cycle by mean lengths
 //     (core/time/periods_per_cycle.h: day/week 7, week/year 52, ...). The
-//     pair must nest as period_position allows.
+//     pair must nest as period_position allows, with at most 2,000 periods
+//     in a cycle.
 //  4. The settings are statsmodels' STL defaults: seasonal span 7, trend and
 //     low-pass spans from it and n_p, degree 1, no jumps. Robust (2 inner,
 //     15 outer passes) for a series of at least four whole cycles, else not
@@ -42,16 +43,17 @@
 #include <string>
 #include <vector>
 
+#include "argument_table.h"
 #include "arguments.h"
 #include "core/stats/decomposition_options.h"
 #include "core/stats/period_totals.h"
 #include "core/stats/seasonal_trend_decomposition.h"
 #include "core/text/error.h"
-#include "core/time/period_position.h"
 #include "core/time/periods_per_cycle.h"
 #include "period_context.h"
 #include "registration.h"
 #include "source_reading.h"
+#include "totals_values.h"
 
 namespace almanac::sqlite {
 namespace {
@@ -80,6 +82,7 @@ enum Column {
     kOptions
 };
 constexpr int kFirstArgument = kSource;
+constexpr std::int64_t kLongestSeason = 2000;  // periods per cycle (README "Limits")
 constexpr int kArguments = 5;
 
 const ArgumentRef kSourceArg{kName, 1, "source"};
@@ -94,40 +97,20 @@ struct Request {
     DecompositionOptions options;
 };
 
-PeriodSpec read_spec(const ArgumentRef& arg, sqlite3_value* value) {
-    auto text = read_text(arg, value);
-    try {
-        return parse_period_spec(*text);
-    } catch (const Error& error) {
-        raise_argument_error(arg, value, error.what());
-    }
-}
-
 // The season's length; the pair must nest as period_position allows.
-std::size_t season_length(sqlite3_value* spec_value, sqlite3_value* cycle_value,
-                          sqlite3_value* zone_value) {
-    const PeriodSpec spec = read_spec(kSpecArg, spec_value);
-    try {
-        check_position_spec(spec);
-    } catch (const Error& error) {
-        raise_argument_error(kSpecArg, spec_value, error.what());
-    }
-    const PeriodSpec cycle = read_spec(kCycleArg, cycle_value);
-    ZoneClock clock = ZoneClock::utc();
-    if (zone_value) {
-        auto zone = read_text(kZoneArg, zone_value);
-        try {
-            clock = ZoneClock::named(*zone);
-        } catch (const Error& error) {
-            raise_argument_error(kZoneArg, zone_value, error.what());
-        }
-    }
-    try {
-        PeriodPosition nesting(spec, cycle, clock);
-    } catch (const Error& error) {
-        raise_argument_error(kCycleArg, cycle_value, error.what());
-    }
-    return static_cast<std::size_t>(periods_per_cycle(spec, cycle));
+// At most kLongestSeason periods: STL's work per item grows with n_p squared
+// (its trend smoother spans about two cycles), and 'hour' in 'year' (8,766)
+// would take minutes an item.
+std::size_t season_length(sqlite3_value* spec, sqlite3_value* cycle, sqlite3_value* zone) {
+    const SpecInCycle pair =
+        read_spec_in_cycle(kSpecArg, spec, kCycleArg, cycle, zone ? &kZoneArg : nullptr, zone);
+    const std::int64_t length = periods_per_cycle(pair.spec, pair.cycle);
+    if (length > kLongestSeason)
+        raise_argument_error(kCycleArg, cycle,
+                             "a cycle of " + std::to_string(length) + " '" + pair.spec.describe() +
+                                 "' periods; expected at most " + std::to_string(kLongestSeason) +
+                                 " (decompose a longer spec, such as 'day' in 'year')");
+    return static_cast<std::size_t>(length);
 }
 
 DecompositionOptions read_options(sqlite3_value* value) {
@@ -148,11 +131,6 @@ struct Decomposed {
     StlParts parts;
 };
 
-struct Table {
-    sqlite3_vtab base{};
-    sqlite3* db = nullptr;
-};
-
 struct Cursor {
     sqlite3_vtab_cursor base{};
     std::optional<PeriodCalendar> calendar;
@@ -165,15 +143,8 @@ struct Cursor {
     Period current{};
     bool done = true;
     sqlite3_int64 row = 0;
-    sqlite3_value* arguments[kArguments] = {nullptr, nullptr, nullptr, nullptr, nullptr};
+    ScanArguments<kArguments> arguments;
 
-    ~Cursor() { release_arguments(); }
-    void release_arguments() {
-        for (auto*& value : arguments) {
-            sqlite3_value_free(value);
-            value = nullptr;
-        }
-    }
     const ListedSeries& listed() const { return reading.series[series]; }
 };
 
@@ -233,92 +204,32 @@ void start_series(Cursor& cursor) {
     cursor.done = true;
 }
 
-int set_error(sqlite3_vtab* table, const std::string& message) {
-    sqlite3_free(table->zErrMsg);
-    table->zErrMsg = sqlite3_mprintf("%s", message.c_str());
-    return SQLITE_ERROR;
-}
-
 int connect(sqlite3* db, void*, int, const char* const*, sqlite3_vtab** out, char**) {
-    int rc = sqlite3_declare_vtab(
+    return connect_argument_table(
         db,
         "CREATE TABLE x(segment, all_segments INTEGER, item, period_start, period_end,"
         " label TEXT, serial INTEGER, amount, trend REAL, season REAL, noise REAL, weight REAL,"
-        " source HIDDEN, spec HIDDEN, cycle HIDDEN, zone HIDDEN, options HIDDEN)");
-    if (rc != SQLITE_OK) return rc;
-    auto* table = static_cast<Table*>(sqlite3_malloc(sizeof(Table)));
-    if (!table) return SQLITE_NOMEM;
-    *table = Table{};
-    table->db = db;
-    *out = &table->base;
-    // It reads whatever table its argument names: a view or trigger must not
-    // be able to hide that from the user who runs it.
-    sqlite3_vtab_config(db, SQLITE_VTAB_DIRECTONLY);
-    return SQLITE_OK;
+        " source HIDDEN, spec HIDDEN, cycle HIDDEN, zone HIDDEN, options HIDDEN)",
+        /*direct_only=*/true, out);
 }
 
-int disconnect(sqlite3_vtab* table) {
-    sqlite3_free(table);
-    return SQLITE_OK;
-}
-
-// idxNum has one bit per argument given as an equality constraint.
 int best_index(sqlite3_vtab*, sqlite3_index_info* info) {
-    int where[kArguments] = {-1, -1, -1, -1, -1};
-    for (int i = 0; i < info->nConstraint; ++i) {
-        const auto& constraint = info->aConstraint[i];
-        int argument = constraint.iColumn - kFirstArgument;
-        if (argument < 0 || argument >= kArguments) continue;
-        if (constraint.op != SQLITE_INDEX_CONSTRAINT_EQ) continue;
-        if (!constraint.usable) return SQLITE_CONSTRAINT;
-        where[argument] = i;
-    }
-    int mask = 0, next = 1;
-    for (int argument = 0; argument < kArguments; ++argument) {
-        if (where[argument] < 0) continue;
-        info->aConstraintUsage[where[argument]].argvIndex = next++;
-        info->aConstraintUsage[where[argument]].omit = 1;
-        mask |= 1 << argument;
-    }
-    info->idxNum = mask;
-    // A full scan of the source: expensive, so SQLite runs it once.
-    info->estimatedCost = 1e6;
-    info->estimatedRows = 10000;
-    return SQLITE_OK;
-}
-
-int open(sqlite3_vtab*, sqlite3_vtab_cursor** out) {
-    auto* cursor = new (std::nothrow) Cursor();
-    if (!cursor) return SQLITE_NOMEM;
-    *out = &cursor->base;
-    return SQLITE_OK;
-}
-
-int close(sqlite3_vtab_cursor* base) {
-    delete reinterpret_cast<Cursor*>(base);
-    return SQLITE_OK;
+    return best_index_for_arguments(info, kFirstArgument, kArguments);
 }
 
 int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_value** argv) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
-    auto* table = reinterpret_cast<Table*>(base->pVtab);
-    cursor->release_arguments();
     cursor->reading = SourceReading{};
     cursor->current_series = Decomposed{};
     cursor->done = true;
     cursor->row = 0;
-    sqlite3_value* given[kArguments] = {nullptr, nullptr, nullptr, nullptr, nullptr};
-    for (int argument = 0, used = 0; argument < kArguments && used < argc; ++argument) {
-        if (mask & (1 << argument)) given[argument] = argv[used++];
-    }
-    for (int argument = 0; argument < kArguments; ++argument) {
-        if (given[argument]) cursor->arguments[argument] = sqlite3_value_dup(given[argument]);
-    }
+    cursor->arguments.take(mask, argc, argv);
+    sqlite3_value** given = cursor->arguments.given;
     static const char* names[kArguments] = {"source", "spec", "cycle", "zone", "options"};
     for (int argument = 0; argument < 3; ++argument) {
         if (!given[argument])
-            return set_error(base->pVtab,
-                             std::string(kName) + "(): " + names[argument] + " is missing; " + kUsage);
+            return set_table_error(base->pVtab, std::string(kName) + "(): " + names[argument] +
+                                                    " is missing; " + kUsage);
     }
     try {
         for (int argument = 0; argument < 3; ++argument) {
@@ -330,9 +241,13 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         cursor->request.options = read_options(given[4]);
         cursor->calendar.emplace(
             make_calendar(kSpecArg, given[1], given[3] ? &kZoneArg : nullptr, given[3]));
-        SourceRequest request{kName, kSourceArg, given[0], &*cursor->calendar, RangeBounds{},
+        SourceRequest request{kName,
+                              kSourceArg,
+                              given[0],
+                              &*cursor->calendar,
+                              RangeBounds{},
                               /*wants_qty=*/false};
-        cursor->reading = read_source(table->db, request);
+        cursor->reading = read_source(table_connection(base->pVtab), request);
         if (cursor->reading.series.empty()) return SQLITE_OK;
         cursor->like.representation = cursor->reading.totals->representation();
         cursor->like.integer_input = cursor->reading.totals->integer_input();
@@ -343,9 +258,9 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
     } catch (const SqlError& error) {
-        return set_error(base->pVtab, error.what());
+        return set_table_error(base->pVtab, error.what());
     } catch (const std::exception& error) {
-        return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+        return set_table_error(base->pVtab, std::string(kName) + "(): " + error.what());
     }
 }
 
@@ -363,42 +278,17 @@ int next(sqlite3_vtab_cursor* base) {
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
     } catch (const std::exception& error) {
-        return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+        return set_table_error(base->pVtab, std::string(kName) + "(): " + error.what());
     }
 }
 
 int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
 
-void result_total(sqlite3_context* context, const PeriodCell* cell, const CompactTotal* total) {
-    if (!cell) return sqlite3_result_int(context, 0);
-    auto value = total ? total->value() : std::nullopt;
-    if (!value) return sqlite3_result_null(context);
-    if (value->is_integer) return sqlite3_result_int64(context, value->integer);
-    sqlite3_result_double(context, value->real);
-}
-
-void result_value(sqlite3_context* context, const ValueKey& key) {
-    switch (key.kind) {
-        case ValueKey::Kind::Null:
-            return sqlite3_result_null(context);
-        case ValueKey::Kind::Integer:
-            return sqlite3_result_int64(context, key.integer);
-        case ValueKey::Kind::Real:
-            return sqlite3_result_double(context, key.real);
-        case ValueKey::Kind::Text:
-            return sqlite3_result_text(context, key.bytes.data(),
-                                       static_cast<int>(key.bytes.size()), SQLITE_TRANSIENT);
-        case ValueKey::Kind::Blob:
-            return sqlite3_result_blob(context, key.bytes.data(),
-                                       static_cast<int>(key.bytes.size()), SQLITE_TRANSIENT);
-    }
-}
-
 void result_part(sqlite3_context* context, const Cursor& cursor, const std::vector<double>& part) {
     const Decomposed& series = cursor.current_series;
     if (!series.has_parts) return sqlite3_result_null(context);
-    sqlite3_result_double(context,
-                          part[static_cast<std::size_t>(cursor.current.serial - series.first_serial)]);
+    sqlite3_result_double(
+        context, part[static_cast<std::size_t>(cursor.current.serial - series.first_serial)]);
 }
 
 int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
@@ -440,11 +330,8 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
                     return result_part(context, *cursor, parts.remainder);
                 case kWeight:
                     return result_part(context, *cursor, parts.weight);
-                default: {
-                    sqlite3_value* argument = cursor->arguments[index - kFirstArgument];
-                    if (argument) sqlite3_result_value(context, argument);
-                    return;
-                }
+                default:
+                    return cursor->arguments.result(context, index - kFirstArgument);
             }
         } catch (const Error& error) {
             std::string message = std::string(kName) + "(): " + error.what();
@@ -454,29 +341,8 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
     return SQLITE_OK;
 }
 
-int rowid(sqlite3_vtab_cursor* base, sqlite3_int64* out) {
-    *out = reinterpret_cast<Cursor*>(base)->row + 1;
-    return SQLITE_OK;
-}
-
-sqlite3_module make_module() {
-    sqlite3_module module{};
-    module.iVersion = 0;
-    module.xCreate = nullptr;  // eponymous only: no CREATE VIRTUAL TABLE
-    module.xConnect = connect;
-    module.xBestIndex = best_index;
-    module.xDisconnect = disconnect;
-    module.xOpen = open;
-    module.xClose = close;
-    module.xFilter = filter;
-    module.xNext = next;
-    module.xEof = eof;
-    module.xColumn = column;
-    module.xRowid = rowid;
-    return module;
-}
-
-const sqlite3_module kModule = make_module();
+const sqlite3_module kModule =
+    argument_table_module<Cursor>(connect, best_index, filter, next, eof, column);
 
 }  // namespace
 

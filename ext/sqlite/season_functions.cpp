@@ -55,37 +55,10 @@ constexpr ArgumentRef kPositionSpec{"period_position", 2, "spec"};
 constexpr ArgumentRef kPositionCycle{"period_position", 3, "cycle"};
 constexpr ArgumentRef kPositionZone{"period_position", 4, "zone"};
 
-PeriodSpec read_spec(const ArgumentRef& arg, sqlite3_value* value) {
-    auto text = read_text(arg, value);
-    try {
-        return parse_period_spec(*text);
-    } catch (const Error& error) {
-        raise_argument_error(arg, value, error.what());
-    }
-}
-
 PeriodPosition make_position(sqlite3_value** argv, int argc) {
-    const PeriodSpec spec = read_spec(kPositionSpec, argv[1]);
-    try {
-        check_position_spec(spec);
-    } catch (const Error& error) {
-        raise_argument_error(kPositionSpec, argv[1], error.what());
-    }
-    const PeriodSpec cycle = read_spec(kPositionCycle, argv[2]);
-    ZoneClock clock = ZoneClock::utc();
-    if (argc == 4) {
-        auto zone = read_text(kPositionZone, argv[3]);
-        try {
-            clock = ZoneClock::named(*zone);
-        } catch (const Error& error) {
-            raise_argument_error(kPositionZone, argv[3], error.what());
-        }
-    }
-    try {
-        return PeriodPosition(spec, cycle, clock);
-    } catch (const Error& error) {
-        raise_argument_error(kPositionCycle, argv[2], error.what());
-    }
+    return read_spec_in_cycle(kPositionSpec, argv[1], kPositionCycle, argv[2],
+                              argc == 4 ? &kPositionZone : nullptr, argc == 4 ? argv[3] : nullptr)
+        .position;
 }
 
 void delete_position(void* pointer) { delete static_cast<PeriodPosition*>(pointer); }

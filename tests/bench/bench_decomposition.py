@@ -14,33 +14,11 @@ Best of three, the queries taking turns, so load from other work falls on
 both alike; processor time beside wall-clock time.
 """
 import datetime
-import os
-import pathlib
 import random
-import sqlite3
-import time
 
-ROOT = pathlib.Path(__file__).resolve().parents[2]
-MODULE = os.environ.get("ALMANAC_MODULE", str(ROOT / "build" / "almanac.so"))
+from bench_seasons import best_of, connect  # the same connection and timing rules
+
 ITEMS = 60
-
-
-def connect():
-    db = sqlite3.connect(":memory:")
-    db.enable_load_extension(True)
-    db.load_extension(MODULE)
-    return db
-
-
-def best_of(db, queries, repeats=3):
-    best = {name: (float("inf"), float("inf")) for name in queries}
-    for _ in range(repeats):
-        for name, sql in queries.items():
-            began, began_cpu = time.perf_counter(), time.process_time()
-            db.execute(sql).fetchall()
-            wall, cpu = time.perf_counter() - began, time.process_time() - began_cpu
-            best[name] = (min(best[name][0], wall), min(best[name][1], cpu))
-    return best
 
 
 def main():

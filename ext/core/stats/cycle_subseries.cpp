@@ -28,8 +28,8 @@ void CycleSubseriesSmoother::smooth(Loess& loess, const double* y, std::size_t n
             loess.fit_at(values_.data(), k, span, degree, 0.0, 1, std::min(span, k), weights);
         fit_[0] = before ? *before : fit_[1];
         const std::size_t left = k > span ? k - span + 1 : 1;
-        const auto after = loess.fit_at(values_.data(), k, span, degree,
-                                        static_cast<double>(k + 1), left, k, weights);
+        const auto after = loess.fit_at(values_.data(), k, span, degree, static_cast<double>(k + 1),
+                                        left, k, weights);
         fit_[k + 1] = after ? *after : fit_[k];
         for (std::size_t m = 0; m < k + 2; ++m) out[m * period + p] = fit_[m];
     }

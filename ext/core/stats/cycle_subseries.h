@@ -19,8 +19,8 @@ class CycleSubseriesSmoother {
     // y and robustness (nullptr for none) hold n values; out receives
     // n + 2·period: out[k·period + p] is subseries p's value at cycle k − 1,
     // so out[period + i] is the smoothed value at i.
-    void smooth(Loess& loess, const double* y, std::size_t n, std::size_t period,
-                std::size_t span, int degree, const double* robustness, double* out);
+    void smooth(Loess& loess, const double* y, std::size_t n, std::size_t period, std::size_t span,
+                int degree, const double* robustness, double* out);
 
   private:
     // Per subseries, reused: its values, robustness weights, and the fit

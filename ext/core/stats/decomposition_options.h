@@ -13,8 +13,8 @@
 namespace almanac {
 
 struct DecompositionOptions {
-    std::size_t seasonal = 7;     // the cycle-subseries smoother's span, in cycles
-    std::optional<bool> robust;   // absent: robust from four whole cycles on
+    std::size_t seasonal = 7;    // the cycle-subseries smoother's span, in cycles
+    std::optional<bool> robust;  // absent: robust from four whole cycles on
 };
 
 // Throws almanac::Error.

@@ -25,7 +25,8 @@ const double* Loess::tricube_row(double h, double x) {
     std::vector<double>& row = tricube_by_half_width_[half_width];
     if (row.empty()) {
         row.resize(half_width + 1);
-        for (std::size_t d = 0; d <= half_width; ++d) row[d] = tricube_of(static_cast<double>(d), h);
+        for (std::size_t d = 0; d <= half_width; ++d)
+            row[d] = tricube_of(static_cast<double>(d), h);
     }
     return row.data();
 }

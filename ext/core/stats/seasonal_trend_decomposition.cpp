@@ -18,7 +18,8 @@ std::size_t odd_at_least(double bound) {
 
 StlSettings StlSettings::defaults(std::size_t period, std::size_t seasonal, bool robust) {
     if (period < 2) throw Error("expected a period of at least 2 values");
-    if (seasonal < 3 || seasonal % 2 == 0) throw Error("expected an odd seasonal span of at least 3");
+    if (seasonal < 3 || seasonal % 2 == 0)
+        throw Error("expected an odd seasonal span of at least 3");
     StlSettings settings;
     settings.period = period;
     settings.seasonal = seasonal;
@@ -37,8 +38,8 @@ void SeasonalTrendDecomposition::inner_pass(const std::vector<double>& y, bool u
     const std::size_t np = settings_.period;
     const double* weights = use_weights ? parts.weight.data() : nullptr;
     for (std::size_t i = 0; i < n; ++i) detrended_[i] = y[i] - parts.trend[i];
-    subseries_.smooth(loess_, detrended_.data(), n, np, settings_.seasonal, settings_.seasonal_degree,
-                      weights, cycles_.data());
+    subseries_.smooth(loess_, detrended_.data(), n, np, settings_.seasonal,
+                      settings_.seasonal_degree, weights, cycles_.data());
     low_pass_averages(cycles_.data(), n + 2 * np, np, averaged_.data(), scratch_.data());
     loess_.smooth(averaged_.data(), n, settings_.low_pass, settings_.low_pass_degree, nullptr,
                   low_pass_.data());
@@ -70,7 +71,8 @@ void SeasonalTrendDecomposition::decompose(const std::vector<double>& y,
         robustness_.compute(y.data(), parts.remainder.data(), n, parts.weight.data());
     }
     if (settings_.outer <= 0) parts.weight.assign(n, 1.0);
-    for (std::size_t i = 0; i < n; ++i) parts.remainder[i] = y[i] - parts.season[i] - parts.trend[i];
+    for (std::size_t i = 0; i < n; ++i)
+        parts.remainder[i] = y[i] - parts.season[i] - parts.trend[i];
 }
 
 }  // namespace almanac

@@ -24,10 +24,10 @@
 namespace almanac {
 
 struct StlSettings {
-    std::size_t period = 2;     // n_p, values per cycle, at least 2
-    std::size_t seasonal = 7;   // n_s, the subseries smoother's span: odd, at least 3
-    std::size_t trend = 0;      // n_t, odd, greater than period
-    std::size_t low_pass = 0;   // n_l, odd, greater than period
+    std::size_t period = 2;    // n_p, values per cycle, at least 2
+    std::size_t seasonal = 7;  // n_s, the subseries smoother's span: odd, at least 3
+    std::size_t trend = 0;     // n_t, odd, greater than period
+    std::size_t low_pass = 0;  // n_l, odd, greater than period
     int seasonal_degree = 1, trend_degree = 1, low_pass_degree = 1;
     bool robust = false;
     int inner = 5;  // passes per outer pass

@@ -39,7 +39,8 @@ TEST_CASE("a seasonal span that is even, short or not whole is refused with what
 }
 
 TEST_CASE("an unknown option names the known ones") {
-    CHECK(refusal(R"({"period": 12})") == "unknown key \"period\": expected \"seasonal\" or \"robust\"");
+    CHECK(refusal(R"({"period": 12})") ==
+          "unknown key \"period\": expected \"seasonal\" or \"robust\"");
     CHECK(refusal(R"({"robust": 1})") == "key \"robust\" = 1: expected true or false");
     CHECK(refusal("[7]").rfind("expected a JSON object", 0) == 0);
     CHECK(refusal("{seasonal: 7}").rfind("invalid JSON", 0) == 0);

@@ -19,7 +19,8 @@ TEST_CASE("the low-pass averages take a whole cycle's pattern out and leave a li
     const std::size_t period = 4, n = 5 * period;
     const double pattern[] = {2, -1, 0.5, -1.5};
     std::vector<double> x(n), out(n - period + 1), scratch(n - period + 1);
-    for (std::size_t i = 0; i < n; ++i) x[i] = 10 + 0.5 * static_cast<double>(i) + pattern[i % period];
+    for (std::size_t i = 0; i < n; ++i)
+        x[i] = 10 + 0.5 * static_cast<double>(i) + pattern[i % period];
     low_pass_averages(x.data(), n, period, out.data(), scratch.data());
     // Each average is centred: the three lags add (period − 1)/2 twice and 1.
     for (std::size_t j = 0; j < n - 2 * period; ++j)

@@ -33,7 +33,8 @@ TEST_CASE("a line plus a repeating zero-mean pattern comes apart into the two ex
     const std::size_t period = 7, n = 10 * period;
     const double pattern[] = {3, -1, -1, 0.5, -2, 1, -0.5};
     std::vector<double> y(n);
-    for (std::size_t i = 0; i < n; ++i) y[i] = 50 + 0.3 * static_cast<double>(i) + pattern[i % period];
+    for (std::size_t i = 0; i < n; ++i)
+        y[i] = 50 + 0.3 * static_cast<double>(i) + pattern[i % period];
     SeasonalTrendDecomposition stl;
     StlParts parts;
     stl.decompose(y, StlSettings::defaults(period, 7, false), parts);
@@ -45,7 +46,8 @@ TEST_CASE("a line plus a repeating zero-mean pattern comes apart into the two ex
     }
 }
 
-TEST_CASE("a robust fit gives a promotion spike a weight near zero and keeps it out of the season") {
+TEST_CASE(
+    "a robust fit gives a promotion spike a weight near zero and keeps it out of the season") {
     const std::size_t period = 7, n = 8 * period;
     std::vector<double> y(n);
     for (std::size_t i = 0; i < n; ++i)
@@ -66,6 +68,7 @@ TEST_CASE("a robust fit gives a promotion spike a weight near zero and keeps it 
 TEST_CASE("fewer than two whole cycles is refused") {
     SeasonalTrendDecomposition stl;
     StlParts parts;
-    CHECK_THROWS_AS(stl.decompose(std::vector<double>(13, 1.0), StlSettings::defaults(7, 7, false), parts),
-                    Error);
+    CHECK_THROWS_AS(
+        stl.decompose(std::vector<double>(13, 1.0), StlSettings::defaults(7, 7, false), parts),
+        Error);
 }

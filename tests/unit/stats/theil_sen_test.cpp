@@ -142,7 +142,8 @@ TEST_CASE("the seasonal slope equals the brute-force median of within-season slo
         std::vector<double> slopes;
         for (const auto& a : points)
             for (const auto& b : points)
-                if (same_season(a.season, b.season) && a.x > b.x) slopes.push_back((a.y - b.y) / (a.x - b.x));
+                if (same_season(a.season, b.season) && a.x > b.x)
+                    slopes.push_back((a.y - b.y) / (a.x - b.x));
         std::sort(slopes.begin(), slopes.end());
         const std::size_t m = slopes.size();
         const double expected = m % 2 ? slopes[m / 2] : (slopes[m / 2 - 1] + slopes[m / 2]) / 2.0;
