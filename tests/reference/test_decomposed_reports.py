@@ -24,7 +24,6 @@ import datetime as dt
 import json
 import math
 import random
-import sqlite3
 import statistics
 
 import pytest
@@ -32,6 +31,7 @@ from statsmodels.tsa.seasonal import STL
 
 from conftest import SOURCE, run_shell
 from test_season_reports import result_sets
+from test_segment_reports import write   # a sales table with or without a segment column
 
 FIRST = dt.date(2021, 1, 4)   # Monday of 2021-W01 (date.isocalendar)
 LAST = dt.date(2023, 12, 31)  # Sunday of 2023-W52
@@ -67,13 +67,7 @@ def shop(tmp_path_factory):
             for item in ITEMS:
                 rows.append((f"{day.isoformat()} 12:00:00", item, 1, amount(item, day, rng), segment))
         day += dt.timedelta(days=1)
-    path = tmp_path_factory.mktemp("decomposed") / "shop.db"
-    connection = sqlite3.connect(path)
-    connection.execute("CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, segment TEXT)")
-    connection.executemany("INSERT INTO sales VALUES (?, ?, ?, ?, ?)", rows)
-    connection.commit()
-    connection.close()
-    return path, rows
+    return write(tmp_path_factory.mktemp("decomposed") / "shop.db", rows, True), rows
 
 
 def report(path, name, **params):
@@ -193,12 +187,7 @@ def test_money_is_compared_at_its_resolution(tmp_path):
             value = 869.4000000000001 if day.year == 2022 else 869.4   # two years alike to the cent
         rows.append((f"{day.isoformat()} 12:00:00", "Loaf", 1, value))
     last = (f"{LAST.isoformat()} 12:00:00", "Loaf", 0, 0.0)   # a row on the last Sunday: the last week is whole
-    path = tmp_path / "tie.db"
-    connection = sqlite3.connect(path)
-    connection.execute("CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL)")
-    connection.executemany("INSERT INTO sales VALUES (?, ?, ?, ?)", rows + [last])
-    connection.commit()
-    connection.close()
+    path = write(tmp_path / "tie.db", rows + [last], False)
 
     def seasonal_kendall_p(values):
         # oracle: the seasonal Kendall test (Hirsch, Slack & Smith 1982) by its definition,
