@@ -87,9 +87,18 @@ report() {
 html_table() {
   local title=$1 note=$2 file=$3
   shift 3
-  printf '<h2>%s</h2>\n<p class="note">%s</p>\n<div class="wide"><table>\n' "$title" "$note"
-  report "$file" html "$@"
-  printf '</table></div>\n'
+  printf '<h2>%s</h2>\n<p class="note">%s</p>\n' "$title" "$note"
+  report "$file" html "$@" | table_and_range
+}
+
+# table_and_range: a report's HTML rows as a table, and the note lines under
+# it (the range it used, what it left out) as a paragraph after the table.
+table_and_range() {
+  awk 'BEGIN { print "<div class=\"wide\"><table>" }
+       /^<TR><TH>note<\/TH>/ { range = 1; next }
+       !range { print; next }
+       /^<TR><TD>/ { sub(/^<TR><TD>/, ""); sub(/<\/TD>$/, ""); said = said (said ? "; " : "") $0 }
+       END { print "</table></div>"; if (said) print "<p class=\"note\">" said "</p>" }'
 }
 
 # summary_table UNIT NOUN: the latest period of UNIT against the one before and
@@ -254,11 +263,11 @@ HEAD
     inline_svg "${parts_files[$i]}"
     printf '</div>\n'
   done
-  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n<div class="wide"><table>\n' \
+  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n' \
     "A day's noise part (its amount minus trend + season, period_decomposition with cycle week) against the noise of the 56 days before and after (the day and closed days excluded); listed when the modified z-score 0.6745 &times; (noise &minus; median) / MAD is beyond &plusmn;3.5. After the days, the closures: runs of days on which a shop, or the whole business, sold nothing, with their first and last day. Each item's chart below marks its unusual days." \
     "$(printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6' | wc -l) item-days and $(printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 4' | wc -l) closures: show the list"
-  report sql/anomalies.sql html
-  printf '</table></div>\n</details>\n'
+  report sql/anomalies.sql html | table_and_range
+  printf '</details>\n'
   printf '<h2>The three largest items, last 13 weeks: raw days and their 7-day moving mean</h2>\n<div class="chart">\n'
   inline_svg "$out/chart_top_items.svg"
   printf '</div>\n'

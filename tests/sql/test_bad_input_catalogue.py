@@ -370,6 +370,9 @@ add("(SELECT json_extract(data_range(t, a, 'day', 'UTC', '2026-06-01'), '$.note'
     Result("range 2026-01-01..2026-01-03: 3 days, 2 rows; left out: 1 future row on 2027-01-01; 1 row without an "
            "amount (sql/data_check.sql lists it)",
            "by hand: two rows up to now, one after it, one of the three without an amount"))
+add("(SELECT json_extract(r, '$.stop') || ' ' || json_extract(r, '$.whole_stop') FROM (SELECT data_range(t, 1, "
+    "'day', 'UTC', '2026-01-03 12:00') AS r FROM (SELECT '2026-01-01 09:00' AS t UNION ALL SELECT '2026-01-03 10:00')))",
+    Result("2026-01-04 2026-01-03", "by hand: the day that holds now (2026-01-03) is not whole yet"))
 add("valid_number('1,050.00')", Result(0, "DESIGN: '1,234.50' is not a number; valid_number never raises"))
 add("valid_number(' 12.5')", Result(1, "DESIGN: TEXT SQLite reads as a number is a number"))
 add("valid_number('')", Result(0, "DESIGN: the empty string is not a number"))

@@ -12,13 +12,12 @@ import sqlite3
 import subprocess
 
 from conftest import MODULE, SOURCE
+from report_shell import generate_export
 
 
 def test_the_report_runs_over_a_view_that_uses_almanac(tmp_path):
     generated = tmp_path / "generated.db"
-    subprocess.run(["/usr/bin/python3", str(SOURCE / "demo" / "generate.py"), "--out", str(generated),
-                    "--start", "2025-10-06", "--end", "2025-12-17", "--scale", "0.05"],
-                   check=True, capture_output=True, timeout=300)
+    generate_export(generated, "2025-10-06", "2025-12-17", 0.05)
     database = tmp_path / "shop.db"
     connection = sqlite3.connect(database)
     connection.enable_load_extension(True)

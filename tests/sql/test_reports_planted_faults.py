@@ -23,6 +23,7 @@ from zoneinfo import ZoneInfo
 import pytest
 
 from conftest import MODULE, SOURCE
+from report_shell import generate_export, run_report
 
 ZONE = "America/Denver"
 TABLES = ["totals", "compare", "trend", "noise_ranking", "weekday_profile", "seasonal_profile", "anomalies"]
@@ -33,9 +34,7 @@ LAST_DAY = dt.date(2025, 6, 25)  # a Wednesday (date.weekday() == 2)
 @pytest.fixture(scope="module")
 def clean(tmp_path_factory):
     path = tmp_path_factory.mktemp("faults") / "clean.db"
-    subprocess.run(["/usr/bin/python3", str(SOURCE / "demo" / "generate.py"), "--out", str(path),
-                    "--start", "2023-06-05", "--end", LAST_DAY.isoformat(), "--scale", "0.05"],
-                   check=True, capture_output=True, timeout=300)
+    generate_export(path, "2023-06-05", LAST_DAY.isoformat(), 0.05)
     return path
 
 
@@ -50,14 +49,7 @@ def planted(clean, tmp_path, rows):
 
 
 def run(database, report, **params):
-    module = MODULE[:-3] if MODULE.endswith(".so") else MODULE
-    lines = [f".load {module}", ".mode quote", f".parameter set @zone {ZONE}"]
-    for name, value in params.items():
-        value = '"' + "'" + value.replace("'", "''") + "'" + '"' if isinstance(value, str) else value
-        lines.append(f".parameter set @{name} {value}")
-    script = "\n".join(lines) + "\n" + (SOURCE / "sql" / f"{report}.sql").read_text()
-    result = subprocess.run(["sqlite3", "-bail", str(database)], input=script, capture_output=True, text=True,
-                            timeout=300)
+    result = run_report(database, report, ZONE, **params)
     assert result.returncode == 0, result.stderr
     return result.stdout
 
