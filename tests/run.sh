@@ -16,6 +16,7 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 # reader that checks the archive's hashes; the desktop-client test
 # (tests/desktop) runs sqlitebrowser under xvfb, drives it with xdotool, reads
 # its copied result grid with xclip and takes screenshots with imagemagick.
+# python3-psycopg2 is the PostgreSQL client of tests/postgres (label postgres).
 # Debian's npm package is asked for only when no npm is on the PATH: a machine
 # whose Node.js comes with its own npm (NodeSource's nodejs) refuses Debian's.
 # Each stage prints its elapsed seconds (the whole must stay under 30 minutes).
@@ -27,7 +28,8 @@ command -v npm > /dev/null || npm_package=(npm)
   clang libclang-rt-14-dev valgrind \
   dpkg-dev file lintian gcc pkgconf zlib1g-dev g++-multilib locales time \
   g++-mingw-w64-x86-64-posix gcc-mingw-w64-x86-64-posix wine64 \
-  python3-venv python3-wheel xvfb sqlitebrowser xdotool xclip imagemagick "${npm_package[@]}"
+  python3-venv python3-wheel xvfb sqlitebrowser xdotool xclip imagemagick python3-psycopg2 \
+  "${npm_package[@]}"
 took "installing and building"
 cd "$root/build"
 # The 32-bit unit tests are built only where -m32 links (g++-multilib, installed above).

@@ -17,7 +17,10 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 # demo/generate.py.
 runtime=(g++ cmake make libsqlite3-dev sqlite3 libhowardhinnant-date-dev tzdata python3)
 # What the tests need besides: Catch2 and the reference libraries.
-tests=(catch2 python3-numpy python3-pandas python3-scipy python3-pytest)
+# The PostgreSQL extension (ext/postgres) and its tests (tests/postgres) need
+# the server and its headers.
+tests=(catch2 python3-numpy python3-pandas python3-scipy python3-pytest
+       postgresql-15 postgresql-server-dev-15)
 
 with_tests=0
 case ${1:-} in

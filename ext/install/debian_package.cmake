@@ -5,11 +5,23 @@
 #                   Debian's library policy asks)
 #   libalmanac-dev  almanac.h, almanac_version.h, libalmanac.a, the .so link,
 #                   almanac.pc and the CMake package
+#   postgresql-15-almanac  the PostgreSQL extension (ext/postgres): the module in
+#                   the server's pkglibdir, almanac.control and the script in its
+#                   sharedir/extension (built when ALMANAC_POSTGRES is on; the
+#                   15 is the server's major version, as Debian names such packages)
 # Depends of libalmanac0 come from dpkg-shlibdeps (what the binaries link);
 # libalmanac-dev adds the headers and CMake packages its files name.
 
 set(ALMANAC_DEB_RUNTIME libalmanac${ALMANAC_SOVERSION})
 set(ALMANAC_DEB_DEVELOPMENT libalmanac-dev)
+set(ALMANAC_DEB_COMPONENTS runtime development)
+if(ALMANAC_POSTGRES)
+  execute_process(COMMAND ${ALMANAC_PG_CONFIG} --version OUTPUT_VARIABLE almanac_pg_version
+                  OUTPUT_STRIP_TRAILING_WHITESPACE)
+  string(REGEX MATCH "[0-9]+" ALMANAC_PG_MAJOR "${almanac_pg_version}")
+  set(ALMANAC_DEB_POSTGRES postgresql-${ALMANAC_PG_MAJOR}-almanac)
+  list(APPEND ALMANAC_DEB_COMPONENTS postgres)
+endif()
 
 # Each package carries the licence as a machine-readable copyright file
 # (Debian calls the MIT licence "Expat") and a changelog, in its doc folder.
@@ -42,9 +54,11 @@ file(WRITE ${ALMANAC_DEB_DOC}/changelog
 ")
 file(ARCHIVE_CREATE OUTPUT ${ALMANAC_DEB_DOC}/changelog.Debian.gz
      PATHS ${ALMANAC_DEB_DOC}/changelog FORMAT raw COMPRESSION GZip COMPRESSION_LEVEL 9 MTIME 0)
-foreach(component runtime development)
+foreach(component ${ALMANAC_DEB_COMPONENTS})
   if(component STREQUAL runtime)
     set(package ${ALMANAC_DEB_RUNTIME})
+  elseif(component STREQUAL postgres)
+    set(package ${ALMANAC_DEB_POSTGRES})
   else()
     set(package ${ALMANAC_DEB_DEVELOPMENT})
   endif()
@@ -61,7 +75,7 @@ set(CPACK_PACKAGE_CONTACT "The almanac authors <almanac@almanac.invalid>")
 set(CPACK_PACKAGE_HOMEPAGE_URL ${ALMANAC_HOMEPAGE})
 set(CPACK_PACKAGE_DIRECTORY ${CMAKE_BINARY_DIR}/packages)
 set(CPACK_STRIP_FILES ON)
-set(CPACK_COMPONENTS_ALL runtime development)
+set(CPACK_COMPONENTS_ALL ${ALMANAC_DEB_COMPONENTS})
 set(CPACK_DEB_COMPONENT_INSTALL ON)
 set(CPACK_DEBIAN_FILE_NAME DEB-DEFAULT)
 set(CPACK_DEBIAN_PACKAGE_RELEASE 1)
@@ -105,5 +119,19 @@ almanac adds SQL functions to SQLite: calendar periods, exact window
 statistics and SVG charts. This package holds the header almanac.h, the
 static library, almanac.pc for pkg-config and the CMake package for
 find_package(almanac), for applications that link almanac in.")
+
+if(ALMANAC_POSTGRES)
+  set(CPACK_DEBIAN_POSTGRES_PACKAGE_NAME ${ALMANAC_DEB_POSTGRES})
+  set(CPACK_DEBIAN_POSTGRES_PACKAGE_SECTION database)
+  # dpkg-shlibdeps gives the C++ runtime; the server itself is named here,
+  # as the module only loads into it.
+  set(CPACK_DEBIAN_POSTGRES_PACKAGE_DEPENDS "postgresql-${ALMANAC_PG_MAJOR}")
+  set(CPACK_DEBIAN_POSTGRES_DESCRIPTION
+"calendar periods, exact window statistics and charts for PostgreSQL
+almanac adds SQL functions to PostgreSQL ${ALMANAC_PG_MAJOR}: calendar periods in the shop's
+own time zone, exact sums and moving means, robust trend statistics and SVG
+charts, as aggregates that run in parallel workers and on postgres_fdw
+shards. This package holds the extension: CREATE EXTENSION almanac.")
+endif()
 
 include(CPack)

@@ -5,8 +5,8 @@
 
 #include "core/text/character_position.h"
 #include "core/text/error.h"
+#include "core/text/error_message.h"
 #include "core/text/number_text.h"
-#include "core/text/utf8.h"
 
 namespace almanac::sqlite {
 
@@ -27,41 +27,16 @@ std::string describe_value(sqlite3_value* value) {
         default: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
             // All of the value's bytes: a NUL inside it is part of what was refused.
-            std::string shown(text ? text : "", text ? sqlite3_value_bytes(value) : 0);
-            constexpr std::size_t kLongest = 60;
-            if (shown.size() > kLongest) {
-                // Cut at a character boundary: half a UTF-8 sequence would
-                // make the whole message invalid text.
-                shown = std::string(utf8_prefix(shown, kLongest)) + "...";
-            }
-            std::string quoted = "'";
-            for (std::size_t i = 0; i < shown.size();) {
-                // Bytes that are not UTF-8 are shown as U+FFFD, so a message
-                // about bad input is itself valid text.
-                std::size_t length = utf8_sequence_length(shown, i);
-                if (length == 0) {
-                    quoted += "\xEF\xBF\xBD";
-                    ++i;
-                    continue;
-                }
-                if (shown[i] == '\0') {
-                    quoted += "\xE2\x90\x80";  // U+2400, the symbol for NUL
-                    ++i;
-                    continue;
-                }
-                if (shown[i] == '\'') quoted += '\'';
-                quoted.append(shown, i, length);
-                i += length;
-            }
-            return quoted + "'";
+            return quoted_for_message(
+                std::string_view(text ? text : "", text ? sqlite3_value_bytes(value) : 0));
         }
     }
 }
 
 void raise_argument_error(const ArgumentRef& arg, sqlite3_value* value,
                           const std::string& what_was_expected) {
-    throw SqlError(std::string(arg.function) + "(): argument " + std::to_string(arg.position) +
-                   " (" + arg.name + ") = " + describe_value(value) + ": " + what_was_expected);
+    throw SqlError(argument_error_message(arg.function, arg.position, arg.name,
+                                          describe_value(value), what_was_expected));
 }
 
 void raise_function_error(const char* function, const std::string& message) {

@@ -31,7 +31,7 @@
 //     argument gives NULL. The two-argument form is deterministic.
 //
 // All arithmetic lives in the core (exact_total.h, amount_text.h,
-// time_format.h, local_reading.h); this file reads arguments and writes
+// time_reader.h); this file reads arguments and writes
 // results.
 #include <cmath>
 #include <cstdint>
@@ -47,8 +47,7 @@
 #include "core/text/ascii.h"
 #include "core/text/error.h"
 #include "core/text/number_text.h"
-#include "core/time/local_reading.h"
-#include "core/time/time_format.h"
+#include "core/time/time_reader.h"
 #include "core/time/time_value.h"
 #include "core/time/zone_clock.h"
 #include "registration.h"
@@ -149,33 +148,18 @@ constexpr ArgumentRef kTimeText{"to_time", 1, "text"};
 constexpr ArgumentRef kTimeFormat{"to_time", 2, "format"};
 constexpr ArgumentRef kTimeZone{"to_time", 3, "zone"};
 
-// A statement's format and zone, parsed once.
-struct TimeReader {
-    TimeFormat format;
-    std::optional<ZoneClock> zone;
-};
-
 TimeReader make_reader(sqlite3_value* format, sqlite3_value* zone) {
-    TimeReader reader;
     auto format_text = read_text(kTimeFormat, format);
+    std::optional<std::string> zone_text;
+    if (zone) zone_text = read_text(kTimeZone, zone);
     try {
-        reader.format = TimeFormat::parse(*format_text);
-    } catch (const Error& error) {
+        return TimeReader(*format_text,
+                          zone_text ? std::optional<std::string_view>(*zone_text) : std::nullopt);
+    } catch (const TimeReaderError& error) {
+        if (error.culprit() == TimeReaderError::Culprit::Zone)
+            raise_argument_error(kTimeZone, zone, error.what());
         raise_argument_error(kTimeFormat, format, error.what());
     }
-    if (zone) {
-        auto zone_text = read_text(kTimeZone, zone);
-        try {
-            reader.zone = ZoneClock::named(*zone_text);
-        } catch (const Error& error) {
-            raise_argument_error(kTimeZone, zone, error.what());
-        }
-        if (reader.format.has_offset())
-            raise_argument_error(kTimeZone, zone,
-                                 "expected no zone, because the format reads an offset (%z) "
-                                 "and each reading is already an instant");
-    }
-    return reader;
 }
 
 void delete_reader(void* pointer) { delete static_cast<TimeReader*>(pointer); }
@@ -217,20 +201,6 @@ double read_serial(sqlite3_value* text) {
     }
 }
 
-void result_reading(sqlite3_context* context, sqlite3_value* text, LocalTime t, bool with_time) {
-    if (!in_supported_range(t))
-        raise_argument_error(kTimeText, text, "the time falls outside years 0000 through 9999");
-    std::string written;
-    if (!with_time) {
-        written = format_date(date::floor<date::days>(t));
-    } else {
-        bool whole_second = date::floor<std::chrono::seconds>(t) == t;
-        written = format_date_time(
-            t, whole_second ? TextForm::Precision::Seconds : TextForm::Precision::Fraction, false);
-    }
-    sqlite3_result_text(context, written.data(), int(written.size()), SQLITE_TRANSIENT);
-}
-
 void to_time(sqlite3_context* context, int argc, sqlite3_value** argv) {
     guarded(context, [&] {
         for (int i = 0; i < argc; ++i)
@@ -238,10 +208,10 @@ void to_time(sqlite3_context* context, int argc, sqlite3_value** argv) {
         bool zoned = argc == 3;
         const TimeReader& reader = cached_reader(context, argv, zoned);
         sqlite3_value* text = argv[0];
-        TimeReading reading;
+        std::string written;
         try {
-            if (reader.format.is_spreadsheet_serial()) {
-                reading.local = read_spreadsheet_serial(read_serial(text));
+            if (reader.reads_serials()) {
+                written = reader.read_serial(read_serial(text));
             } else {
                 int type = sqlite3_value_type(text);
                 if (type == SQLITE_BLOB)
@@ -251,19 +221,13 @@ void to_time(sqlite3_context* context, int argc, sqlite3_value** argv) {
                         kTimeText, text,
                         "expected TEXT (a REAL is read only with the format excel)");
                 const char* raw = reinterpret_cast<const char*>(sqlite3_value_text(text));
-                reading =
-                    reader.format.read(std::string_view(raw ? raw : "", sqlite3_value_bytes(text)));
+                written =
+                    reader.read_text(std::string_view(raw ? raw : "", sqlite3_value_bytes(text)));
             }
         } catch (const Error& error) {
             raise_argument_error(kTimeText, text, error.what());
         }
-        if (reading.has_offset || reader.zone) {
-            Instant instant = reading.has_offset
-                                  ? Instant{reading.local.time_since_epoch()} - reading.offset
-                                  : instant_of_local_reading(*reader.zone, reading.local);
-            return result_reading(context, text, LocalTime{instant.time_since_epoch()}, true);
-        }
-        result_reading(context, text, reading.local, reader.format.has_time_of_day());
+        sqlite3_result_text(context, written.data(), int(written.size()), SQLITE_TRANSIENT);
     });
 }
 

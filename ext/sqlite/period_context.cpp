@@ -4,6 +4,7 @@
 #include <new>
 
 #include "core/text/error.h"
+#include "core/time/calendar_from_text.h"
 
 namespace almanac::sqlite {
 
@@ -46,11 +47,15 @@ SpecInCycle read_spec_in_cycle(const ArgumentRef& spec_arg, sqlite3_value* spec,
 
 PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
                              const ArgumentRef* zone_arg, sqlite3_value* zone) {
-    const PeriodSpec parsed = read_spec(spec_arg, spec);
-    const ZoneClock clock = zone_arg ? read_zone(*zone_arg, zone) : ZoneClock::utc();
+    auto spec_text = read_text(spec_arg, spec);
+    std::optional<std::string> zone_text;
+    if (zone_arg) zone_text = read_text(*zone_arg, zone);
     try {
-        return PeriodCalendar(parsed, clock);
-    } catch (const Error& error) {
+        return calendar_from_text(
+            *spec_text, zone_text ? std::optional<std::string_view>(*zone_text) : std::nullopt);
+    } catch (const CalendarTextError& error) {
+        if (error.culprit() == CalendarTextError::Culprit::Zone)
+            raise_argument_error(*zone_arg, zone, error.what());
         raise_argument_error(spec_arg, spec, error.what());
     }
 }

@@ -19,6 +19,7 @@
 
 #include "arguments.h"
 #include "core/text/error.h"
+#include "core/time/period_cursor.h"
 #include "period_context.h"
 #include "registration.h"
 
@@ -26,8 +27,6 @@ namespace almanac::sqlite {
 namespace {
 
 constexpr const char* kName = "periods";
-// The most periods one call gives (README "Limits").
-constexpr std::int64_t kMostPeriods = 10000000;
 
 enum Column { kPeriodStart, kPeriodEnd, kLabel, kSerial, kStart, kStop, kSpec, kZone };
 constexpr int kFirstArgument = kStart;
@@ -37,11 +36,8 @@ struct Cursor {
     sqlite3_vtab_cursor base{};
     std::optional<PeriodCalendar> calendar;
     TimeValue like;
-    Period current{};
-    Instant stop{};
-    bool done = true;
+    std::optional<PeriodCursor> range;  // walks *calendar; none when there are no rows
     sqlite3_int64 row = 0;
-    std::int64_t periods_in_range = 0;
     sqlite3_value* arguments[kArguments] = {nullptr, nullptr, nullptr, nullptr};
 
     ~Cursor() { release_arguments(); }
@@ -124,7 +120,7 @@ int close(sqlite3_vtab_cursor* base) {
 int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_value** argv) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
     cursor->release_arguments();
-    cursor->done = true;
+    cursor->range.reset();
     cursor->row = 0;
     sqlite3_value* given[kArguments] = {nullptr, nullptr, nullptr, nullptr};
     for (int argument = 0, used = 0; argument < kArguments && used < argc; ++argument) {
@@ -150,21 +146,13 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
             if (given[argument] && sqlite3_value_type(given[argument]) == SQLITE_NULL)
                 return SQLITE_OK;
         }
+        cursor->range.reset();
         cursor->calendar.emplace(
             make_calendar(spec_arg, given[2], given[3] ? &zone_arg : nullptr, given[3]));
         if (!start || !stop) return SQLITE_OK;
         cursor->like = *start;
-        Instant first = cursor->calendar->place_on_time_line(*start);
-        cursor->stop = cursor->calendar->place_on_time_line(*stop);
-        if (first >= cursor->stop) return SQLITE_OK;
-        cursor->current = cursor->calendar->period_of(first);
-        // Rows are streamed, so memory is bounded anyway; the limit bounds the
-        // time a mistyped range (seconds over centuries) can take. It is met
-        // when the rows are read, not when the range is set, so a LIMIT that
-        // takes the first rows of a huge range still works.
-        std::int64_t last = cursor->calendar->period_of(cursor->stop - Millis(1)).serial;
-        cursor->periods_in_range = last - cursor->current.serial + 1;
-        cursor->done = false;
+        cursor->range.emplace(*cursor->calendar, cursor->calendar->place_on_time_line(*start),
+                              cursor->calendar->place_on_time_line(*stop));
         return SQLITE_OK;
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
@@ -184,28 +172,26 @@ void result_column_error(sqlite3_context* context, const std::exception& error) 
 
 int next(sqlite3_vtab_cursor* base) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
-    if (cursor->current.end >= cursor->stop || cursor->current.end >= latest_supported_instant()) {
-        cursor->done = true;
+    try {
+        cursor->range->advance();
+        ++cursor->row;
         return SQLITE_OK;
-    }
-    try {
-        cursor->current = cursor->calendar->next(cursor->current);
-    } catch (const Error&) {
-        cursor->done = true;  // the calendar's end, year 9999
-    }
-    ++cursor->row;
-    if (cursor->done || cursor->row < kMostPeriods) return SQLITE_OK;
-    try {
-        return set_error(base->pVtab, std::string(kName) + "(): the range holds " +
-                                          std::to_string(cursor->periods_in_range) +
-                                          " periods; at most " + std::to_string(kMostPeriods) +
-                                          " per call: narrow the range or use a longer spec");
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
+    } catch (const Error& error) {
+        // Past the limit of periods per call (core/time/period_cursor.h).
+        try {
+            return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+        } catch (const std::bad_alloc&) {
+            return SQLITE_NOMEM;
+        }
     }
 }
 
-int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
+int eof(sqlite3_vtab_cursor* base) {
+    auto* cursor = reinterpret_cast<Cursor*>(base);
+    return !cursor->range || cursor->range->done() ? 1 : 0;
+}
 
 int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
     auto* cursor = reinterpret_cast<Cursor*>(base);
@@ -213,18 +199,18 @@ int column(sqlite3_vtab_cursor* base, sqlite3_context* context, int index) {
         try {
             switch (index) {
                 case kPeriodStart:
-                    return result_boundary(context, cursor->like, cursor->current.start,
+                    return result_boundary(context, cursor->like, cursor->range->current().start,
                                            *cursor->calendar);
                 case kPeriodEnd:
-                    return result_boundary(context, cursor->like, cursor->current.end,
+                    return result_boundary(context, cursor->like, cursor->range->current().end,
                                            *cursor->calendar);
                 case kLabel: {
-                    std::string label = cursor->calendar->label(cursor->current);
+                    std::string label = cursor->calendar->label(cursor->range->current());
                     return sqlite3_result_text(context, label.c_str(),
                                                static_cast<int>(label.size()), SQLITE_TRANSIENT);
                 }
                 case kSerial:
-                    return sqlite3_result_int64(context, cursor->current.serial);
+                    return sqlite3_result_int64(context, cursor->range->current().serial);
                 default: {
                     sqlite3_value* argument = cursor->arguments[index - kFirstArgument];
                     if (argument) sqlite3_result_value(context, argument);

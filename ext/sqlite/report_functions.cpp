@@ -53,40 +53,26 @@ namespace almanac::sqlite {
 
 namespace {
 
-struct XReading {
-    AxisKind kind;
-    double value;
-};
-
 // A number (including numeric TEXT, as SQLite reads it) or a time value.
 // With a zone, time values are placed on its wall clock (see time_axis_value).
 // With categories, TEXT that is neither a number nor a time value is a
 // category (the caller reads its text).
-std::optional<XReading> read_x(const ArgumentRef& arg, sqlite3_value* value,
-                               const ZoneClock* zone = nullptr, bool categories = false) {
+std::optional<AxisValue> read_x(const ArgumentRef& arg, sqlite3_value* value,
+                                const ZoneClock* zone = nullptr, bool categories = false) {
     switch (sqlite3_value_type(value)) {
         case SQLITE_NULL:
             return std::nullopt;
         case SQLITE_INTEGER:
         case SQLITE_FLOAT:
-            return XReading{AxisKind::Number, *read_number(arg, value)};
+            return AxisValue{AxisKind::Number, *read_number(arg, value)};
         case SQLITE_TEXT: {
             const char* text = reinterpret_cast<const char*>(sqlite3_value_text(value));
-            if (numeric_text(text ? text : ""))
-                return XReading{AxisKind::Number, *read_number(arg, value)};
-            if (categories && !looks_like_a_date(text ? text : "") && !is_valid_time(value))
-                return XReading{AxisKind::Category, 0};
             try {
-                TimeValue time = *read_time(arg, value);
-                return XReading{AxisKind::Time,
-                                zone ? time_axis_value(time, *zone) : time_axis_value(time)};
-            } catch (const SqlError& error) {
-                // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.
-                // (A bar chart takes labels as categories; its error is the date's own.)
-                if (categories) throw;
-                throw SqlError(std::string(error.what()) +
-                               "; x orders the rows, so for periods give period_floor() or "
-                               "period_serial(), not period_label()");
+                return axis_value_of_text(
+                    std::string_view(text ? text : "", sqlite3_value_bytes(value)), zone,
+                    categories);
+            } catch (const Error& error) {
+                raise_argument_error(arg, value, error.what());
             }
         }
         default:
@@ -145,13 +131,6 @@ void sparkline_final(sqlite3_context* context) {
 
 constexpr const char* kChart = "svg_line_chart";
 
-// The options of one chart: read on the first row, the same on every other.
-struct ChartSettings {
-    bool options_read = false;
-    std::optional<std::string> options_text;  // as given on the first row
-    ChartOptions options;
-};
-
 struct ChartState {
     LineChart chart;
     ChartSettings settings;
@@ -172,32 +151,20 @@ std::optional<std::string> read_series(const ArgumentRef& arg, sqlite3_value* va
     }
 }
 
-void read_options(ChartSettings& state, const ArgumentRef& arg, sqlite3_value* value) {
+void read_options(ChartSettings& settings, const ArgumentRef& arg, sqlite3_value* value) {
     auto text = read_text(arg, value);
-    if (!state.options_read) {
-        state.options_read = true;
-        state.options_text = text;
-        if (text) {
-            try {
-                state.options = parse_chart_options(*text);
-            } catch (const Error& error) {
-                raise_argument_error(arg, value, error.what());
-            }
-        }
-        return;
+    try {
+        settings.accept(text);
+    } catch (const Error& error) {
+        raise_argument_error(arg, value, error.what());
     }
-    if (text != state.options_text)
-        raise_argument_error(
-            arg, value,
-            "expected the same options on every row of one chart (the first row had " +
-                (state.options_text ? "'" + *state.options_text + "'" : std::string("NULL")) + ")");
 }
 
 void chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
     guarded(context, [&] {
         auto& state = aggregate_state<ChartState>(context);
         if (argc >= 5) read_options(state.settings, {kChart, 5, "options"}, argv[4]);
-        const ChartOptions& options = state.settings.options;
+        const ChartOptions& options = state.settings.options();
         ArgumentRef x_arg{kChart, 1, "x"};
         auto x = read_x(x_arg, argv[0], options.zone ? &*options.zone : nullptr);
         auto y = read_number({kChart, 2, "y"}, argv[1]);
@@ -232,7 +199,7 @@ void chart_final(sqlite3_context* context) {
             sqlite3_result_null(context);
             return;
         }
-        std::string svg = state->chart.render_svg(state->settings.options);
+        std::string svg = state->chart.render_svg(state->settings.options());
         sqlite3_result_text(context, svg.data(), int(svg.size()), SQLITE_TRANSIENT);
     });
 }
@@ -251,7 +218,7 @@ void bar_chart_step(sqlite3_context* context, int argc, sqlite3_value** argv) {
     guarded(context, [&] {
         auto& state = aggregate_state<BarChartState>(context);
         if (argc >= 4) read_options(state.settings, {kBarChart, 4, "options"}, argv[3]);
-        const ChartOptions& options = state.settings.options;
+        const ChartOptions& options = state.settings.options();
         ArgumentRef x_arg{kBarChart, 1, "x"};
         auto x = read_x(x_arg, argv[0], options.zone ? &*options.zone : nullptr, true);
         auto y = read_number({kBarChart, 2, "y"}, argv[1]);

@@ -41,6 +41,7 @@
 #include "core/stats/median_absolute_deviation.h"
 #include "core/stats/theil_sen.h"
 #include "core/text/error.h"
+#include "core/time/calendar_from_text.h"
 #include "core/time/period_position.h"
 #include "period_context.h"
 #include "registration.h"

@@ -26,6 +26,8 @@ cmake --build "$work/build" -j 2 >> "$work/build.log" 2>&1 || { cat "$work/build
 (cd "$work/build" && cpack -G DEB > "$work/cpack.log" 2>&1) || { cat "$work/cpack.log"; exit 1; }
 runtime_deb=$(ls "$work"/build/packages/libalmanac0_"$version"-1_*.deb)
 dev_deb=$(ls "$work"/build/packages/libalmanac-dev_"$version"-1_*.deb)
+pg_major=$(pg_config --version | grep -o '[0-9]*' | head -1)
+pg_deb=$(ls "$work"/build/packages/postgresql-"$pg_major"-almanac_"$version"-1_*.deb)
 
 step "Depends"
 runtime_depends=$(dpkg-deb -f "$runtime_deb" Depends)
@@ -41,11 +43,17 @@ done
 for needed in "libalmanac0 (= $version-1)" libsqlite3-dev libhowardhinnant-date-dev; do
   [[ $dev_depends == *"$needed"* ]] || fail "libalmanac-dev does not depend on $needed"
 done
+pg_depends=$(dpkg-deb -f "$pg_deb" Depends)
+echo "postgresql-$pg_major-almanac: $pg_depends"
+for needed in "postgresql-$pg_major" libstdc++6 libc6; do
+  [[ $pg_depends == *"$needed"* ]] || fail "postgresql-$pg_major-almanac does not depend on $needed"
+done
 
 step "lintian (errors fail the test; warnings are listed)"
-lintian --fail-on error --tag-display-limit 0 "$runtime_deb" "$dev_deb" 2>&1 |
+lintian --fail-on error --tag-display-limit 0 "$runtime_deb" "$dev_deb" "$pg_deb" 2>&1 |
   grep -v 'running with root privileges' || true
-lintian --fail-on error "$runtime_deb" "$dev_deb" > /dev/null 2>&1 || fail "lintian reports errors"
+lintian --fail-on error "$runtime_deb" "$dev_deb" "$pg_deb" > /dev/null 2>&1 ||
+  fail "lintian reports errors"
 
 step "extract into a temporary root"
 root="$work/root"
@@ -111,4 +119,43 @@ done
 consumer_ldd=$(LD_LIBRARY_PATH="$libdir" ldd "$work/consumer/consumer_shared")
 grep -q "libalmanac.so.0 => $libdir/" <<< "$consumer_ldd" ||
   fail "consumer_shared did not use the extracted libalmanac.so.0"
+step "CREATE EXTENSION almanac from the PostgreSQL package"
+# PostgreSQL finds its share folder relative to its binaries, so a copy of the
+# server beside the extracted package is a server with the package installed,
+# and the system's own folders stay untouched. It runs as an unprivileged
+# user (PostgreSQL refuses root), on a Unix socket in its folder only.
+pg_root="$work/pg_root"
+dpkg-deb -x "$pg_deb" "$pg_root"
+for file in "usr/lib/postgresql/$pg_major/lib/almanac.so" \
+            "usr/share/postgresql/$pg_major/extension/almanac.control" \
+            "usr/share/postgresql/$pg_major/extension/almanac--$version.sql"; do
+  [ -e "$pg_root/$file" ] || fail "postgresql-$pg_major-almanac lacks /$file"
+done
+cp -an "/usr/lib/postgresql/$pg_major" "$pg_root/usr/lib/postgresql/"
+cp -an "/usr/share/postgresql/$pg_major" "$pg_root/usr/share/postgresql/"
+pg_user=postgres
+[ "$(id -u)" -eq 0 ] || pg_user=$(id -un)
+pg_data="$work/pg_data"
+mkdir -p "$pg_data"
+[ "$(id -u)" -eq 0 ] && chown "$pg_user" "$pg_data" "$work"
+as_pg() { if [ "$(id -u)" -eq 0 ]; then su "$pg_user" -s /bin/sh -c "$*"; else sh -c "$*"; fi; }
+pg_bin="$pg_root/usr/lib/postgresql/$pg_major/bin"
+as_pg "'$pg_bin/initdb' -D '$pg_data/db' -A trust -U almanac > '$work/initdb.log' 2>&1" ||
+  { cat "$work/initdb.log"; fail "initdb"; }
+stop_server() { as_pg "'$pg_bin/pg_ctl' -D '$pg_data/db' -m immediate stop > /dev/null 2>&1" || true; }
+trap stop_server EXIT
+as_pg "'$pg_bin/pg_ctl' -D '$pg_data/db' -w -l '$pg_data/log' \
+       -o \"-k '$pg_data' -c listen_addresses='' -p 54329\" start > /dev/null" ||
+  { cat "$pg_data/log"; fail "the server did not start"; }
+pg_out=$(as_pg "psql -X -A -t -h '$pg_data' -p 54329 -U almanac -d postgres \
+  -c 'CREATE EXTENSION almanac' \
+  -c \"SELECT period_floor('2026-03-05 14:20', 'week'), period_label('2026-03-05', 'quarter starting april')\" \
+  -c 'SELECT almanac_version()'") || fail "CREATE EXTENSION almanac failed"
+echo "$pg_out"
+# The same answers as the sqlite3 shell's above; the first line is psql's CREATE EXTENSION tag.
+[ "$(tail -n 2 <<< "$pg_out")" = "2026-03-02|FY2026-Q4"$'\n'"$version" ] ||
+  fail "the PostgreSQL extension's answers differ"
+stop_server
+trap - EXIT
+
 echo "the packages install, load, link and pass lintian"

@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "core/text/error.h"
+#include "core/text/number_text.h"
 
 namespace almanac {
 
@@ -18,6 +19,26 @@ double time_axis_value(const TimeValue& value, const ZoneClock& zone) {
 
 Instant instant_from_axis_value(double value) {
     return Instant{Millis{static_cast<std::int64_t>(std::llround(value))}};
+}
+
+AxisValue axis_value_of_text(std::string_view text, const ZoneClock* zone, bool categories) {
+    if (auto number = numeric_text(text)) {
+        if (!std::isfinite(*number)) throw Error("expected a finite number");
+        return AxisValue{AxisKind::Number, *number};
+    }
+    try {
+        TimeValue time = parse_time_text(text);
+        return AxisValue{AxisKind::Time,
+                         zone ? time_axis_value(time, *zone) : time_axis_value(time)};
+    } catch (const Error& error) {
+        if (categories && !looks_like_a_date(text)) return AxisValue{AxisKind::Category, 0};
+        // A period label ('2024-W05', '2024-Q1') is the usual mistake: say what orders.
+        // (A bar chart takes labels as categories; its error is the date's own.)
+        if (categories) throw;
+        throw Error(std::string(error.what()) +
+                    "; x orders the rows, so for periods give period_floor() or "
+                    "period_serial(), not period_label()");
+    }
 }
 
 bool looks_like_a_date(std::string_view text) {

@@ -29,7 +29,20 @@ Instant instant_from_axis_value(double value);
 // it when it does not read as one rather than taking it for a category.
 bool looks_like_a_date(std::string_view text);
 
-const char* describe_axis_kind(AxisKind kind);  // "a number", "a time value", "a category"
+const char* describe_axis_kind(AxisKind kind);
+
+// An x value read from TEXT, as every binding reads it: a number when the
+// whole text is one; for a bar chart (categories), a category when it is
+// neither a number nor a time value and does not begin like a date; else a
+// time value, on the zone's wall clock when one is given. Throws Error
+// saying what was expected (for a time value that does not read, with the
+// hint that period labels do not order a chart's rows).
+struct AxisValue {
+    AxisKind kind;
+    double value;  // 0 for a category (the caller keeps its text)
+};
+AxisValue axis_value_of_text(std::string_view text, const ZoneClock* zone,
+                             bool categories);  // "a number", "a time value", "a category"
 
 // Remembers the kind of the first x value and refuses the other kind later:
 // a chart cannot put numbers and dates on one axis.

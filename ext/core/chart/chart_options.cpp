@@ -97,4 +97,16 @@ ChartOptions parse_chart_options(std::string_view json) {
     return options;
 }
 
+void ChartSettings::accept(const std::optional<std::string>& text) {
+    if (!read_) {
+        read_ = true;
+        text_ = text;
+        if (text) options_ = parse_chart_options(*text);
+        return;
+    }
+    if (text != text_)
+        throw Error("expected the same options on every row of one chart (the first row had " +
+                    (text_ ? "'" + *text_ + "'" : std::string("NULL")) + ")");
+}
+
 }  // namespace almanac

@@ -45,4 +45,21 @@ const char* known_chart_option_keys();
 // Throws almanac::Error naming the key and the value, and what was expected.
 ChartOptions parse_chart_options(std::string_view json);
 
+// The options of one chart as its rows give them: read on the first row and
+// the same on every other (a chart is one picture).
+class ChartSettings {
+  public:
+    // The row's options text (nothing for NULL). Throws almanac::Error for
+    // options that do not parse, or that differ from the first row's.
+    void accept(const std::optional<std::string>& text);
+    const ChartOptions& options() const { return options_; }
+    bool read() const { return read_; }
+    const std::optional<std::string>& text() const { return text_; }
+
+  private:
+    bool read_ = false;
+    std::optional<std::string> text_;  // as given on the first row
+    ChartOptions options_;
+};
+
 }  // namespace almanac

@@ -10,6 +10,7 @@
 #include <optional>
 
 #include "core/exact/exact_sum.h"
+#include "core/exact/state_bytes.h"
 #include "core/exact/wide_integer.h"
 
 namespace almanac {
@@ -35,6 +36,12 @@ class ExactTotal {
     }
 
     std::int64_t count() const { return integer_count_ + real_count_; }
+    // Adds another group's values, exactly.
+    void merge(const ExactTotal& other);
+    // The byte form (core/exact/state_bytes.h): the integer count, the real
+    // count, the integers' total as two i64 halves (high, then low bits), the sum.
+    void write(ByteWriter& out) const;
+    static ExactTotal read(ByteReader& in);
     // Nothing when no value is present (SQL's sum of no rows is NULL).
     std::optional<Value> value() const;
 

@@ -61,6 +61,41 @@ void ExponentialWeights::change(double x, Position p, int direction) {
     }
 }
 
+void ExponentialWeights::merge(const ExponentialWeights& other) {
+    for (const auto& [key, theirs] : other.blocks_) {
+        Block& block = blocks_[key];
+        block.weighted.add(theirs.weighted, 0);
+        block.weights.add(theirs.weights, 0);
+        block.rows += theirs.rows;
+    }
+    rows_ += other.rows_;
+}
+
+void ExponentialWeights::write(ByteWriter& out) const {
+    out.i64(static_cast<std::int64_t>(blocks_.size()));
+    for (const auto& [key, block] : blocks_) {
+        out.i64(key);
+        out.i64(block.rows);
+        out.exact_sum(block.weighted);
+        out.exact_sum(block.weights);
+    }
+}
+
+ExponentialWeights ExponentialWeights::read(ByteReader& in) {
+    ExponentialWeights weights;
+    std::int64_t blocks = in.count(INT64_MAX);
+    for (std::int64_t i = 0; i < blocks; ++i) {
+        std::int64_t key = in.i64();
+        Block& block = weights.blocks_[key];
+        block.rows = in.count(INT64_MAX);
+        if (block.rows == 0) throw Error("a state's bytes hold an empty block");
+        in.add_exact_sum(block.weighted);
+        in.add_exact_sum(block.weights);
+        weights.rows_ += block.rows;
+    }
+    return weights;
+}
+
 std::optional<double> ExponentialWeights::mean() const {
     if (blocks_.empty()) return std::nullopt;
     auto latest = blocks_.rbegin();

@@ -23,6 +23,7 @@
 #include <optional>
 
 #include "core/exact/exact_sum.h"
+#include "core/exact/state_bytes.h"
 
 namespace almanac {
 
@@ -44,6 +45,12 @@ class ExponentialWeights {
     void add(double x, Position p) { change(x, p, +1); }
     void remove(double x, Position p) { change(x, p, -1); }
     std::int64_t count() const { return rows_; }
+    // Adds another group's rows: block by block, exactly.
+    void merge(const ExponentialWeights& other);
+    // The byte form (core/exact/state_bytes.h): the block count, then for each
+    // block its key, its row count and its two sums (weighted, weights).
+    void write(ByteWriter& out) const;
+    static ExponentialWeights read(ByteReader& in);
     // nullopt when no rows are present.
     std::optional<double> mean() const;
 

@@ -49,6 +49,30 @@ std::optional<double> UnivariateMoments::standard_deviation(bool sample) const {
     return sqrt(d.to_scaled() / denominator).to_double();
 }
 
+void BivariateMoments::merge(const BivariateMoments& other) {
+    n_ += other.n_;
+    sum_x_.add(other.sum_x_, 0);
+    sum_y_.add(other.sum_y_, 0);
+    sum_xx_.add(other.sum_xx_, 0);
+    sum_xy_.add(other.sum_xy_, 0);
+    sum_yy_.add(other.sum_yy_, 0);
+}
+
+void BivariateMoments::write(ByteWriter& out) const {
+    out.i64(n_);
+    for (const ExactSum* sum : {&sum_x_, &sum_y_, &sum_xx_, &sum_xy_, &sum_yy_})
+        out.exact_sum(*sum);
+}
+
+BivariateMoments BivariateMoments::read(ByteReader& in) {
+    BivariateMoments moments;
+    moments.n_ = in.count(INT64_MAX);
+    for (ExactSum* sum :
+         {&moments.sum_x_, &moments.sum_y_, &moments.sum_xx_, &moments.sum_xy_, &moments.sum_yy_})
+        in.add_exact_sum(*sum);
+    return moments;
+}
+
 void BivariateMoments::add(double y, double x) {
     ++n_;
     sum_x_.add(x);

@@ -22,6 +22,7 @@
 
 #include "core/exact/exact_number.h"
 #include "core/exact/exact_sum.h"
+#include "core/exact/state_bytes.h"
 
 namespace almanac {
 
@@ -46,6 +47,11 @@ class BivariateMoments {
     void add(double y, double x);
     void remove(double y, double x);
     std::int64_t count() const { return n_; }
+    // Adds another group's rows: its sums, exactly.
+    void merge(const BivariateMoments& other);
+    // The byte form (core/exact/state_bytes.h): n, then the sums Σx, Σy, Σx², Σxy, Σy².
+    void write(ByteWriter& out) const;
+    static BivariateMoments read(ByteReader& in);
 
     std::optional<double> mean_x() const;
     std::optional<double> mean_y() const;
