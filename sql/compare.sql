@@ -9,8 +9,13 @@
 --             that is the same ISO 8601 week number of the previous ISO year
 --             (2025-W10 against 2024-W10: the same weekdays and the same place
 --             in the season; a week 53 whose previous year has none has no
---             base); for every other unit the period that holds the start
---             shifted back 12 months (the same month, half-month or quarter).
+--             base); for retail units and fiscal quarters and years the
+--             period of the same label in the previous retail (fiscal) year
+--             (FY2026-P03 against FY2025-P03, FY2026-W10 against FY2025-W10;
+--             a retail week 53 whose previous year has none has no base: its
+--             base_period says so and its change is NULL); for every other
+--             unit the period that holds the start shifted back 12 months
+--             (the same month, half-month or quarter).
 -- A base span is cut at the end of its period (a 31-day month elapsed against
 -- a 30-day one), and a base span that the data does not cover entirely is not
 -- compared at all (its figures and changes are NULL): a partial period is never
@@ -55,7 +60,9 @@
 -- a date needs both kinds of quotes, or the shell computes 2025-01-06 = 2018):
 --   @zone        IANA time zone of the shop's calendar       default 'UTC'
 --   @unit        a spec of a day or longer: 'week', 'half-month', 'month',
---                'quarter starting october', ...            default 'week'
+--                'quarter starting october', a retail unit such as
+--                'retail month ending saturday nearest end of january', ...
+--                                                            default 'week'
 --   @against     'previous', 'year', or unset for both
 --   @start       first local day of the data, "'YYYY-MM-DD'" default: the day of the first sale
 --   @stop        local day after the last one compared      default: the day after the last sale
@@ -64,6 +71,8 @@
 --                names the closest item, from known_name())
 --   @by_segment  1: rows for each segment as well as for all segments   default 0
 --   @day_start   'HH:MM': a business day begins at that hour     default: midnight
+--                (not with a retail @unit: retail periods begin at midnight
+--                and take no 'from', so the spec is refused)
 --
 -- Columns:
 --   segment                'all segments', or with @by_segment = 1 also each segment
@@ -77,7 +86,8 @@
 --   amount                 money received in the span, rounded to cents
 --   per_trading_day        amount / trading_days
 --   against                'previous' or 'year'
---   base_period            the base period's label
+--   base_period            the base period's label ('none: FY2023-W53 does not exist'
+--                          for a retail week 53 without a base)
 --   base_span              its days compared: the same number of days from its start
 --   base_trading_days      days of the base span with sales
 --   base_amount            money received in the base span
@@ -119,11 +129,21 @@ latest AS (
 -- The ISO week (the spec's periods are the calendar's weeks) is compared with
 -- the week of the same number a year earlier, 52 or 53 weeks back.
 bases AS (
-  SELECT 'previous' AS against, period_shift(latest.start, -1, s.spec, s.zone) AS start
+  SELECT 'previous' AS against, period_shift(latest.start, -1, s.spec, s.zone) AS start, NULL AS wanted
   FROM latest, settings AS s
   WHERE s.against IS NULL OR s.against = 'previous'
   UNION ALL
-  SELECT 'year', CASE WHEN period_floor(latest.start, s.iso_week, s.zone) = latest.start
+  -- Retail and fiscal periods (labels FYyyyy, FYyyyy-Qn, -Pnn, -Wnn) are compared
+  -- with the one of the same label in the year before: FY2026-W10 with FY2025-W10,
+  -- found among the periods a year's worth of them back (52 or 53 retail weeks,
+  -- 12 months, 4 quarters, 1 year). A week 53 whose year before has none has no base.
+  SELECT 'year', CASE WHEN y.wanted IS NOT NULL THEN
+                (SELECT b.start FROM (SELECT period_shift(latest.start, column1, s.spec, s.zone) AS start
+                                      FROM (VALUES (-1), (-4), (-12), (-52), (-53))
+                                      UNION ALL
+                                      SELECT period_floor(period_shift(latest.start, -12, 'month', s.zone), s.spec, s.zone)) AS b
+                 WHERE period_label(b.start, coalesce(@unit, 'week'), s.zone) = y.wanted LIMIT 1)
+              WHEN period_floor(latest.start, s.iso_week, s.zone) = latest.start
                    AND period_end(latest.start, s.iso_week, s.zone) = period_end(latest.start, s.spec, s.zone) THEN
                 CASE period_position(latest.start, 'week', 'year', s.zone)
                   WHEN period_position(period_shift(latest.start, -52, s.iso_week, s.zone), 'week', 'year', s.zone)
@@ -132,15 +152,19 @@ bases AS (
                     THEN period_shift(latest.start, -53, s.iso_week, s.zone)
                 END
               ELSE period_floor(period_shift(latest.start, -12, 'month', s.zone), s.spec, s.zone)
-         END
-  FROM latest, settings AS s
+         END, y.wanted
+  FROM latest, settings AS s,
+       (SELECT CASE WHEN label GLOB 'FY[0-9][0-9][0-9][0-9]*'
+                    THEN printf('FY%04d', substr(label, 3, 4) - 1) || substr(label, 7) END AS wanted
+        FROM (SELECT period_label(latest.start, coalesce(@unit, 'week'), s.zone) AS label
+              FROM latest, settings AS s)) AS y
   WHERE s.against IS NULL OR s.against = 'year'
 ),
 windows AS (
   SELECT *, min(base_first_day + elapsed, base_end_day) AS base_after_day,
          -- the base span counts only when the data covers all of it
          base_first_day >= data_first AND min(base_first_day + elapsed, base_end_day) <= data_after AS base_covered
-  FROM (SELECT b.against, latest.start, b.start AS base_start, latest.data_first, latest.data_after,
+  FROM (SELECT b.against, latest.start, b.start AS base_start, b.wanted, latest.data_first, latest.data_after,
                period_serial(latest.start, s.day, s.zone) AS first_day,
                period_serial(period_end(latest.start, s.spec, s.zone), s.day, s.zone) AS end_day,
                latest.data_after - period_serial(latest.start, s.day, s.zone) AS elapsed,
@@ -170,7 +194,7 @@ items AS (
   WHERE d.segment = 'all segments' AND (chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item)
 ),
 compared AS (
-  SELECT g.segment, i.item, w.against, w.start, w.base_start, w.end_day - w.first_day AS days_in_period, w.elapsed,
+  SELECT g.segment, i.item, w.against, w.start, w.base_start, w.wanted, w.end_day - w.first_day AS days_in_period, w.elapsed,
          w.base_after_day - w.base_first_day AS base_days, coalesce(a.amount, 0) AS amount,
          coalesce(t.trading_days, 0) AS trading_days, CASE WHEN w.base_covered THEN coalesce(a.base, 0) END AS base_amount,
          CASE WHEN w.base_covered THEN coalesce(t.base_trading_days, 0) END AS base_trading_days
@@ -184,7 +208,8 @@ SELECT c.segment, c.item, period_label(c.start, coalesce(@unit, 'week'), s.zone)
          || period_label(period_shift(c.start, c.elapsed - 1, s.day, s.zone), s.day, s.zone) AS span,
        c.trading_days, round(c.amount, 2) AS amount,
        round(c.amount / nullif(c.trading_days, 0), 2) AS per_trading_day,
-       c.against, period_label(c.base_start, coalesce(@unit, 'week'), s.zone) AS base_period,
+       c.against, coalesce(period_label(c.base_start, coalesce(@unit, 'week'), s.zone),
+                           'none: ' || c.wanted || ' does not exist') AS base_period,
        period_label(c.base_start, s.day, s.zone) || '..'
          || period_label(period_shift(c.base_start, c.base_days - 1, s.day, s.zone), s.day, s.zone) AS base_span,
        c.base_trading_days, round(c.base_amount, 2) AS base_amount,

@@ -32,7 +32,9 @@
 -- a date needs both kinds of quotes, or the shell computes 2025-01-06 = 2018):
 --   @zone        IANA time zone of the shop's calendar       default 'UTC'
 --   @unit        any period spec: 'week', 'half-month', 'month',
---                'quarter starting october', '2 weeks', ...  default 'week'
+--                'quarter starting october', '2 weeks', a retail unit such
+--                as 'retail month ending saturday nearest end of january'
+--                (labels FY2026-P03), ...                    default 'week'
 --   @start       first local day reported, "'YYYY-MM-DD'"   default: the day of the first sale
 --   @stop        local day after the last one reported      default: the day after the last sale
 --   @item        unset: all items together; '*': one row per item; a name: that item only
@@ -42,6 +44,8 @@
 --   @by_segment  1: rows for each segment as well as for all segments   default 0
 --   @day_start   'HH:MM': a business day begins at that hour ('04:00' counts
 --                a sale at 00:45 in the day before); periods start at it too
+--                (not with a retail @unit: retail periods begin at midnight
+--                and take no 'from', so the spec is refused)
 --                                                            default: midnight
 --
 -- The range: [@start, @stop) when given; by default the local days from the

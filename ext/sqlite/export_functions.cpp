@@ -259,7 +259,7 @@ void to_time(sqlite3_context* context, int argc, sqlite3_value** argv) {
         }
         if (reading.has_offset || reader.zone) {
             Instant instant = reading.has_offset
-                                  ? Instant{reading.local.time_since_epoch()} - reading.offset
+                                  ? instant_at_offset(reading.local, reading.offset)
                                   : instant_of_local_reading(*reader.zone, reading.local);
             return result_reading(context, text, LocalTime{instant.time_since_epoch()}, true);
         }

@@ -135,8 +135,14 @@ std::vector<Range> cut(sqlite3_int64 first, sqlite3_int64 last, std::uint64_t co
 // One thread's share: its connection (the caller's for the calling
 // thread), its totals and calendar, its pass.
 struct Reader {
-    sqlite3* db = nullptr;  // owned for a helper
+    sqlite3* db = nullptr;  // owned for a helper: closed with it
     bool helper = false;
+    Reader() = default;
+    Reader(const Reader&) = delete;
+    Reader& operator=(const Reader&) = delete;
+    ~Reader() {
+        if (helper) sqlite3_close(db);
+    }
     std::string sql;        // the pass over one range of rowids
     std::unique_ptr<PeriodTotals> own_totals;
     std::optional<PeriodCalendar> calendar;
@@ -334,17 +340,21 @@ int read_in_parallel(sqlite3* db, const char* function, const TableToSplit& tabl
     std::string rowid = rowid_name(table);
     if (rowid.empty()) return 0;
 
-    // The pin: kept stepped until every helper is done, it holds the
-    // caller's read transaction (and so, in rollback mode, its SHARED lock).
+    // The table's first and last rowid, each one descent of the b-tree (SQLite
+    // answers a lone min() or max() of the rowid that way; both in one SELECT
+    // would scan the table). The second is the pin: kept stepped until every
+    // helper is done, it holds the caller's read transaction (and so, in
+    // rollback mode, its SHARED lock).
     std::string from = quoted_schema + "." + quote_identifier(table.name);
-    Statement pin;
-    if (!pin.prepare(db, "SELECT min(" + rowid + "), max(" + rowid + ") FROM " + from))
+    Statement lowest, pin;
+    if (!lowest.prepare(db, "SELECT min(" + rowid + ") FROM " + from) ||
+        !pin.prepare(db, "SELECT max(" + rowid + ") FROM " + from))
         return 0;  // a table without rowids
-    if (sqlite3_step(pin.handle) != SQLITE_ROW ||
+    if (sqlite3_step(pin.handle) != SQLITE_ROW || sqlite3_step(lowest.handle) != SQLITE_ROW ||
         sqlite3_column_type(pin.handle, 0) != SQLITE_INTEGER)
         return 0;  // empty, or a failure the one-thread read will meet and name
-    sqlite3_int64 first = sqlite3_column_int64(pin.handle, 0);
-    sqlite3_int64 last = sqlite3_column_int64(pin.handle, 1);
+    sqlite3_int64 first = sqlite3_column_int64(lowest.handle, 0);
+    sqlite3_int64 last = sqlite3_column_int64(pin.handle, 0);
     std::uint64_t span = static_cast<std::uint64_t>(last) - static_cast<std::uint64_t>(first);
     std::uint64_t wanted = std::min<std::uint64_t>(static_cast<std::uint64_t>(threads),
                                                    span / kMinRowidsPerThread);
@@ -356,11 +366,10 @@ int read_in_parallel(sqlite3* db, const char* function, const TableToSplit& tabl
     helpers.crew.ranges = cut(first, last, wanted * kRangesPerThread);
     std::string where = " WHERE " + rowid + " BETWEEN ?2 AND ?3";
     for (std::uint64_t i = 1; i < wanted; ++i) {
-        sqlite3* connection = open_helper(file, vfs->zName);
-        if (!connection) break;  // the others read its share
         auto reader = std::make_unique<Reader>();
-        reader->db = connection;
         reader->helper = true;
+        reader->db = open_helper(file, vfs->zName);
+        if (!reader->db) break;  // the others read its share
         reader->sql = table.pass_select("main." + quote_identifier(table.name)) + where;
         reader->own_totals = std::make_unique<PeriodTotals>(kMaxCells, prototype.totals->has_segments());
         reader->calendar.emplace(*prototype.calendar);

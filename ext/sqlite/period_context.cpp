@@ -7,24 +7,47 @@
 
 namespace almanac::sqlite {
 
-PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
-                             const ArgumentRef* zone_arg, sqlite3_value* zone) {
-    auto spec_text = read_text(spec_arg, spec);
-    PeriodSpec parsed;
+PeriodSpec read_spec(const ArgumentRef& arg, sqlite3_value* value) {
+    auto text = read_text(arg, value);
     try {
-        parsed = parse_period_spec(*spec_text);
+        return parse_period_spec(*text);
+    } catch (const Error& error) {
+        raise_argument_error(arg, value, error.what());
+    }
+}
+
+ZoneClock read_zone(const ArgumentRef& arg, sqlite3_value* value) {
+    auto text = read_text(arg, value);
+    try {
+        return ZoneClock::named(*text);
+    } catch (const Error& error) {
+        raise_argument_error(arg, value, error.what());
+    }
+}
+
+SpecInCycle read_spec_in_cycle(const ArgumentRef& spec_arg, sqlite3_value* spec,
+                               const ArgumentRef& cycle_arg, sqlite3_value* cycle,
+                               const ArgumentRef* zone_arg, sqlite3_value* zone) {
+    const PeriodSpec parsed_spec = read_spec(spec_arg, spec);
+    try {
+        check_position_spec(parsed_spec);
     } catch (const Error& error) {
         raise_argument_error(spec_arg, spec, error.what());
     }
-    ZoneClock clock = ZoneClock::utc();
-    if (zone_arg) {
-        auto zone_text = read_text(*zone_arg, zone);
-        try {
-            clock = ZoneClock::named(*zone_text);
-        } catch (const Error& error) {
-            raise_argument_error(*zone_arg, zone, error.what());
-        }
+    const PeriodSpec parsed_cycle = read_spec(cycle_arg, cycle);
+    const ZoneClock clock = zone_arg ? read_zone(*zone_arg, zone) : ZoneClock::utc();
+    try {
+        return SpecInCycle{parsed_spec, parsed_cycle,
+                           PeriodPosition(parsed_spec, parsed_cycle, clock)};
+    } catch (const Error& error) {
+        raise_argument_error(cycle_arg, cycle, error.what());
     }
+}
+
+PeriodCalendar make_calendar(const ArgumentRef& spec_arg, sqlite3_value* spec,
+                             const ArgumentRef* zone_arg, sqlite3_value* zone) {
+    const PeriodSpec parsed = read_spec(spec_arg, spec);
+    const ZoneClock clock = zone_arg ? read_zone(*zone_arg, zone) : ZoneClock::utc();
     try {
         return PeriodCalendar(parsed, clock);
     } catch (const Error& error) {

@@ -10,8 +10,25 @@
 
 #include "arguments.h"
 #include "core/time/period_calendar.h"
+#include "core/time/period_position.h"
 
 namespace almanac::sqlite {
+
+// A spec read and parsed, a zone read and found: errors name the argument.
+PeriodSpec read_spec(const ArgumentRef& arg, sqlite3_value* value);
+ZoneClock read_zone(const ArgumentRef& arg, sqlite3_value* value);
+
+// spec periods within a cycle, as period_position numbers them: the spec
+// must give positions (no 'from') and nest in the cycle, in the zone (UTC
+// when zone_arg is nullptr). Errors name the argument: the spec's own, the
+// cycle's for a pair that does not nest (saying which pairs do).
+struct SpecInCycle {
+    PeriodSpec spec, cycle;
+    PeriodPosition position;
+};
+SpecInCycle read_spec_in_cycle(const ArgumentRef& spec_arg, sqlite3_value* spec,
+                               const ArgumentRef& cycle_arg, sqlite3_value* cycle,
+                               const ArgumentRef* zone_arg, sqlite3_value* zone);
 
 // Builds the calendar for (spec, zone); zone may be absent. Errors name the
 // argument that caused them.

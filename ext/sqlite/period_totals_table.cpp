@@ -55,6 +55,7 @@
 #include "period_context.h"
 #include "registration.h"
 #include "source_reading.h"
+#include "totals_values.h"
 
 namespace almanac::sqlite {
 namespace {
@@ -262,31 +263,6 @@ int next(sqlite3_vtab_cursor* base) {
 }
 
 int eof(sqlite3_vtab_cursor* base) { return reinterpret_cast<Cursor*>(base)->done ? 1 : 0; }
-
-void result_total(sqlite3_context* context, const PeriodCell* cell, const CompactTotal* total) {
-    if (!cell) return sqlite3_result_int(context, 0);
-    auto value = total ? total->value() : std::nullopt;
-    if (!value) return sqlite3_result_null(context);
-    if (value->is_integer) return sqlite3_result_int64(context, value->integer);
-    sqlite3_result_double(context, value->real);
-}
-
-void result_value(sqlite3_context* context, const ValueKey& key) {
-    switch (key.kind) {
-        case ValueKey::Kind::Null:
-            return sqlite3_result_null(context);
-        case ValueKey::Kind::Integer:
-            return sqlite3_result_int64(context, key.integer);
-        case ValueKey::Kind::Real:
-            return sqlite3_result_double(context, key.real);
-        case ValueKey::Kind::Text:
-            return sqlite3_result_text(context, key.bytes.data(),
-                                       static_cast<int>(key.bytes.size()), SQLITE_TRANSIENT);
-        case ValueKey::Kind::Blob:
-            return sqlite3_result_blob(context, key.bytes.data(),
-                                       static_cast<int>(key.bytes.size()), SQLITE_TRANSIENT);
-    }
-}
 
 // A covered bound: as a period boundary, except that TEXT inside a day is a
 // date-time (core/time/period_range.h).

@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 #include "reading_pass.h"
 
+#include <memory>
 #include <string>
 
 #include "arguments.h"
@@ -174,26 +175,33 @@ void pass_final(sqlite3_context* context) { sqlite3_result_null(context); }
 PassResult run_pass(sqlite3* db, const char* function, const std::string& sql, Pass& pass,
                     const sqlite3_int64* rowid_range) {
     PassResult result;
-    sqlite3_stmt* statement = nullptr;
-    int rc = sqlite3_prepare_v2(db, sql.c_str(), static_cast<int>(sql.size()), &statement, nullptr);
-    if (rc == SQLITE_OK) rc = sqlite3_bind_pointer(statement, 1, &pass, kPassPointer, nullptr);
-    if (rc == SQLITE_OK && rowid_range) rc = sqlite3_bind_int64(statement, 2, rowid_range[0]);
-    if (rc == SQLITE_OK && rowid_range) rc = sqlite3_bind_int64(statement, 3, rowid_range[1]);
+    // Finalized however this is left: a message that cannot be allocated
+    // must not leave the statement (and so the connection) open.
+    std::unique_ptr<sqlite3_stmt, int (*)(sqlite3_stmt*)> statement(nullptr, sqlite3_finalize);
+    sqlite3_stmt* prepared = nullptr;
+    int rc = sqlite3_prepare_v2(db, sql.c_str(), static_cast<int>(sql.size()), &prepared, nullptr);
+    statement.reset(prepared);
+    if (rc == SQLITE_OK) rc = sqlite3_bind_pointer(prepared, 1, &pass, kPassPointer, nullptr);
+    if (rc == SQLITE_OK && rowid_range) rc = sqlite3_bind_int64(prepared, 2, rowid_range[0]);
+    if (rc == SQLITE_OK && rowid_range) rc = sqlite3_bind_int64(prepared, 3, rowid_range[1]);
     if (rc == SQLITE_OK) {
-        rc = sqlite3_step(statement);
+        rc = sqlite3_step(prepared);
         if (rc == SQLITE_ROW) rc = SQLITE_OK;
     }
-    if (rc != SQLITE_OK) {
-        result.rc = rc;
+    if (rc == SQLITE_OK) return result;
+    result.rc = rc;
+    try {
         if (!pass.error.empty()) {
             result.error = pass.error;
         } else {
             // The connection's message, before finalize can change it.
-            result.rc = sqlite3_errcode(db) == SQLITE_NOMEM ? SQLITE_NOMEM : rc;
+            if (sqlite3_errcode(db) == SQLITE_NOMEM) result.rc = SQLITE_NOMEM;
             result.error = std::string(function) + "(): " + sqlite3_errmsg(db);
         }
+    } catch (const std::bad_alloc&) {
+        result.rc = SQLITE_NOMEM;
+        result.error.clear();
     }
-    sqlite3_finalize(statement);
     return result;
 }
 

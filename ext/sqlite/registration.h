@@ -17,5 +17,6 @@ int register_season_functions(sqlite3* db);
 int register_name_functions(sqlite3* db);
 int register_data_range_functions(sqlite3* db);
 int register_data_check_functions(sqlite3* db);
+int register_period_decomposition_table(sqlite3* db);
 
 }  // namespace almanac::sqlite

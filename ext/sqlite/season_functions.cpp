@@ -22,10 +22,13 @@
 //  4. mad(x): the median of |x - median(x)|, unscaled; NULL for no rows.
 // 2-4 are plain aggregates and window functions (each frame is recomputed
 // from its rows: O(w log w) for 2 and 3, O(w) for 4). Rows with a NULL
-// argument are skipped. y, x and season are INTEGER, REAL, or TEXT that
-// SQLite reads as a number; other TEXT, BLOBs and infinities raise
-// "fn(): argument N (name) = <value>: expected ...". A season is any number
-// that names it (period_position gives one).
+// argument are skipped. y and x are INTEGER, REAL, or TEXT that SQLite
+// reads as a number; other TEXT, BLOBs and infinities raise
+// "fn(): argument N (name) = <value>: expected ...". A season is any value
+// but NULL: a number (period_position gives one) compared by value, or a
+// label ('Mon', 'spring') compared by its bytes; the per-season sums run in
+// SQLite's order of the seasons (numbers, then TEXT), so seasons coded as
+// text give the same bits as the same seasons coded as numbers in that order.
 #include <algorithm>
 #include <deque>
 #include <new>
@@ -52,37 +55,10 @@ constexpr ArgumentRef kPositionSpec{"period_position", 2, "spec"};
 constexpr ArgumentRef kPositionCycle{"period_position", 3, "cycle"};
 constexpr ArgumentRef kPositionZone{"period_position", 4, "zone"};
 
-PeriodSpec read_spec(const ArgumentRef& arg, sqlite3_value* value) {
-    auto text = read_text(arg, value);
-    try {
-        return parse_period_spec(*text);
-    } catch (const Error& error) {
-        raise_argument_error(arg, value, error.what());
-    }
-}
-
 PeriodPosition make_position(sqlite3_value** argv, int argc) {
-    const PeriodSpec spec = read_spec(kPositionSpec, argv[1]);
-    try {
-        check_position_spec(spec);
-    } catch (const Error& error) {
-        raise_argument_error(kPositionSpec, argv[1], error.what());
-    }
-    const PeriodSpec cycle = read_spec(kPositionCycle, argv[2]);
-    ZoneClock clock = ZoneClock::utc();
-    if (argc == 4) {
-        auto zone = read_text(kPositionZone, argv[3]);
-        try {
-            clock = ZoneClock::named(*zone);
-        } catch (const Error& error) {
-            raise_argument_error(kPositionZone, argv[3], error.what());
-        }
-    }
-    try {
-        return PeriodPosition(spec, cycle, clock);
-    } catch (const Error& error) {
-        raise_argument_error(kPositionCycle, argv[2], error.what());
-    }
+    return read_spec_in_cycle(kPositionSpec, argv[1], kPositionCycle, argv[2],
+                              argc == 4 ? &kPositionZone : nullptr, argc == 4 ? argv[3] : nullptr)
+        .position;
 }
 
 void delete_position(void* pointer) { delete static_cast<PeriodPosition*>(pointer); }
@@ -183,19 +159,51 @@ struct Frame {
 };
 
 bool same_point(const SeasonalPoint& a, const SeasonalPoint& b) {
-    return a.x == b.x && a.y == b.y && a.season == b.season;
+    return a.x == b.x && a.y == b.y && same_season(a.season, b.season);
+}
+
+// Any value but NULL names a season, as SQLite holds it: INTEGER and REAL
+// by value, TEXT and BLOBs by their bytes.
+std::optional<SeasonKey> read_season(sqlite3_value* value) {
+    SeasonKey season;
+    switch (sqlite3_value_type(value)) {
+        case SQLITE_NULL:
+            return std::nullopt;
+        case SQLITE_INTEGER:
+            season.kind = SeasonKey::Kind::Integer;
+            season.integer = sqlite3_value_int64(value);
+            return season;
+        case SQLITE_FLOAT:
+            season.kind = SeasonKey::Kind::Real;
+            season.real = sqlite3_value_double(value);
+            return season;
+        case SQLITE_TEXT: {
+            season.kind = SeasonKey::Kind::Text;
+            const auto* text = sqlite3_value_text(value);
+            season.bytes.assign(reinterpret_cast<const char*>(text),
+                                static_cast<std::size_t>(sqlite3_value_bytes(value)));
+            return season;
+        }
+        default: {
+            season.kind = SeasonKey::Kind::Blob;
+            const auto* blob = static_cast<const char*>(sqlite3_value_blob(value));
+            const auto size = static_cast<std::size_t>(sqlite3_value_bytes(value));
+            if (size > 0) season.bytes.assign(blob, size);
+            return season;
+        }
+    }
 }
 
 // (y, x [, season]); the two-argument form is one season.
 template <const char* Name>
 std::optional<SeasonalPoint> read_seasonal_point(int argc, sqlite3_value** argv) {
-    const ArgumentRef y_arg{Name, 1, "y"}, x_arg{Name, 2, "x"}, season_arg{Name, 3, "season"};
+    const ArgumentRef y_arg{Name, 1, "y"}, x_arg{Name, 2, "x"};
     auto y = read_number(y_arg, argv[0]);
     auto x = read_number(x_arg, argv[1]);
-    std::optional<double> season = 0.0;
-    if (argc == 3) season = read_number(season_arg, argv[2]);
+    std::optional<SeasonKey> season = SeasonKey{};
+    if (argc == 3) season = read_season(argv[2]);
     if (!y || !x || !season) return std::nullopt;
-    return SeasonalPoint{*x, *y, *season};
+    return SeasonalPoint{*x, *y, std::move(*season)};
 }
 
 constexpr char kMannKendall[] = "mann_kendall_p";

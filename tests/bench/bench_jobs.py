@@ -13,7 +13,10 @@ bare scan as the floor; at 10,000,000 rows and more also the almanac ways'
 peak memory at 1,000,000 rows beside it; and the index-on-the-expression
 recipe. Asserts nothing about time, but exits 1 when the ways' answers to a job
 differ (same_answers.py: keys, counts, sums within stated rounding bounds).
-Best of ALMANAC_BENCH_REPEAT runs (3 from 1,000,000 rows, else 1).
+Best of ALMANAC_BENCH_REPEAT runs (3 from 1,000,000 rows, else 1). Last, the
+period_totals passes at 1, 2, 3, 4 and 8 threads (almanac_threads), with the
+ratio of 2 threads to 1, peak memory, and a check that every thread count
+gives bit-identical rows (exit 1 if not); `--threads` prints only that table.
 """
 import datetime
 import os
@@ -29,6 +32,7 @@ import same_answers
 ROOT = pathlib.Path(__file__).resolve().parents[2]
 MODULE = os.environ.get("ALMANAC_MODULE", str(ROOT / "build" / "almanac.so"))
 ROWS = int(sys.argv[1]) if len(sys.argv) > 1 and not sys.argv[1].startswith("-") else 10_000_000
+THREADS_ONLY = "--threads" in sys.argv  # only the table of thread counts (parallel_passes)
 CACHE = pathlib.Path(os.environ.get("ALMANAC_BENCH_CACHE", ROOT / "build" / "bench"))
 # Best of three at full size; the quick run CI makes (100,000 rows) runs once.
 REPEAT = int(os.environ.get("ALMANAC_BENCH_REPEAT", "3" if ROWS >= 1_000_000 else "1"))
@@ -255,6 +259,8 @@ def targets(spec, got):
 
 def main():
     path = database(ROWS)
+    if THREADS_ONLY:
+        return 0 if parallel_passes(path) else 1
     weeks = week_span(path)
     outputs_dir = pathlib.Path(tempfile.mkdtemp(prefix="almanac-bench-"))
     scan = best(path, "plain SQL", "SELECT count(*), sum(amount) FROM sales")
@@ -296,8 +302,9 @@ def main():
         memory_flat(timings)
     checks.append(index_recipe(path, timings, answers, outputs_dir))
     shutil.rmtree(outputs_dir)
+    identical = parallel_passes(path)
     sys.stdout.flush()
-    return 0 if all(ok for _, _, ok in checks) else 1
+    return 0 if all(ok for _, _, ok in checks) and identical else 1
 
 
 # What one period_totals pass does per row, added one part at a time to the
@@ -336,6 +343,62 @@ def memory_flat(timings):
             high = timings[job][way][1]
             print(f"| {job} | {way} | {low / 1024:.1f} | {high / 1024:.1f} | {high / low:.2f} | "
                   f"{'met' if high <= FLAT * low else 'NOT met'} |", flush=True)
+
+
+# Reading in parallel: the three passes the issue names, at 1, 2, 3, 4 and 8
+# threads (almanac_threads(n)), each timed in its own process.
+PASSES = {
+    "weekly": JOBS["weekly means per item"]["period_totals"],
+    "half-month": JOBS["half-month totals, empty periods filled"]["period_totals"],
+    "daily Denver": JOBS["daily totals in America/Denver"]["period_totals"].strip(),
+}
+THREAD_COUNTS = (1, 2, 3, 4, 8)
+TWO_THREAD_TARGET = 0.6  # 2 threads at most 0.6x the time of 1
+
+
+def exact_rows(path, threads, sql):
+    """Every value of the pass's rows, bit for bit (repr of a REAL is exact), read in
+    this process with the module loaded; and how many threads the read used."""
+    con = sqlite3.connect(path)
+    con.enable_load_extension(True)
+    con.load_extension(MODULE)
+    con.execute("SELECT almanac_threads(?)", (threads,))
+    rows = [tuple((type(v).__name__, repr(v)) for v in row) for row in con.execute(sql)]
+    used = con.execute("SELECT almanac_last_read_threads()").fetchone()[0]
+    con.close()
+    return rows, used
+
+
+def parallel_passes(path):
+    """Prints the thread table (seconds, ratio to 1 thread, peak MiB, the targets) and
+    returns whether every thread count gave bit-identical rows."""
+    print()
+    print(f"reading in parallel ({os.cpu_count()} cores; best of {REPEAT}, each its own process):")
+    print("| pass | " + " | ".join(f"{n} thread{'s' if n > 1 else ''}" for n in THREAD_COUNTS) +
+          " | 2 threads / 1 | peak MiB (" + ", ".join(map(str, THREAD_COUNTS)) + ") | targets |")
+    print("|---|" + "---|" * (len(THREAD_COUNTS) + 3))
+    identical = True
+    for name, sql in PASSES.items():
+        got = {n: best(path, "period_totals", f"SELECT almanac_threads({n});\n{sql}") for n in THREAD_COUNTS}
+        ratio = got[2][0] / got[1][0]
+        # One thread's cells: its peak beyond the bare process (a read of one row).
+        base = best(path, "period_totals", "SELECT ts FROM sales LIMIT 1", repeat=1)[1]
+        cells = max(got[1][1] - base, 1)
+        memory_ok = all(got[n][1] <= got[1][1] + n * cells for n in THREAD_COUNTS)
+        reference, _ = exact_rows(path, 1, sql)
+        same, used = True, {}
+        for n in THREAD_COUNTS[1:]:
+            rows, used[n] = exact_rows(path, n, sql)
+            same = same and rows == reference
+        identical = identical and same
+        print(f"| {name} | " + " | ".join(f"{got[n][0]:.2f} s" for n in THREAD_COUNTS) +
+              f" | {ratio:.2f}x | " + ", ".join(f"{got[n][1] / 1024:.0f}" for n in THREAD_COUNTS) +
+              f" | <= {TWO_THREAD_TARGET}x {'met' if ratio <= TWO_THREAD_TARGET else 'NOT met'}; "
+              f"bit-identical for {', '.join(map(str, THREAD_COUNTS))}: {'met' if same else 'NOT met'} "
+              f"(threads used {', '.join(str(used[n]) for n in THREAD_COUNTS[1:])}); "
+              f"peak <= 1 thread's + n x its cells ({cells / 1024:.0f} MiB): "
+              f"{'met' if memory_ok else 'NOT met'} |", flush=True)
+    return identical
 
 
 INDEX = "CREATE INDEX sales_item_week ON sales(item, period_floor(ts, 'week'), amount)"

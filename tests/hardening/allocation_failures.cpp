@@ -19,7 +19,11 @@
 //   almanac_allocation_failures            prints the failure points exercised
 #include <sqlite3.h>
 
+#include <stdlib.h>  // mkdtemp
+#include <unistd.h>  // rmdir
+
 #include <algorithm>
+#include <atomic>
 #include <cstdio>
 #include <cstdlib>
 #include <new>
@@ -31,21 +35,27 @@
 
 namespace {
 
-// One countdown for both allocators: the allocation that brings it to zero fails.
-long g_countdown = -1;  // negative: no failure planned
-bool g_persistent = false;
-bool g_failed = false;  // a planned failure happened in this run
-long g_live_sqlite = 0;
-long g_live_new = 0;
+// One countdown for both allocators: the allocation that brings it to zero
+// fails. Atomic, because a parallel read allocates on its helper threads too.
+std::atomic<long> g_countdown{-1};  // negative: no failure planned
+std::atomic<bool> g_persistent{false};
+std::atomic<bool> g_failed{false};  // a planned failure happened in this run
+std::atomic<long> g_live_sqlite{0};
+std::atomic<long> g_live_new{0};
 
 bool should_fail() {
-    if (g_countdown < 0) return false;
-    if (g_countdown == 0) {
-        g_failed = true;
-        if (!g_persistent) g_countdown = -1;
-        return true;
+    long count = g_countdown.load();
+    while (count >= 0) {
+        if (count == 0 && g_persistent) {
+            g_failed = true;
+            return true;
+        }
+        if (g_countdown.compare_exchange_weak(count, count == 0 ? -1 : count - 1)) {
+            if (count > 0) return false;
+            g_failed = true;
+            return true;
+        }
     }
-    --g_countdown;
     return false;
 }
 
@@ -146,7 +156,47 @@ std::vector<std::string> queries() {
         "SELECT mad(amount) OVER (ORDER BY ts ROWS 6 PRECEDING) FROM sales",
         "SELECT * FROM period_totals('sales', 'week')",
         "SELECT item, label, amount FROM period_totals('main.spread', 'day', 'America/Denver')",
+        // Parallel reads (almanac_threads(3) on every connection): a WAL file, with its
+        // witness, and a rollback-journal file with segments, zoned.
+        "SELECT * FROM period_totals('wal.sales', 'week')",
+        "SELECT segment, item, label, sales, amount FROM period_totals('journal.sales', 'day', "
+        "'America/Denver')",
     };
+}
+
+// Two database files whose few rows are spread over 1,000,000 rowids, so that
+// a read of them is split over threads (README: at least 50,000 rowids each).
+std::string g_folder;
+const char* const kFileData =
+    "CREATE TABLE IF NOT EXISTS sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, segment);"
+    "WITH RECURSIVE d(n) AS (SELECT 0 UNION ALL SELECT n + 1 FROM d WHERE n < 59) "
+    "INSERT INTO sales(rowid, ts, item, qty, amount, segment) SELECT (n * 7919) % 60 * 16661 + "
+    "1, datetime('2026-03-01 10:00', '+' || (n * 11 % 30) || ' days', '+' || (n % 7) || "
+    "' hours'), CASE n % 3 WHEN 0 THEN 'tea' WHEN 1 THEN 'cocoa' ELSE 'mate' END, 1 + n % 4, "
+    "round(2.5 + (n * 7 % 11) * 1.25, 2), CASE n % 4 WHEN 0 THEN NULL ELSE 'shop ' || (n % 2) "
+    "END FROM d;";
+
+void make_files() {
+    char folder[] = "/tmp/almanac_allocation_XXXXXX";
+    if (!mkdtemp(folder)) std::exit(2);
+    g_folder = folder;
+    for (const char* name : {"wal", "journal"}) {
+        sqlite3* db = nullptr;
+        std::string path = g_folder + "/" + name + ".db";
+        std::string mode = std::string("PRAGMA journal_mode=") + (name[0] == 'w' ? "wal;" : "delete;");
+        if (sqlite3_open(path.c_str(), &db) != SQLITE_OK ||
+            sqlite3_exec(db, (mode + kFileData).c_str(), nullptr, nullptr, nullptr) != SQLITE_OK) {
+            std::fprintf(stderr, "making %s failed\n", path.c_str());
+            std::exit(2);
+        }
+        sqlite3_close(db);
+    }
+}
+
+void remove_files() {
+    for (const char* name : {"wal.db", "journal.db", "wal.db-wal", "wal.db-shm"})
+        std::remove((g_folder + "/" + name).c_str());
+    rmdir(g_folder.c_str());
 }
 
 // The harness itself must not allocate while failures are planned (its own
@@ -172,12 +222,25 @@ struct Outcome {
 // Opens a connection with the data, without planned failures.
 sqlite3* open_connection() {
     sqlite3* db = nullptr;
+    std::string attach = "ATTACH '" + g_folder + "/wal.db' AS wal; ATTACH '" + g_folder +
+                         "/journal.db' AS journal; SELECT almanac_threads(3);";
     if (sqlite3_open(":memory:", &db) != SQLITE_OK || almanac_register(db) != SQLITE_OK ||
-        sqlite3_exec(db, kData, nullptr, nullptr, nullptr) != SQLITE_OK) {
+        sqlite3_exec(db, kData, nullptr, nullptr, nullptr) != SQLITE_OK ||
+        sqlite3_exec(db, attach.c_str(), nullptr, nullptr, nullptr) != SQLITE_OK) {
         std::fprintf(stderr, "setting up a connection failed\n");
         std::exit(2);
     }
     return db;
+}
+
+// Whether the last read on db was split over threads.
+bool read_in_parallel(sqlite3* db) {
+    sqlite3_stmt* statement = nullptr;
+    bool split = sqlite3_prepare_v2(db, "SELECT almanac_last_read_threads() > 1", -1, &statement,
+                                    nullptr) == SQLITE_OK &&
+                 sqlite3_step(statement) == SQLITE_ROW && sqlite3_column_int(statement, 0) == 1;
+    sqlite3_finalize(statement);
+    return split;
 }
 
 void run(sqlite3* db, const std::string& sql, Outcome& out) {
@@ -213,12 +276,14 @@ void run(sqlite3* db, const std::string& sql, Outcome& out) {
 
 int main() {
     install_sqlite_allocator();
+    make_files();
     static Outcome expected, got;
-    long points = 0, nomem = 0, right_answers = 0, problems = 0;
+    long points = 0, nomem = 0, right_answers = 0, problems = 0, parallel = 0;
     for (const std::string& sql : queries()) {
         // An undisturbed run fills the global caches and gives the right answer.
         sqlite3* db = open_connection();
         run(db, sql, expected);
+        parallel += read_in_parallel(db);
         sqlite3_close(db);
         if (expected.code != SQLITE_OK || expected.overflow) {
             std::fprintf(stderr, "undisturbed run failed: %.*s\n  %s\n",
@@ -234,7 +299,11 @@ int main() {
                 g_countdown = k;
                 run(db, sql, got);
                 g_countdown = -1;
-                sqlite3_close(db);
+                if (sqlite3_close(db) != SQLITE_OK) {
+                    std::printf("close failed: %s\n", sqlite3_errmsg(db));
+                    for (sqlite3_stmt* s = sqlite3_next_stmt(db, nullptr); s; s = sqlite3_next_stmt(db, s))
+                        std::printf("  open statement: %s\n", sqlite3_sql(s));
+                }
                 ++points;
                 const char* trouble = nullptr;
                 if (got.code == SQLITE_OK) {
@@ -263,9 +332,12 @@ int main() {
             }
         }
     }
+    remove_files();
     std::printf(
         "allocation failure points exercised: %ld (%ld ended in SQLITE_NOMEM, %ld in the "
-        "right answer), problems: %ld\n",
-        points, nomem, right_answers, problems);
-    return problems == 0 ? 0 : 1;
+        "right answer), problems: %ld; queries read in parallel: %ld\n",
+        points, nomem, right_answers, problems, parallel);
+    // The two parallel queries must really have been split, or they test nothing new.
+    if (parallel != 2) std::printf("FAIL: %ld queries read in parallel, expected 2\n", parallel);
+    return problems == 0 && parallel == 2 ? 0 : 1;
 }

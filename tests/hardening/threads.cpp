@@ -5,8 +5,15 @@
 // Built with ThreadSanitizer by tests/run.sh, which then also reports any data
 // race on almanac's shared state (the zone cache, the tz database, statics).
 //
+// Two of the queries read a file database whose few rows are spread over
+// 1,000,000 rowids, with almanac_threads(3): each of those reads is split
+// over helper threads of its own (README "Reading in parallel"), so helpers
+// of different statements run side by side with everything else.
+//
 //   almanac_threads [seconds]      default 20
 #include <sqlite3.h>
+#include <stdlib.h>  // mkdtemp
+#include <unistd.h>  // rmdir
 
 #include <atomic>
 #include <chrono>
@@ -54,13 +61,28 @@ const char* const kQueries[] = {
     "SELECT * FROM period_totals('sales', 'week')",
     "SELECT item, label, sales, amount FROM period_totals('sales', '3 hours', 'America/Denver')",
     "SELECT svg_bar_chart(label, amount, item) FROM period_totals('sales', 'month')",
+    "SELECT * FROM period_totals('shop.sales', 'week')",
+    "SELECT segment, item, label, sales, amount FROM period_totals('shop.sales', 'hour', "
+    "'America/Denver')",
 };
+
+const char* const kFileData =
+    "PRAGMA journal_mode=wal;"
+    "CREATE TABLE sales(ts TEXT, item TEXT, qty INTEGER, amount REAL, segment);"
+    "WITH RECURSIVE d(n) AS (SELECT 0 UNION ALL SELECT n + 1 FROM d WHERE n < 299) "
+    "INSERT INTO sales(rowid, ts, item, qty, amount, segment) SELECT (n * 7919) % 300 * 3331 + 1, "
+    "datetime('2026-03-01 06:00', '+' || (n * 7) || ' hours'), CASE n % 3 WHEN 0 THEN 'tea' "
+    "WHEN 1 THEN 'cocoa' ELSE 'mate' END, 1 + n % 4, round(3 + (n * 13 % 17) * 0.75, 2), "
+    "'shop ' || (n % 2) FROM d;";
+std::string g_folder;
 constexpr std::size_t kQueryCount = sizeof kQueries / sizeof kQueries[0];
 
 sqlite3* open_connection() {
     sqlite3* db = nullptr;
+    std::string attach = "ATTACH '" + g_folder + "/shop.db' AS shop; SELECT almanac_threads(3);";
     if (sqlite3_open(":memory:", &db) != SQLITE_OK || almanac_register(db) != SQLITE_OK ||
-        sqlite3_exec(db, kData, nullptr, nullptr, nullptr) != SQLITE_OK) {
+        sqlite3_exec(db, kData, nullptr, nullptr, nullptr) != SQLITE_OK ||
+        sqlite3_exec(db, attach.c_str(), nullptr, nullptr, nullptr) != SQLITE_OK) {
         std::fprintf(stderr, "setting up a connection failed\n");
         std::exit(2);
     }
@@ -91,6 +113,18 @@ std::string answer(sqlite3* db, const char* sql) {
 int main(int argc, char** argv) {
     double seconds = argc > 1 ? std::atof(argv[1]) : 20.0;
     constexpr int kThreads = 8;
+    char folder[] = "/tmp/almanac_threads_XXXXXX";
+    if (!mkdtemp(folder)) return 2;
+    g_folder = folder;
+    {
+        sqlite3* db = nullptr;
+        if (sqlite3_open((g_folder + "/shop.db").c_str(), &db) != SQLITE_OK ||
+            sqlite3_exec(db, kFileData, nullptr, nullptr, nullptr) != SQLITE_OK) {
+            std::fprintf(stderr, "making the shop database failed\n");
+            return 2;
+        }
+        sqlite3_close(db);
+    }
 
     // A fresh process: the first thread to ask for a zone may race the
     // others into the tz database, so the threads start before anything is
@@ -139,7 +173,16 @@ int main(int argc, char** argv) {
                 ++differ;
             }
     }
+    // The shop's reads were split, or they test nothing new.
+    answer(db, "SELECT count(*) FROM period_totals('shop.sales', 'week')");
+    if (answer(db, "SELECT almanac_last_read_threads()") != "3|\n") {
+        std::printf("FAIL: the shop's read was not split over 3 threads\n");
+        ++differ;
+    }
     sqlite3_close(db);
+    for (const char* name : {"shop.db", "shop.db-wal", "shop.db-shm"})
+        std::remove((g_folder + "/" + name).c_str());
+    rmdir(g_folder.c_str());
     std::printf(
         "%d threads, %.0f s: %ld queries run, %ld answers differed from the first, %ld "
         "first answers differed from a single-threaded run\n",

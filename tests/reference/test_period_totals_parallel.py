@@ -300,3 +300,15 @@ def test_almanac_threads_sets_and_reports_the_number():
         with pytest.raises(sqlite3.OperationalError) as raised:
             db.execute(f"SELECT almanac_threads({bad})")
         assert str(raised.value).startswith(f"almanac_threads(): argument 1 (n) = {shown}: ")
+
+
+def test_period_decomposition_reads_the_same_way_on_every_thread_count(tmp_path):
+    # DESIGN: period_decomposition reads its source as period_totals does, in parallel too.
+    rows = seeded_rows(41, 4000, dt.datetime(2023, 1, 2), dt.datetime(2025, 12, 29))
+    db = file_db(tmp_path / "d.db", rows)
+    sql = "SELECT * FROM period_decomposition('sales', 'week', 'year', 'America/Denver')"
+    one, used = read(db, 1, sql)
+    assert used == 1 and any(row[8] is not None for row in one)  # some items decomposed
+    for threads in (2, 3, 6):
+        got, used = read(db, threads, sql)
+        assert used == threads and exact(got) == exact(one)

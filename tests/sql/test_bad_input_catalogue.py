@@ -70,9 +70,7 @@ NUMBER_SLOTS = (
     + [("moving_mean({v})", "moving_mean", 1, "x"), ("median({v})", "median", 1, "x"),
        ("percentile_cont({v}, 0.5)", "percentile_cont", 1, "x"),
        ("theil_sen_slope({v}, 1)", "theil_sen_slope", 1, "y"), ("theil_sen_slope(1, {v})", "theil_sen_slope", 2, "x"),
-       ("theil_sen_slope(1, 2, {v})", "theil_sen_slope", 3, "season"),
        ("mann_kendall_p({v}, 1)", "mann_kendall_p", 1, "y"), ("mann_kendall_p(1, {v})", "mann_kendall_p", 2, "x"),
-       ("mann_kendall_p(1, 2, {v})", "mann_kendall_p", 3, "season"),
        ("mad({v})", "mad", 1, "x"), ("ewma({v}, 1, 1)", "ewma", 1, "x"), ("sparkline({v}, 1)", "sparkline", 1, "y"),
        ("svg_line_chart(1, {v}, 'a')", "svg_line_chart", 2, "y"),
        ("svg_bar_chart(1, {v}, 'a')", "svg_bar_chart", 2, "y"),
@@ -213,6 +211,44 @@ add("period_position('2026-01-01', 'day', 'day')", arg(
     "week, half-month, month, quarter or year; week in year; half-month in month, quarter or year; month, "
     "quarter or year periods in a longer month-based cycle that is a whole number of them and begins where "
     "one of them begins"))
+# ---- retail calendars (DESIGN "Retail calendars"): every spec slot, each error saying what was expected
+RETAIL = ("expected retail year|quarter|month|week [4-4-5|4-5-4|5-4-4 for months] ending last <weekday> of "
+          "<month>, or ending <weekday> nearest end of <month>")
+BAD_RETAIL_SPECS = [
+    ("2 retail weeks ending last saturday of january",
+     "a retail unit takes no count: its periods are the retail calendar's own; " + RETAIL),
+    ("retail year", "retail year needs an anchor; " + RETAIL),
+    ("retail month 4-4-4 ending last saturday of january",
+     "'4-4-4' is not a month pattern; expected 4-4-5, 4-5-4 or 5-4-4 (the weeks of the three months of a "
+     "13-week quarter)"),
+    ("retail quarter 5-4-4 ending last saturday of january",
+     "a month pattern (5-4-4) applies to retail month only, not retail quarter"),
+    ("retail year starting february",
+     "a retail unit takes no 'starting': its anchor says where every retail year ends; " + RETAIL),
+    ("retail week ending last saturday of january from 2025-01-26",
+     "a retail unit takes no 'from': its anchor says where every retail year ends; " + RETAIL),
+    ("retail fortnight ending last saturday of january", "unknown retail unit 'fortnight'; " + RETAIL),
+    ("retail year ending last funday of january", "'funday' is not a weekday; " + RETAIL),
+    ("retail year ending saturday nearest end of smarch", "'smarch' is not a month; " + RETAIL),
+    ("retail year ending saturday closest end of january",
+     "unexpected 'closest' where the anchor has 'nearest'; " + RETAIL),
+    ("retail year ending last saturday of january please", "unexpected 'please'; " + RETAIL),
+]
+for template, fn, n, name in SPEC_SLOTS:
+    for spec, expected in BAD_RETAIL_SPECS:
+        add(template.format(v=f"'{spec}'"), arg(fn, n, name, f"'{spec}'", expected))
+RETAIL_PAIRS = ("expected a retail pair that shares its anchor: day, retail week, retail month or retail "
+                "quarter in a retail year; day, retail week or retail month in a retail quarter; day or "
+                "retail week in a retail month; day in a retail week")
+for spec, cycle in (("retail week ending last saturday of january", "retail year ending last friday of january"),
+                    ("retail week ending last saturday of january", "retail year ending saturday nearest end of january"),
+                    ("retail year ending last saturday of january", "retail month 4-4-5 ending last saturday of january"),
+                    ("week", "retail year ending last saturday of january"),
+                    ("month", "retail year ending last saturday of january"),
+                    ("retail month 4-4-5 ending last saturday of january", "year")):
+    add(f"period_position('2026-01-01', '{spec}', '{cycle}')", arg(
+        "period_position", 3, "cycle", f"'{cycle}'",
+        f"'{spec}' periods do not nest in '{cycle}' cycles; " + RETAIL_PAIRS))
 # charts: layer and options
 for layer, shown, expected in (("'medium'", "'medium'", "expected 'raw' (thin, light) or 'smooth' (thick)"),
                                ("X'00'", "a BLOB of 1 byte", "expected TEXT, not a BLOB")):
@@ -267,6 +303,16 @@ add("SELECT * FROM period_totals('no_such_table', 'day')", arg(
     "period_totals", 1, "source", "'no_such_table'", "no table or view of that name (expected 'name' or 'schema.name')"))
 add("SELECT * FROM period_totals('no_such_table', 'fortnight')",  # the spec is read first
     arg("period_totals", 2, "spec", "'fortnight'", "unknown unit 'fortnight'; " + GRAMMAR))
+# almanac_threads(n): 0 (one per core) to 64 threads; NULL sets nothing (DESIGN "Reading in parallel").
+THREADS = "expected a whole number from 0 to 64"
+for value, shown, expected in (("65", "65", THREADS), ("-1", "-1", THREADS), ("1.5", "1.5", THREADS),
+                               ("'four'", "'four'", "expected a number"), ("9e999", "inf", "expected a finite number"),
+                               ("X'01'", "a BLOB of 1 byte", "expected a number, not a BLOB")):
+    add(f"almanac_threads({value})", arg("almanac_threads", 1, "n", shown, expected))
+add("almanac_threads(NULL)", Result(None, "SQL: NULL gives NULL (and sets nothing)"))
+add("almanac_threads('2')", Result(2, "DESIGN: TEXT SQLite reads as a number is a number"))
+add("almanac_last_read_threads() IS NULL OR almanac_last_read_threads() >= 1",
+    Result(1, "README: NULL before the first read, else the threads it used"))
 # The range (bad times: TIME_SLOTS above); checked before the source is looked up.
 add("SELECT * FROM period_totals('no_such_table', 'day', NULL, x'01', NULL)",  # a bad bound even with a NULL zone
     arg("period_totals", 4, "start", "a BLOB of 1 byte", "expected a time value, not a BLOB"))
@@ -382,6 +428,45 @@ add("valid_number(X'01')", Result(0, "valid_number never raises; a BLOB is not a
 add("valid_number(9e999)", Result(0, "DESIGN: infinities are not numbers to add"))
 add("valid_number(NULL)", Result(None, "SQL: NULL gives NULL"))
 add("valid_number(3)", Result(1, "an INTEGER is a number"))
+# ---- seasons: any value but NULL names a season (DESIGN "Trend, season and noise, apart") ----
+THREE_POINTS = "(SELECT {fn}(y, x, {v}) FROM (SELECT 1 AS y, 1 AS x UNION ALL SELECT 3, 2 UNION ALL SELECT 2, 3))"
+for v in ("'abc'", "''", "'1,234.50'", "X'0102'", "9e999", "-9e999", "CAST(X'310032' AS TEXT)"):
+    add(THREE_POINTS.format(fn="theil_sen_slope", v=v), Result(0.5, "by hand: one season, slopes 2, 0.5, -1"))
+    add(THREE_POINTS.format(fn="mann_kendall_p", v=v),
+        Result(0.6015081344405899, "scipy.stats.kendalltau([1, 2, 3], [1, 3, 2], method='asymptotic').pvalue"))
+
+# ---- period_decomposition: spec, cycle, zone and options are checked before the source is read ----
+DECOMPOSE = "SELECT * FROM period_decomposition('no_such_table', {args})"
+SEASONAL_SPAN = "expected an odd whole number of cycles from 7 to 1000001"
+for args, n, name, shown, expected in (
+        ("'week', 'month'", 3, "cycle", "'month'", "'week' periods do not nest in 'month' cycles; "),
+        ("'day', 'day'", 3, "cycle", "'day'", "'day' periods do not nest in 'day' cycles; "),
+        ("'day', 'week', NULL, '{\"seasonal\": 8}'", 5, "options", "'{\"seasonal\": 8}'",
+         'key "seasonal" = 8: ' + SEASONAL_SPAN),
+        ("'day', 'week', NULL, '{\"seasonal\": 3}'", 5, "options", "'{\"seasonal\": 3}'",
+         'key "seasonal" = 3: ' + SEASONAL_SPAN),
+        ("'day', 'week', NULL, '{\"trend\": 15}'", 5, "options", "'{\"trend\": 15}'",
+         'unknown key "trend": expected "seasonal" or "robust"'),
+        ("'day', 'week', NULL, '{\"robust\": 1}'", 5, "options", "'{\"robust\": 1}'",
+         'key "robust" = 1: expected true or false'),
+        ("'day', 'week', NULL, '[7]'", 5, "options", "'[7]'",
+         'expected a JSON object such as {"seasonal": 13, "robust": true}, not an array'),
+        ("'day', 'week', NULL, 7", 5, "options", "7", "expected TEXT, not a number"),
+        ("'day', 'week', 'Mars/Olympus'", 4, "zone", "'Mars/Olympus'", None),
+        ("'day', 'week'", None, None, None, None)):
+    if n is None:
+        add(DECOMPOSE.format(args=args), Error("period_decomposition(): argument 1 (source) = 'no_such_table': "
+                                               "no table or view of that name (expected 'name' or 'schema.name')"))
+    elif expected is None:
+        add(DECOMPOSE.format(args=args), arg("period_decomposition", n, name, shown, "not in the tz database; " + ZONE))
+    elif expected.endswith("cycles; "):
+        from test_season_errors import NEST
+        add(DECOMPOSE.format(args=args), arg("period_decomposition", n, name, shown, expected + NEST))
+    else:
+        add(DECOMPOSE.format(args=args), arg("period_decomposition", n, name, shown, expected))
+add("SELECT * FROM period_decomposition('no_such_table', 'day')",
+    Error("period_decomposition(): cycle is missing; expected period_decomposition(source, spec, cycle [, zone [, options]])"))
+add("SELECT count(*) FROM period_decomposition(NULL, 'day', 'week')", Result(0, "as period_totals: a NULL source gives no rows"))
 
 SHAPE = re.compile(r"^(?P<fn>[a-z_0-9]+)\(\): (?:argument (?P<n>[1-9]) \((?P<name>[a-z_]+)\) = (?P<value>.+?): "
                    r"(?P<expected>\S.*)|(?!argument )(?P<message>\S.*))$", re.S)

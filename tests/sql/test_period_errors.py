@@ -92,6 +92,28 @@ CASES = [
      F(*S, "'week starting sunday from 2024-01-03'", "starting")),                   # Wednesday vs Sunday
     ("period_floor('2026-01-01', 'quarter starting april from 2024-02-01')",
      F(*S, "'quarter starting april from 2024-02-01'", "starting")),                 # Feb vs April quarters
+    # retail calendars (DESIGN "Retail calendars"): each refusal says what was expected
+    ("period_floor('2026-01-01', '2 retail weeks ending last saturday of january')",
+     F(*S, "'2 retail weeks ending last saturday of january'", "no count", "retail year|quarter|month|week")),
+    ("period_floor('2026-01-01', 'retail year')", F(*S, "'retail year'", "needs an anchor", "ending last")),
+    ("period_floor('2026-01-01', 'retail month 4-4-4 ending last saturday of january')",
+     F(*S, "'retail month 4-4-4 ending last saturday of january'", "4-4-5, 4-5-4 or 5-4-4")),
+    ("period_floor('2026-01-01', 'retail year 4-4-5 ending last saturday of january')",
+     F(*S, "'retail year 4-4-5 ending last saturday of january'", "retail month only")),
+    ("period_floor('2026-01-01', 'retail quarter starting march')",
+     F(*S, "'retail quarter starting march'", "no 'starting'", "ending")),
+    ("period_floor('2026-01-01', 'retail month ending last saturday of january from 2025-01-26')",
+     F(*S, "'retail month ending last saturday of january from 2025-01-26'", "no 'from'", "ending")),
+    ("period_floor('2026-01-01', 'retail moon ending last saturday of january')",
+     F(*S, "'retail moon ending last saturday of january'", "unknown retail unit", "year|quarter|month|week")),
+    ("period_floor('2026-01-01', 'retail week ending last caturday of january')",
+     F(*S, "'retail week ending last caturday of january'", "not a weekday", "<weekday>")),
+    ("period_label('2026-01-01', 'retail week ending saturday nearest end of janvier')",
+     F(*S, "'retail week ending saturday nearest end of janvier'", "not a month", "<month>", fn="period_label")),
+    ("period_shift('2026-01-01', 1, 'retail week')", F(3, "spec", "'retail week'", "needs an anchor", fn="period_shift")),
+    ("period_of_serial(1, 'retail')", F(2, "spec", "'retail'", "needs a unit", fn="period_of_serial")),
+    ("SELECT * FROM periods('2026-01-01', '2027-01-01', 'retail year ending last sat of jan now')",
+     F(3, "spec", "'retail year ending last sat of jan now'", "unexpected 'now'", fn="periods")),
     ("period_floor('2026-01-01', '')", F(*S, "''")),
     ("period_floor('2026-01-01', 7)", F(*S, "7")),                                   # spec as a number
     ("period_floor('2026-01-01', X'00')", F(*S, "a BLOB of 1 byte", "BLOB")),

@@ -5,6 +5,7 @@
 
 #include "core/text/error.h"
 #include "core/text/number_text.h"
+#include "core/time/calendar_names.h"
 #include "core/time/period_calendar.h"
 #include "core/time/period_spec.h"
 #include "core/time/zone_clock.h"
@@ -51,9 +52,6 @@ constexpr Candidate kCandidates[] = {
     {"2000 years from 2000-01-01", 730500, LabelKind::Year},
 };
 
-constexpr const char* kMonthNames[12] = {"Jan", "Feb", "Mar", "Apr", "May", "Jun",
-                                         "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"};
-
 double to_axis(Instant t) { return static_cast<double>(t.time_since_epoch().count()); }
 
 struct Civil {
@@ -70,7 +68,7 @@ Civil civil(Instant t) {
 }
 
 std::string day_month(const Civil& c) {
-    return std::to_string(c.day) + " " + kMonthNames[c.month - 1];
+    return std::to_string(c.day) + " " + std::string(month_abbreviation(date::month{c.month}));
 }
 
 void label_ticks(AxisScale& scale, const std::vector<Instant>& instants, LabelKind kind) {
@@ -90,7 +88,7 @@ void label_ticks(AxisScale& scale, const std::vector<Instant>& instants, LabelKi
                 tick.label = day_month(c);
                 break;
             case LabelKind::Month:
-                tick.label = kMonthNames[c.month - 1];
+                tick.label = std::string(month_abbreviation(date::month{c.month}));
                 break;
             case LabelKind::Quarter:
                 tick.label = "Q" + std::to_string((c.month - 1) / 3 + 1);

@@ -97,15 +97,12 @@ KendallScore kendall_score(std::vector<Point> points) {
 }
 
 KendallScore seasonal_kendall_score(std::vector<SeasonalPoint> points) {
-    for (const SeasonalPoint& p : points)
-        if (!std::isfinite(p.season)) throw Error("expected a finite season");
-    std::sort(points.begin(), points.end(),
-              [](const SeasonalPoint& a, const SeasonalPoint& b) { return a.season < b.season; });
+    sort_by_season(points);
     KendallScore total;
     std::vector<Point> season;
     for (std::size_t i = 0; i < points.size(); ++i) {
         season.push_back(Point{points[i].x, points[i].y});
-        if (i + 1 == points.size() || points[i + 1].season != points[i].season) {
+        if (i + 1 == points.size() || !same_season(points[i + 1].season, points[i].season)) {
             const KendallScore part = kendall_score(std::move(season));
             total.s += part.s;
             total.variance += part.variance;

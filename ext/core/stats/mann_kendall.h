@@ -6,7 +6,8 @@
 // asymptotic test, z = S/√Var(S) without continuity correction, and the
 // two-sided p-value 2(1 − Φ(|z|)). Without seasons the p-value is the one
 // scipy.stats.kendalltau(x, y, method="asymptotic") gives; with seasons S
-// and Var(S) are the sums of the per-season values.
+// and Var(S) are the sums of the per-season values, added in the order of
+// the seasons (point.h), so equal seasons however coded give equal bits.
 //
 // S is counted exactly, as an integer, in O(n log n): the pairs that are
 // discordant are the inversions of y once the points are in x order, which

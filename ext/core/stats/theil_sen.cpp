@@ -487,15 +487,12 @@ std::optional<double> theil_sen_slope(std::vector<Point> points) {
 }
 
 std::optional<double> seasonal_theil_sen_slope(std::vector<SeasonalPoint> input) {
-    for (const SeasonalPoint& p : input)
-        if (!std::isfinite(p.season)) throw Error("expected a finite season");
-    std::sort(input.begin(), input.end(),
-              [](const SeasonalPoint& a, const SeasonalPoint& b) { return a.season < b.season; });
+    sort_by_season(input);
     std::vector<Point> points;
     points.reserve(input.size());
     std::vector<Group> groups;
     for (std::size_t i = 0; i < input.size(); ++i) {
-        if (i == 0 || input[i].season != input[i - 1].season) {
+        if (i == 0 || !same_season(input[i].season, input[i - 1].season)) {
             if (!groups.empty()) groups.back().end = i;
             groups.push_back(Group{i, input.size()});
         }

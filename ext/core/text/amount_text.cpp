@@ -106,21 +106,14 @@ std::string shown(std::string_view separator) {
     return "'" + std::string(separator) + "'";
 }
 
-}  // namespace
+// The ends of an amount: signs, parentheses and the currency, peeled off
+// in any order ("-$12.00", "$-12.00", "(12,00 €)", "12.00-"), each kind counted.
+struct PeeledEnds {
+    std::string_view number;  // what is left: the number itself
+    bool negative = false;
+};
 
-std::optional<double> read_amount(std::string_view text, char decimal_mark) {
-    const std::string mark(1, decimal_mark);
-    const char other_mark = decimal_mark == '.' ? ',' : '.';
-    // Built only for a message: this runs once per row.
-    auto hint = [&]() {
-        return std::string("; if '") + other_mark + "' is the decimal mark, give '" + other_mark +
-               "' as decimal_mark";
-    };
-    std::string_view s = trim(text);
-    if (s.empty()) return std::nullopt;
-
-    // Peel signs, parentheses and the currency off both ends, in any order
-    // ("-$12.00", "$-12.00", "(12,00 €)", "12.00-"), counting each kind.
+PeeledEnds peel_sign_and_currency(std::string_view s) {
     int signs = 0, currencies = 0;
     bool negative = false, parentheses = false;
     // Most amounts are bare numbers: nothing to peel when both ends are digits.
@@ -162,53 +155,74 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
         throw Error("expected at most one sign (a minus, or parentheses), found " +
                     std::to_string(signs));
     if (currencies > 1) throw Error("expected at most one currency sign or code");
+    return PeeledEnds{s, negative};
+}
 
-    // What is left must be the number itself; positions in messages count
-    // from the start of the whole text.
-    const std::size_t offset = std::size_t(s.data() - text.data());
-    auto at = [&](std::size_t pos) { return "at " + character_at(text, offset + pos) + ": "; };
-    if (s.empty()) throw Error("expected digits");
-
+// The number's digits between its separators, read as they come (no list
+// kept): thousands need every group after the first to be 3 long; lakhs
+// need every group between the first and the last to be 2 long.
+struct DigitGroups {
     std::string digits;  // the number without separators, as parse_decimal reads it
-    // Digit groups between separators, checked as they come (no list kept):
-    // thousands need every group after the first to be 3 long; lakhs need
-    // every group between the first and the last to be 2 long.
     std::size_t first_group = 0, last_group = 0, group_count = 0;
     bool threes = true, twos_between = true;
     std::string_view separator;
-    std::size_t pos = 0, first_separator = 0;
+    std::size_t first_separator = 0;
+    bool has_fraction = false;
+};
+
+// What messages say about the text; built only on failure, as this runs once per row.
+struct MessagePlace {
+    std::string_view text;
+    std::size_t offset;  // where the number starts in text: positions count from text's start
+    char decimal_mark;
+    std::string operator()(std::size_t pos) const {
+        return "at " + character_at(text, offset + pos) + ": ";
+    }
+    std::string swap_hint() const {
+        const char other_mark = decimal_mark == '.' ? ',' : '.';
+        return std::string("; if '") + other_mark + "' is the decimal mark, give '" + other_mark +
+               "' as decimal_mark";
+    }
+};
+
+DigitGroups read_digit_groups(std::string_view s, char decimal_mark, const MessagePlace& at) {
+    const std::string mark(1, decimal_mark);
+    const char other_mark = decimal_mark == '.' ? ',' : '.';
+    DigitGroups groups;
+    std::size_t pos = 0;
     auto digit_run = [&]() {
         std::size_t start = pos;
-        while (pos < s.size() && is_ascii_digit(s[pos])) digits += s[pos++];
+        while (pos < s.size() && is_ascii_digit(s[pos])) groups.digits += s[pos++];
         return pos - start;
     };
-    first_group = last_group = digit_run();
-    group_count = 1;
+    groups.first_group = groups.last_group = digit_run();
+    groups.group_count = 1;
     while (pos < s.size() && s[pos] != decimal_mark) {
         std::string_view here = separator_at(s, pos, decimal_mark);
         if (here.empty())
             throw Error(at(pos) + "expected digits, a grouping separator or the decimal mark '" +
                         mark + "'");
-        if (separator.empty()) {
-            separator = here;
-            first_separator = pos;
-        } else if (here != separator) {
+        if (groups.separator.empty()) {
+            groups.separator = here;
+            groups.first_separator = pos;
+        } else if (here != groups.separator) {
             throw Error(at(pos) + "expected one kind of grouping separator, found " +
-                        shown(separator) + " and " + shown(here));
+                        shown(groups.separator) + " and " + shown(here));
         }
         pos += here.size();
         std::size_t length = digit_run();
         if (length == 0)
             throw Error(at(pos < s.size() ? pos : pos - here.size()) +
                         "expected digits after a grouping separator");
-        if (group_count >= 2) twos_between = twos_between && last_group == 2;
-        threes = threes && length == 3;
-        last_group = length;
-        ++group_count;
+        if (groups.group_count >= 2)
+            groups.twos_between = groups.twos_between && groups.last_group == 2;
+        groups.threes = groups.threes && length == 3;
+        groups.last_group = length;
+        ++groups.group_count;
     }
-    bool has_fraction = pos < s.size();
-    if (has_fraction) {
-        digits += first_group == 0 && group_count == 1 ? "0." : ".";
+    groups.has_fraction = pos < s.size();
+    if (groups.has_fraction) {
+        groups.digits += groups.first_group == 0 && groups.group_count == 1 ? "0." : ".";
         ++pos;
         std::size_t length = digit_run();
         if (pos < s.size()) {
@@ -216,42 +230,59 @@ std::optional<double> read_amount(std::string_view text, char decimal_mark) {
             if (s[pos] == decimal_mark)
                 throw Error(at(pos) + "expected one decimal mark '" + mark + "', found a second");
             throw Error(at(pos) + "expected only digits after the decimal mark '" + mark + "'" +
-                        (looks_swapped ? hint() : ""));
+                        (looks_swapped ? at.swap_hint() : ""));
         }
         if (length == 0) throw Error("expected digits after the decimal mark '" + mark + "'");
-        if (first_group == 0 && group_count > 1)
+        if (groups.first_group == 0 && groups.group_count > 1)
             throw Error(at(0) + "expected digits before a grouping separator");
-    } else if (first_group == 0) {
+    } else if (groups.first_group == 0) {
         throw Error(at(0) + "expected digits");
     }
+    return groups;
+}
 
-    if (group_count > 1) {
-        // Thousands: 1-3 digits, then groups of three. Lakhs (Indian
-        // English): 1-2 digits, groups of two, and three at the end.
-        bool thousands = first_group >= 1 && first_group <= 3 && threes;
-        bool lakhs = separator == "," && first_group >= 1 && first_group <= 2 && last_group == 3 &&
-                     twos_between;
-        if (!thousands && !lakhs)
-            throw Error(
-                at(first_separator) +
-                "expected groups of three digits between grouping separators "
-                "(1,234,567.89)" +
-                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint() : ""));
-        if (s[0] == '0')
-            throw Error(
-                at(0) + "expected no leading zero before a grouping separator" +
-                (!has_fraction && separator == std::string_view(&other_mark, 1) ? hint() : ""));
-    }
+// Thousands: 1-3 digits, then groups of three. Lakhs (Indian English): 1-2
+// digits, groups of two, and three at the end. No leading zero before a separator.
+void check_grouping(const DigitGroups& groups, std::string_view s, char decimal_mark,
+                    const MessagePlace& at) {
+    if (groups.group_count <= 1) return;
+    const char other_mark = decimal_mark == '.' ? ',' : '.';
+    const bool thousands = groups.first_group >= 1 && groups.first_group <= 3 && groups.threes;
+    const bool lakhs = groups.separator == "," && groups.first_group >= 1 &&
+                       groups.first_group <= 2 && groups.last_group == 3 && groups.twos_between;
+    // Grouped by the other mark, with no fraction: perhaps the marks were swapped.
+    const bool swapped =
+        !groups.has_fraction && groups.separator == std::string_view(&other_mark, 1);
+    auto hint = [&]() { return swapped ? at.swap_hint() : std::string(); };
+    if (!thousands && !lakhs)
+        throw Error(at(groups.first_separator) +
+                    "expected groups of three digits between grouping separators "
+                    "(1,234,567.89)" +
+                    hint());
+    if (s[0] == '0')
+        throw Error(at(0) + "expected no leading zero before a grouping separator" + hint());
+}
+
+}  // namespace
+
+std::optional<double> read_amount(std::string_view text, char decimal_mark) {
+    std::string_view s = trim(text);
+    if (s.empty()) return std::nullopt;
+    const PeeledEnds ends = peel_sign_and_currency(s);
+    if (ends.number.empty()) throw Error("expected digits");
+    const MessagePlace at{text, std::size_t(ends.number.data() - text.data()), decimal_mark};
+    const DigitGroups groups = read_digit_groups(ends.number, decimal_mark, at);
+    check_grouping(groups, ends.number, decimal_mark, at);
 
     // Beyond a REAL's range the number reads as infinite; below it as zero,
     // which as money is nothing.
-    auto parsed = parse_decimal(digits);
+    auto parsed = parse_decimal(groups.digits);
     if (!parsed) throw Error("expected digits");
     if (std::isinf(*parsed)) throw Error("expected an amount that fits a REAL (below 1.8e308)");
     double value = *parsed;
     // A zero stays zero: "-0.00" or "(0.00)" is no amount, not a negative one.
     if (value == 0) return 0.0;
-    return negative ? -value : value;
+    return ends.negative ? -value : value;
 }
 
 }  // namespace almanac

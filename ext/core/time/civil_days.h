@@ -58,8 +58,30 @@ constexpr std::int32_t day_number_from_civil(std::int32_t year, std::uint32_t mo
     return static_cast<std::int32_t>(year_days + month_days + (day - 1) - kDayShift);
 }
 
+// The calendar's facts, the one home for them: everything that asks whether a
+// year is a leap year or how long a month is asks here. They are the civil-day
+// algorithms' own answers (checked below and, for every month of years
+// 0000-9999, in tests/unit/time/civil_days_test.cpp), written as the Gregorian
+// rule so the per-row readers pay a few comparisons, not two conversions.
+constexpr bool is_leap_year(std::int32_t year) {
+    return year % 4 == 0 && (year % 100 != 0 || year % 400 == 0);
+}
+
+constexpr std::uint32_t days_in_month(std::int32_t year, std::uint32_t month) {
+    constexpr unsigned char kDays[] = {0, 31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+    return month == 2 && is_leap_year(year) ? 29u : kDays[month];
+}
+
+constexpr std::uint32_t days_in_year(std::int32_t year) { return is_leap_year(year) ? 366u : 365u; }
+
 static_assert(day_number_from_civil(1970, 1, 1) == 0);
 static_assert(day_number_from_civil(2000, 3, 1) == 11017);
 static_assert(civil_from_day_number(-719528).year == 0);
+static_assert(day_number_from_civil(2000, 3, 1) - day_number_from_civil(2000, 2, 1) ==
+              std::int32_t(days_in_month(2000, 2)));
+static_assert(day_number_from_civil(1900, 3, 1) - day_number_from_civil(1900, 2, 1) ==
+              std::int32_t(days_in_month(1900, 2)));
+static_assert(day_number_from_civil(2025, 1, 1) - day_number_from_civil(2024, 1, 1) ==
+              std::int32_t(days_in_year(2024)));
 
 }  // namespace almanac

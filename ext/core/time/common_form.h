@@ -23,13 +23,6 @@ namespace common_form_detail {
 inline unsigned digit_at(const char* p) { return static_cast<unsigned>(p[0]) - '0'; }
 inline unsigned two_digits_at(const char* p) { return digit_at(p) * 10 + digit_at(p + 1); }
 
-constexpr bool is_leap(int y) { return y % 4 == 0 && (y % 100 != 0 || y % 400 == 0); }
-
-inline unsigned days_in(int y, unsigned month) {
-    constexpr unsigned char kDays[] = {0, 31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
-    return month == 2 && is_leap(y) ? 29u : kDays[month];
-}
-
 struct CommonForm {
     std::int64_t day;            // days since 1970-01-01
     std::int64_t millis_of_day;  // 0 for a bare date
@@ -104,7 +97,7 @@ inline bool read_common_form(std::string_view text, CommonForm& form) {
             form.precision = TextForm::Precision::Seconds;
         }
     }
-    if (mo < 1 || mo > 12 || d < 1 || d > days_in(y, mo) || h > 23 || mi > 59 || s > 59)
+    if (mo < 1 || mo > 12 || d < 1 || d > days_in_month(y, mo) || h > 23 || mi > 59 || s > 59)
         return false;
     form.day = day_number_from_civil(y, mo, d);
     form.millis_of_day = (h * 3600 + mi * 60 + s) * std::int64_t{1000};

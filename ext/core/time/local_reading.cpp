@@ -9,7 +9,7 @@ Instant instant_of_local_reading(const ZoneClock& clock, LocalTime reading) {
     // Skipped: first_instant_at gave the instant of the change itself; the
     // offset just before it is the one the reading was taken with.
     auto before = clock.offset_at(first - Millis{1});
-    return Instant{reading.time_since_epoch()} - before;
+    return instant_at_offset(reading, before);
 }
 
 }  // namespace almanac

@@ -39,7 +39,9 @@ date::year_month month_at(std::int64_t index) {
            date::month{unsigned(index - 12 * floor_div(index, 12)) + 1};
 }
 
-unsigned last_day(date::year_month ym) { return unsigned((ym / date::last).day()); }
+unsigned last_day(date::year_month ym) {
+    return days_in_month(int(ym.year()), unsigned(ym.month()));
+}
 
 LocalTime local_epoch() { return LocalTime{Millis{0}}; }
 
@@ -72,6 +74,23 @@ class CalendarGrid {
             }
             case PeriodUnit::HalfMonth:
                 anchor_month_ = 1970 * 12;
+                break;
+            case PeriodUnit::RetailWeek: {
+                // Weeks start the day after the anchor weekday: the one on or
+                // before 1970-01-01 anchors the grid.
+                length_days_ = 7;
+                date::local_days epoch{date::year{1970} / 1 / 1};
+                auto back = date::weekday{epoch} - (spec.retail_anchor.weekday + days{1});
+                anchor_ = LocalTime{(epoch - back).time_since_epoch()};
+                break;
+            }
+            case PeriodUnit::RetailMonth:
+            case PeriodUnit::RetailQuarter:
+            case PeriodUnit::RetailYear:
+                // Numbered by retail year: k = parts * year name + part.
+                retail_parts_ = spec.unit == PeriodUnit::RetailYear      ? 1
+                                : spec.unit == PeriodUnit::RetailQuarter ? 4
+                                                                         : 12;
                 break;
             default: {
                 length_months_ = spec.months();
@@ -112,6 +131,7 @@ class CalendarGrid {
 
     LocalTime boundary(std::int64_t k) const {
         if (length_days_ > 0) return anchor_ + Millis{k * length_days_ * kMillisPerDay};
+        if (retail_parts_ > 0) return LocalTime{Millis{retail_boundary_day(k) * kMillisPerDay}};
         if (spec_.unit == PeriodUnit::HalfMonth) {
             auto ym = month_at(anchor_month_ + floor_div(k, 2));
             unsigned day = (k - 2 * floor_div(k, 2)) == 0 ? 1 : 16;
@@ -132,6 +152,8 @@ class CalendarGrid {
             if (length_days_ == 1) return floor_div_by<kMillisPerDay>(since);
             return floor_div(since, length_days_ * kMillisPerDay);
         }
+        if (retail_parts_ > 0)
+            return retail_index_of_day(date::floor<days>(t).time_since_epoch().count());
         CivilDate civil = civil_from_day_number(
             static_cast<std::int32_t>(date::floor<days>(t).time_since_epoch().count()));
         std::int64_t month = std::int64_t{civil.year} * 12 + (civil.month - 1);
@@ -150,6 +172,27 @@ class CalendarGrid {
     }
 
   private:
+    // Retail years, quarters and months: the first day of period k, and the
+    // period that holds a day, through the retail year's weeks.
+    std::int64_t retail_boundary_day(std::int64_t k) const {
+        const std::int64_t name = floor_div(k, retail_parts_);
+        const unsigned part = unsigned(k - name * retail_parts_);
+        const RetailYear year =
+            retail_year_named(spec_.retail_anchor, static_cast<std::int32_t>(name));
+        const unsigned week = retail_parts_ == 4    ? 13 * part
+                              : retail_parts_ == 12 ? spec_.retail_pattern.first_week_of_month(part)
+                                                    : 0;
+        return year.first_day + 7 * std::int64_t{week};
+    }
+    std::int64_t retail_index_of_day(std::int64_t day) const {
+        const RetailYear year = retail_year_holding(spec_.retail_anchor, day);
+        const unsigned week = unsigned((day - year.first_day) / 7);
+        const unsigned part = retail_parts_ == 4    ? std::min(week / 13, 3u)
+                              : retail_parts_ == 12 ? spec_.retail_pattern.month_of_week(week)
+                                                    : 0;
+        return std::int64_t{year.name} * retail_parts_ + part;
+    }
+
     static LocalTime start_of(date::year_month ym, unsigned day) {
         std::int32_t number = day_number_from_civil(int(ym.year()), unsigned(ym.month()), day);
         return LocalTime{Millis{std::int64_t{number} * kMillisPerDay}};
@@ -158,6 +201,7 @@ class CalendarGrid {
     PeriodSpec spec_;
     std::int64_t length_days_ = 0;
     std::int64_t length_months_ = 0;
+    std::int64_t retail_parts_ = 0;  // retail year, quarter, month: periods per retail year
     LocalTime anchor_{};
     std::int64_t anchor_month_ = 0;
     unsigned anchor_day_ = 1;
@@ -560,6 +604,25 @@ std::string year_or_quarter_label(date::year_month_day start, const PeriodSpec& 
     return year + "-Q" + std::to_string(((month + 12 - first_month) % 12) / 3 + 1);
 }
 
+// FY2025, FY2025-Q4, FY2025-P12, FY2025-W53: the retail year's name and the
+// period's number within it.
+std::string retail_label(date::local_days start, const PeriodSpec& spec) {
+    const std::int64_t day = start.time_since_epoch().count();
+    const RetailYear year = retail_year_holding(spec.retail_anchor, day);
+    const std::string name = "FY" + year_text(year.name);
+    const unsigned week = unsigned((day - year.first_day) / 7);
+    switch (spec.unit) {
+        case PeriodUnit::RetailWeek:
+            return name + "-W" + two_digits(week + 1);
+        case PeriodUnit::RetailMonth:
+            return name + "-P" + two_digits(spec.retail_pattern.month_of_week(week) + 1);
+        case PeriodUnit::RetailQuarter:
+            return name + "-Q" + std::to_string(std::min(week / 13, 3u) + 1);
+        default:
+            return name;
+    }
+}
+
 // Counted from a date, a month (quarter, year) is not the calendar month its
 // start lies in, and a label like 2026-02 would say it was: name its days,
 // 2026-02-15..03-14 (the year again only when it changes).
@@ -602,6 +665,11 @@ std::string PeriodCalendar::label(const Period& period) const {
         case PeriodUnit::Quarter:
         case PeriodUnit::Year:
             return year_or_quarter_label(ymd, spec_);
+        case PeriodUnit::RetailWeek:
+        case PeriodUnit::RetailMonth:
+        case PeriodUnit::RetailQuarter:
+        case PeriodUnit::RetailYear:
+            return retail_label(day, spec_);
     }
     return format_date(day);
 }

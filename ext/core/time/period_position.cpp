@@ -27,6 +27,11 @@ const char* const kNestingRule =
     "month, quarter or year periods in a longer month-based cycle that is a whole number of them "
     "and begins where one of them begins";
 
+const char* const kRetailNestingRule =
+    "expected a retail pair that shares its anchor: day, retail week, retail month or retail "
+    "quarter in a retail year; day, retail week or retail month in a retail quarter; day or "
+    "retail week in a retail month; day in a retail week";
+
 void check_position_spec(const PeriodSpec& spec) {
     if (spec.from)
         throw Error("expected a spec without 'from': positions count from the start of the cycle");
@@ -36,7 +41,8 @@ PeriodPosition::PeriodPosition(const PeriodSpec& spec, const PeriodSpec& cycle, 
     : cycle_(cycle, clock) {
     auto refuse = [&]() {
         throw Error("'" + spec.describe() + "' periods do not nest in '" + cycle.describe() +
-                    "' cycles; " + kNestingRule);
+                    "' cycles; " +
+                    (spec.is_retail() || cycle.is_retail() ? kRetailNestingRule : kNestingRule));
     };
     week_start_ = spec.week_start;
     year_start_ = cycle.year_start;
@@ -46,6 +52,16 @@ PeriodPosition::PeriodPosition(const PeriodSpec& spec, const PeriodSpec& cycle, 
         const std::int64_t room =
             cycle.is_sub_day() ? cycle.sub_day_length().count() : kMillisPerDay;
         if (length_ms_ >= room || room % length_ms_ != 0) refuse();
+        return;
+    }
+    if (spec.is_retail()) {
+        // Retail periods nest when they are shorter and share the cycle's
+        // anchor; units are declared from the shortest.
+        kind_ = Kind::Retail;
+        if (!cycle.is_retail() || cycle.retail_anchor != spec.retail_anchor ||
+            int(spec.unit) >= int(cycle.unit))
+            refuse();
+        retail_periods_.emplace(spec, clock);
         return;
     }
     switch (spec.unit) {
@@ -107,6 +123,8 @@ std::int64_t PeriodPosition::position(Instant t) const {
             return (month_index(local_day(t)) - month_index(local_day(cycle_.floor(t)))) /
                        length_months_ +
                    1;
+        case Kind::Retail:
+            return retail_periods_->serial_of(t) - retail_periods_->serial_of(cycle_.floor(t)) + 1;
         case Kind::Week: {
             const date::local_days day = local_day(t);
             const date::local_days week = day - (date::weekday{day} - week_start_);

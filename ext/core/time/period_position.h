@@ -12,6 +12,7 @@
 #pragma once
 
 #include <cstdint>
+#include <optional>
 
 #include "core/time/period_calendar.h"
 #include "core/time/period_spec.h"
@@ -21,6 +22,8 @@ namespace almanac {
 
 // What nests in what, as error messages state it.
 extern const char* const kNestingRule;
+// The same for retail calendars.
+extern const char* const kRetailNestingRule;
 
 // Throws Error when the spec itself cannot give positions (it has a `from`).
 void check_position_spec(const PeriodSpec& spec);
@@ -38,11 +41,12 @@ class PeriodPosition {
     std::int64_t position(Instant t) const;
 
   private:
-    enum class Kind { Elapsed, Day, Week, HalfMonth, Months };
+    enum class Kind { Elapsed, Day, Week, HalfMonth, Months, Retail };
 
     date::local_days local_day(Instant t) const;
 
     PeriodCalendar cycle_;
+    std::optional<PeriodCalendar> retail_periods_;  // Retail: the spec's own calendar
     Kind kind_ = Kind::Day;
     std::int64_t length_ms_ = 0;      // Elapsed: the spec's length
     std::int64_t length_months_ = 0;  // Months: the spec's length

@@ -8,6 +8,7 @@
 #include "core/text/error.h"
 #include "core/text/number_text.h"
 #include "core/text/utf8.h"
+#include "core/time/calendar_names.h"
 
 namespace almanac {
 namespace {
@@ -19,18 +20,25 @@ constexpr const char* kGrammar =
     "such as P1W or PT15M";
 constexpr std::int64_t kLargestCount = 1000000;
 
-constexpr std::array<const char*, 7> kWeekdays = {"sunday",   "monday", "tuesday", "wednesday",
-                                                  "thursday", "friday", "saturday"};
-constexpr std::array<const char*, 12> kMonths = {"january",   "february", "march",    "april",
-                                                 "may",       "june",     "july",     "august",
-                                                 "september", "october",  "november", "december"};
-
 [[noreturn]] void fail(const std::string& reason) { throw Error(reason); }
 
 bool is_letter(char c) { return is_ascii_lower(c) || c == '-'; }
 
+using UnitWord = std::pair<const char*, PeriodUnit>;
+
+// A unit word, singular or plural.
+template <std::size_t N>
+std::optional<PeriodUnit> unit_among(const std::array<UnitWord, N>& units,
+                                     const std::string& word) {
+    for (const auto& [name, unit] : units) {
+        std::string singular = name;
+        if (word == singular || word == singular + "s") return unit;
+    }
+    return std::nullopt;
+}
+
 std::optional<PeriodUnit> unit_named(const std::string& word) {
-    static const std::array<std::pair<const char*, PeriodUnit>, 9> units = {{
+    static const std::array<UnitWord, 9> units = {{
         {"second", PeriodUnit::Second},
         {"minute", PeriodUnit::Minute},
         {"hour", PeriodUnit::Hour},
@@ -41,22 +49,8 @@ std::optional<PeriodUnit> unit_named(const std::string& word) {
         {"quarter", PeriodUnit::Quarter},
         {"year", PeriodUnit::Year},
     }};
-    for (const auto& [name, unit] : units) {
-        std::string singular = name;
-        if (word == singular || word == singular + "s") return unit;
-    }
+    if (auto unit = unit_among(units, word)) return unit;
     if (word == "halfmonth" || word == "halfmonths") return PeriodUnit::HalfMonth;
-    return std::nullopt;
-}
-
-// Full names, or their first three letters.
-template <std::size_t N>
-std::optional<unsigned> index_of_name(const std::array<const char*, N>& names,
-                                      const std::string& word) {
-    for (unsigned i = 0; i < N; ++i) {
-        std::string name = names[i];
-        if (word == name || (word.size() == 3 && name.compare(0, 3, word) == 0)) return i;
-    }
     return std::nullopt;
 }
 
@@ -80,6 +74,14 @@ const char* unit_word(PeriodUnit unit) {
             return "quarter";
         case PeriodUnit::Year:
             return "year";
+        case PeriodUnit::RetailWeek:
+            return "retail week";
+        case PeriodUnit::RetailMonth:
+            return "retail month";
+        case PeriodUnit::RetailQuarter:
+            return "retail quarter";
+        case PeriodUnit::RetailYear:
+            return "retail year";
     }
     return "?";
 }
@@ -174,6 +176,10 @@ bool PeriodSpec::is_sub_day() const {
 bool PeriodSpec::is_month_based() const {
     return unit == PeriodUnit::Month || unit == PeriodUnit::Quarter || unit == PeriodUnit::Year;
 }
+bool PeriodSpec::is_retail() const {
+    return unit == PeriodUnit::RetailWeek || unit == PeriodUnit::RetailMonth ||
+           unit == PeriodUnit::RetailQuarter || unit == PeriodUnit::RetailYear;
+}
 bool PeriodSpec::is_fiscal() const {
     return (unit == PeriodUnit::Quarter || unit == PeriodUnit::Year) && year_start != date::January;
 }
@@ -214,13 +220,18 @@ Millis PeriodSpec::fixed_length() const {
 }
 
 std::string PeriodSpec::describe() const {
+    if (is_retail()) {
+        std::string text = unit_word(unit);
+        if (unit == PeriodUnit::RetailMonth) text += " " + retail_pattern.describe();
+        return text + " ending " + retail_anchor.describe();
+    }
     std::string text =
         (count == 1 ? "" : std::to_string(count) + " ") + unit_word(unit) + (count == 1 ? "" : "s");
     if (explicit_start) {
         if (unit == PeriodUnit::Week) {
-            text += std::string(" starting ") + kWeekdays[week_start.c_encoding()];
+            text += " starting " + lowercase_weekday_name(week_start);
         } else {
-            text += std::string(" starting ") + kMonths[unsigned(year_start) - 1];
+            text += " starting " + lowercase_month_name(year_start);
         }
     }
     if (from) {
@@ -234,56 +245,36 @@ std::string PeriodSpec::describe() const {
     return text;
 }
 
-PeriodSpec parse_period_spec(std::string_view raw) {
-    if (raw.size() > kLongestSpec)
-        fail("a spec is at most " + std::to_string(kLongestSpec) + " bytes long; this one has " +
-             std::to_string(raw.size()));
-    std::string text = ascii_lowercase(raw);
-    // Trim.
-    std::size_t first = 0, last = text.size();
-    while (first < last && is_ascii_space(text[first])) ++first;
-    while (last > first && is_ascii_space(text[last - 1])) --last;
-    text = text.substr(first, last - first);
-    if (text.empty()) fail("the spec is empty; " + std::string(kGrammar));
+namespace {
 
-    if (text[0] == 'p' && text.size() > 1 && (is_ascii_digit(text[1]) || text[1] == 't')) {
-        std::string_view as_written = raw;
-        while (!as_written.empty() && is_ascii_space(as_written.front()))
-            as_written.remove_prefix(1);
-        while (!as_written.empty() && is_ascii_space(as_written.back()))
-            as_written.remove_suffix(1);
-        return parse_iso_duration(text, as_written);
-    }
+constexpr const char* kRetailGrammar =
+    "expected retail year|quarter|month|week [4-4-5|4-5-4|5-4-4 for months] ending last "
+    "<weekday> of <month>, or ending <weekday> nearest end of <month>";
 
-    // Split off "from ...": the rest of the text is the moment.
-    std::optional<LocalTime> from;
-    std::size_t from_at = std::string::npos;
-    for (std::size_t i = 0; i + 4 <= text.size(); ++i) {
-        if (text.compare(i, 4, "from") == 0 && (i == 0 || !is_letter(text[i - 1])) &&
-            (i + 4 == text.size() || !is_letter(text[i + 4]))) {
-            from_at = i;
-            break;
-        }
+// Words are letters and '-'; a number may be a month pattern (4-4-5), one
+// word of digits joined by dashes.
+std::size_t end_of_number(const std::string& text, std::size_t i) {
+    while (i < text.size() && is_ascii_digit(text[i])) ++i;
+    while (i + 1 < text.size() && text[i] == '-' && is_ascii_digit(text[i + 1])) {
+        ++i;
+        while (i < text.size() && is_ascii_digit(text[i])) ++i;
     }
-    if (from_at != std::string::npos) {
-        // The moment is read from the lower-cased text; digits and separators are unaffected.
-        from = parse_from_moment(std::string_view(text).substr(from_at + 4));
-        text = text.substr(0, from_at);
-    }
+    return i;
+}
 
-    // Tokens: numbers and words; spaces are optional between them.
+// Numbers and words; spaces are optional between them.
+std::vector<std::string> tokenise(const std::string& text) {
     std::vector<std::string> tokens;
     for (std::size_t i = 0; i < text.size();) {
         if (is_ascii_space(text[i])) {
             ++i;
-        } else if (is_ascii_digit(text[i])) {
+        } else if (is_ascii_digit(text[i]) || is_letter(text[i])) {
             std::size_t j = i;
-            while (j < text.size() && is_ascii_digit(text[j])) ++j;
-            tokens.push_back(text.substr(i, j - i));
-            i = j;
-        } else if (is_letter(text[i])) {
-            std::size_t j = i;
-            while (j < text.size() && is_letter(text[j])) ++j;
+            if (is_ascii_digit(text[i])) {
+                j = end_of_number(text, i);
+            } else {
+                while (j < text.size() && is_letter(text[j])) ++j;
+            }
             tokens.push_back(text.substr(i, j - i));
             i = j;
         } else {
@@ -304,77 +295,226 @@ PeriodSpec parse_period_spec(std::string_view raw) {
             tokens.erase(tokens.begin() + static_cast<long>(i) + 1);
         }
     }
+    return tokens;
+}
 
+// Splits off "from ...": the rest of the text is the moment.
+std::optional<LocalTime> split_off_from(std::string& text) {
+    for (std::size_t i = 0; i + 4 <= text.size(); ++i) {
+        if (text.compare(i, 4, "from") == 0 && (i == 0 || !is_letter(text[i - 1])) &&
+            (i + 4 == text.size() || !is_letter(text[i + 4]))) {
+            // The moment is read from the lower-cased text; digits and separators are unaffected.
+            LocalTime from = parse_from_moment(std::string_view(text).substr(i + 4));
+            text = text.substr(0, i);
+            return from;
+        }
+    }
+    return std::nullopt;
+}
+
+// The words of a spec, read left to right.
+class Words {
+  public:
+    explicit Words(std::vector<std::string> tokens) : tokens_(std::move(tokens)) {}
+    bool done() const { return pos_ >= tokens_.size(); }
+    const std::string& peek() const { return tokens_[pos_]; }
+    bool next_is(const char* word) const { return !done() && peek() == word; }
+    std::string take() { return tokens_[pos_++]; }
+    void expect_end(const char* grammar) const {
+        if (!done()) fail("unexpected '" + peek() + "'; " + grammar);
+    }
+
+  private:
+    std::vector<std::string> tokens_;
+    std::size_t pos_ = 0;
+};
+
+std::optional<PeriodUnit> retail_unit_named(const std::string& word) {
+    static const std::array<UnitWord, 4> units = {{
+        {"year", PeriodUnit::RetailYear},
+        {"quarter", PeriodUnit::RetailQuarter},
+        {"month", PeriodUnit::RetailMonth},
+        {"week", PeriodUnit::RetailWeek},
+    }};
+    return unit_among(units, word);
+}
+
+RetailMonthPattern read_month_pattern(const std::string& word) {
+    for (const char* known : {"4-4-5", "4-5-4", "5-4-4"}) {
+        if (word == known)
+            return RetailMonthPattern{
+                {{unsigned(word[0] - '0'), unsigned(word[2] - '0'), unsigned(word[4] - '0')}}};
+    }
+    fail("'" + word +
+         "' is not a month pattern; expected 4-4-5, 4-5-4 or 5-4-4 (the weeks of the three "
+         "months of a 13-week quarter)");
+}
+
+date::weekday read_anchor_weekday(Words& words) {
+    if (words.done()) fail(std::string("the anchor needs a weekday; ") + kRetailGrammar);
+    std::string word = words.take();
+    auto weekday = weekday_named(word);
+    if (!weekday) fail("'" + word + "' is not a weekday; " + kRetailGrammar);
+    return *weekday;
+}
+
+date::month read_anchor_month(Words& words) {
+    if (words.done()) fail(std::string("the anchor needs a month; ") + kRetailGrammar);
+    std::string word = words.take();
+    auto month = month_named(word);
+    if (!month) fail("'" + word + "' is not a month; " + kRetailGrammar);
+    return *month;
+}
+
+void expect_word(Words& words, const char* word) {
+    if (words.done()) fail(std::string("the anchor ends before '") + word + "'; " + kRetailGrammar);
+    std::string got = words.take();
+    if (got != word)
+        fail("unexpected '" + got + "' where the anchor has '" + word + "'; " + kRetailGrammar);
+}
+
+// "last saturday of january" or "saturday nearest end of january".
+RetailAnchor read_anchor(Words& words) {
+    RetailAnchor anchor;
+    if (words.next_is("last")) {
+        words.take();
+        anchor.weekday = read_anchor_weekday(words);
+        expect_word(words, "of");
+    } else {
+        anchor.weekday = read_anchor_weekday(words);
+        expect_word(words, "nearest");
+        expect_word(words, "end");
+        expect_word(words, "of");
+        anchor.nearest = true;
+    }
+    anchor.month = read_anchor_month(words);
+    return anchor;
+}
+
+// After "retail": the unit, a month pattern, and the anchor.
+PeriodSpec read_retail_words(Words& words) {
     PeriodSpec spec;
-    std::size_t pos = 0;
+    if (words.done()) fail(std::string("'retail' needs a unit; ") + kRetailGrammar);
+    std::string unit_word_written = words.take();
+    auto unit = retail_unit_named(unit_word_written);
+    if (!unit) fail("unknown retail unit '" + unit_word_written + "'; " + kRetailGrammar);
+    spec.unit = *unit;
+    if (!words.done() && is_ascii_digit(words.peek()[0])) {
+        std::string written = words.take();
+        spec.retail_pattern = read_month_pattern(written);
+        if (spec.unit != PeriodUnit::RetailMonth)
+            fail("a month pattern (" + written + ") applies to retail month only, not " +
+                 std::string(unit_word(spec.unit)));
+    }
+    if (words.next_is("starting"))
+        fail("a retail unit takes no 'starting': its anchor says where every retail year ends; " +
+             std::string(kRetailGrammar));
+    if (!words.next_is("ending"))
+        fail(std::string(unit_word(spec.unit)) + " needs an anchor; " + kRetailGrammar);
+    words.take();
+    spec.retail_anchor = read_anchor(words);
+    words.expect_end(kRetailGrammar);
+    return spec;
+}
+
+// [count] unit [starting weekday|month].
+PeriodSpec read_words(Words& words) {
+    PeriodSpec spec;
     bool counted = false;
-    if (pos < tokens.size() && is_ascii_digit(tokens[pos][0])) {
-        spec.count = parse_count(tokens[pos]);
+    if (!words.done() && is_ascii_digit(words.peek()[0])) {
+        std::string count = words.take();
+        if (count.find('-') != std::string::npos) fail("unexpected '" + count + "'; " + kGrammar);
+        spec.count = parse_count(count);
         counted = true;
-        ++pos;
-    } else if (pos < tokens.size() && tokens[pos][0] == '-') {
+    } else if (!words.done() && words.peek()[0] == '-') {
         fail("the count must be a positive whole number");
     }
-    if (pos >= tokens.size()) fail(kGrammar);
-    auto unit = unit_named(tokens[pos]);
-    if (!unit) fail("unknown unit '" + tokens[pos] + "'; " + kGrammar);
+    if (words.done()) fail(kGrammar);
+    if (words.next_is("retail")) {
+        if (counted)
+            fail("a retail unit takes no count: its periods are the retail calendar's own; " +
+                 std::string(kRetailGrammar));
+        words.take();
+        return read_retail_words(words);
+    }
+    std::string written = words.take();
+    auto unit = unit_named(written);
+    if (!unit) fail("unknown unit '" + written + "'; " + kGrammar);
     spec.unit = *unit;
-    ++pos;
     if (spec.unit == PeriodUnit::HalfMonth && counted)
         fail("half-month takes no count: its periods are the 1st-15th and the 16th-last day");
 
-    if (pos < tokens.size() && tokens[pos] == "starting") {
-        ++pos;
-        if (pos >= tokens.size())
+    if (words.next_is("starting")) {
+        words.take();
+        if (words.done())
             fail("'starting' needs a weekday (for weeks) or a month (for quarters and years)");
-        const std::string& word = tokens[pos];
+        const std::string word = words.take();
         if (spec.unit == PeriodUnit::Week) {
-            auto weekday = index_of_name(kWeekdays, word);
+            auto weekday = weekday_named(word);
             if (!weekday)
                 fail("'starting " + word + "': weeks start on a weekday, monday to sunday");
-            spec.week_start = date::weekday{*weekday};
+            spec.week_start = *weekday;
         } else if (spec.unit == PeriodUnit::Quarter || spec.unit == PeriodUnit::Year) {
-            auto month = index_of_name(kMonths, word);
+            auto month = month_named(word);
             if (!month)
                 fail("'starting " + word +
                      "': quarters and years start in a month, january to december");
-            spec.year_start = date::month{*month + 1};
+            spec.year_start = *month;
         } else {
             fail(std::string("'starting' applies to week, quarter and year, not ") +
                  unit_word(spec.unit));
         }
         spec.explicit_start = true;
-        ++pos;
     }
-    if (pos < tokens.size()) fail("unexpected '" + tokens[pos] + "'; " + kGrammar);
+    words.expect_end(kGrammar);
+    return spec;
+}
 
-    if (from) {
-        auto day = date::floor<date::days>(*from);
-        if (spec.unit == PeriodUnit::HalfMonth)
-            fail("half-month takes no 'from': its periods are the 1st-15th and the 16th-last day");
-        if (spec.unit == PeriodUnit::Week) {
-            date::weekday weekday{day};
-            if (spec.explicit_start && weekday != spec.week_start) {
-                fail("'from " + format_date(day) + "' is a " + kWeekdays[weekday.c_encoding()] +
-                     ", which contradicts 'starting " + kWeekdays[spec.week_start.c_encoding()] +
-                     "'");
-            }
-            spec.week_start = weekday;
+// A `from` must agree with the rest of the spec.
+void check_from(PeriodSpec& spec, LocalTime from) {
+    auto day = date::floor<date::days>(from);
+    if (spec.is_retail())
+        fail("a retail unit takes no 'from': its anchor says where every retail year ends; " +
+             std::string(kRetailGrammar));
+    if (spec.unit == PeriodUnit::HalfMonth)
+        fail("half-month takes no 'from': its periods are the 1st-15th and the 16th-last day");
+    if (spec.unit == PeriodUnit::Week) {
+        date::weekday weekday{day};
+        if (spec.explicit_start && weekday != spec.week_start) {
+            fail("'from " + format_date(day) + "' is a " + lowercase_weekday_name(weekday) +
+                 ", which contradicts 'starting " + lowercase_weekday_name(spec.week_start) + "'");
         }
-        if (spec.unit == PeriodUnit::Quarter || spec.unit == PeriodUnit::Year) {
-            date::year_month_day ymd{day};
-            unsigned from_month = unsigned(ymd.month());
-            unsigned start_month = unsigned(spec.year_start);
-            unsigned step = spec.unit == PeriodUnit::Quarter ? 3 : 12;
-            if (spec.explicit_start && (from_month + 12 - start_month) % step != 0) {
-                fail("'from " + format_date(day) + "' contradicts 'starting " +
-                     kMonths[start_month - 1] + "': a period must start in " +
-                     kMonths[start_month - 1] +
-                     (step == 3 ? " or a month a whole number of quarters away" : ""));
-            }
-        }
-        spec.from = from;
+        spec.week_start = weekday;
     }
+    if (spec.unit == PeriodUnit::Quarter || spec.unit == PeriodUnit::Year) {
+        date::year_month_day ymd{day};
+        unsigned from_month = unsigned(ymd.month());
+        unsigned start_month = unsigned(spec.year_start);
+        unsigned step = spec.unit == PeriodUnit::Quarter ? 3 : 12;
+        if (spec.explicit_start && (from_month + 12 - start_month) % step != 0) {
+            const std::string start_name = lowercase_month_name(spec.year_start);
+            fail("'from " + format_date(day) + "' contradicts 'starting " + start_name +
+                 "': a period must start in " + start_name +
+                 (step == 3 ? " or a month a whole number of quarters away" : ""));
+        }
+    }
+    spec.from = from;
+}
+
+}  // namespace
+
+PeriodSpec parse_period_spec(std::string_view raw) {
+    if (raw.size() > kLongestSpec)
+        fail("a spec is at most " + std::to_string(kLongestSpec) + " bytes long; this one has " +
+             std::to_string(raw.size()));
+    std::string text(trim_ascii_space(ascii_lowercase(raw)));
+    if (text.empty()) fail("the spec is empty; " + std::string(kGrammar));
+    if (text[0] == 'p' && text.size() > 1 && (is_ascii_digit(text[1]) || text[1] == 't'))
+        return parse_iso_duration(text, trim_ascii_space(raw));
+    std::optional<LocalTime> from = split_off_from(text);
+    Words words(tokenise(text));
+    PeriodSpec spec = read_words(words);
+    if (from) check_from(spec, *from);
     return spec;
 }
 

@@ -91,8 +91,6 @@ class Cursor {
     std::size_t pos_ = 0;
 };
 
-bool is_leap(int year) { return year % 4 == 0 && (year % 100 != 0 || year % 400 == 0); }
-
 }  // namespace
 
 std::int64_t PosixTzRule::ChangeDate::local_day_seconds(int year) const {
@@ -101,7 +99,7 @@ std::int64_t PosixTzRule::ChangeDate::local_day_seconds(int year) const {
     switch (kind) {
         case Kind::JulianNoLeap:
             // Jn counts 1-365 and never names February 29.
-            day_number = january_first + day - 1 + (is_leap(year) && day >= 60 ? 1 : 0);
+            day_number = january_first + day - 1 + (is_leap_year(year) && day >= 60 ? 1 : 0);
             break;
         case Kind::ZeroBasedDay:
             day_number = january_first + day;

@@ -1,27 +1,22 @@
 // SPDX-License-Identifier: MIT
 #include "core/time/time_format.h"
 
-#include <array>
+#include <algorithm>
 #include <cmath>
 
 #include "core/text/ascii.h"
 #include "core/text/character_position.h"
 #include "core/text/error.h"
 #include "core/text/utf8.h"
+#include "core/time/calendar_names.h"
 #include "core/time/civil_days.h"
+#include "core/time/second_fraction.h"
 
 namespace almanac {
 namespace {
 
 constexpr std::string_view kDirectives =
     "%Y %y %m %d %e %H %I %M %S %f %p %b %B %a %A %j %z %%, or the word excel";
-
-constexpr std::array<std::string_view, 12> kMonths = {
-    "january", "february", "march",     "april",   "may",      "june",
-    "july",    "august",   "september", "october", "november", "december"};
-// Monday first, as date::weekday's iso_encoding counts (1 = Monday).
-constexpr std::array<std::string_view, 7> kWeekdays = {
-    "monday", "tuesday", "wednesday", "thursday", "friday", "saturday", "sunday"};
 
 std::string two_digits(unsigned v) {
     return std::string{char('0' + v / 10 % 10), char('0' + v % 10)};
@@ -33,79 +28,162 @@ std::string date_text(int year, unsigned month, unsigned day) {
            "-" + two_digits(day);
 }
 
-// What a directive reads, for messages.
-std::string expected_for(char directive) {
-    switch (directive) {
-        case 'Y':
-            return "%Y (a four-digit year)";
-        case 'y':
-            return "%y (a two-digit year)";
-        case 'm':
-            return "%m (a month number 1-12)";
-        case 'd':
-            return "%d (a day of the month 1-31)";
-        case 'e':
-            return "%e (a day of the month 1-31)";
-        case 'H':
-            return "%H (an hour 0-23)";
-        case 'I':
-            return "%I (an hour 1-12)";
-        case 'M':
-            return "%M (minutes 0-59)";
-        case 'S':
-            return "%S (seconds 0-59)";
-        case 'f':
-            return "%f (digits of a fraction of a second)";
-        case 'p':
-            return "%p (AM or PM)";
-        case 'b':
-            return "%b (a month name such as Mar or March)";
-        case 'B':
-            return "%B (a month name such as Mar or March)";
-        case 'a':
-            return "%a (a weekday name such as Thu or Thursday)";
-        case 'A':
-            return "%A (a weekday name such as Thu or Thursday)";
-        case 'j':
-            return "%j (a day of the year 1-366)";
-        case 'z':
-            return "%z (an offset such as +01:00, +0100 or Z)";
-        default:
-            return "%";
-    }
-}
-
 [[noreturn]] void mismatch(std::string_view text, std::size_t pos, const std::string& expected) {
     if (pos >= text.size()) throw Error("the text ends where " + expected + " was expected");
     throw Error("at " + character_at(text, pos) + ": expected " + expected);
 }
 
-// Reads a name from `names` (full, or its first three letters), case-insensitively.
-// Returns the 0-based index and advances pos; -1 when none matches.
-int read_name(std::string_view text, std::size_t& pos, const std::string_view* names,
-              std::size_t count) {
-    auto matches = [&](std::string_view name, std::size_t length) {
-        if (pos + length > text.size()) return false;
-        for (std::size_t i = 0; i < length; ++i)
-            if (to_ascii_lower(text[pos + i]) != name[i]) return false;
-        return true;
+// The text being read and the place reached; each field reader advances it.
+struct Cursor {
+    std::string_view text;
+    std::size_t pos = 0;
+
+    bool at_end() const { return pos >= text.size(); }
+    std::string_view rest() const { return text.substr(pos); }
+};
+
+// 1..most digits (exactly `most` when fixed) in low..high.
+int read_number(Cursor& in, const char* expected, std::size_t most, int low, int high,
+                bool fixed = false) {
+    std::size_t start = in.pos;
+    int value = 0;
+    while (!in.at_end() && in.pos - start < most && is_ascii_digit(in.text[in.pos]))
+        value = value * 10 + (in.text[in.pos++] - '0');
+    if (in.pos == start || (fixed && in.pos - start != most)) mismatch(in.text, start, expected);
+    if (value < low || value > high)
+        throw Error("at " + character_at(in.text, start, in.pos - start) + ": expected " +
+                    expected);
+    return value;
+}
+
+// Up to nanoseconds, rounded half up to the millisecond (second_fraction.h).
+std::int64_t read_fraction(Cursor& in, const char* expected) {
+    auto fraction = read_second_fraction(in.rest(), 9);
+    if (!fraction) mismatch(in.text, in.pos, expected);
+    in.pos += fraction->digits;
+    return fraction->millis;
+}
+
+// AM or PM in any case: true for PM.
+bool read_am_pm(Cursor& in, const char* expected) {
+    char a = in.pos < in.text.size() ? to_ascii_lower(in.text[in.pos]) : 0;
+    char m = in.pos + 1 < in.text.size() ? to_ascii_lower(in.text[in.pos + 1]) : 0;
+    if ((a != 'a' && a != 'p') || m != 'm') mismatch(in.text, in.pos, expected);
+    in.pos += 2;
+    return a == 'p';
+}
+
+template <typename Match>
+auto read_name(Cursor& in, const char* expected, Match&& match) {
+    auto found = match(in.rest());
+    if (!found) mismatch(in.text, in.pos, expected);
+    in.pos += found->length;
+    return found->value;
+}
+
+// Z, or ±HH[:]MM.
+std::chrono::seconds read_offset(Cursor& in, const char* expected) {
+    std::size_t start = in.pos;
+    if (!in.at_end() && in.text[in.pos] == 'Z') {
+        ++in.pos;
+        return std::chrono::seconds{0};
+    }
+    if (in.at_end() || (in.text[in.pos] != '+' && in.text[in.pos] != '-'))
+        mismatch(in.text, in.pos, expected);
+    int sign = in.text[in.pos++] == '-' ? -1 : 1;
+    auto digits2 = [&]() {
+        if (in.pos + 2 > in.text.size() || !is_ascii_digit(in.text[in.pos]) ||
+            !is_ascii_digit(in.text[in.pos + 1]))
+            mismatch(in.text, in.pos, expected);
+        int v = (in.text[in.pos] - '0') * 10 + (in.text[in.pos + 1] - '0');
+        in.pos += 2;
+        return v;
     };
-    for (std::size_t i = 0; i < count; ++i) {
-        if (matches(names[i], names[i].size())) {
-            pos += names[i].size();
-            return int(i);
+    int hours = digits2();
+    if (!in.at_end() && in.text[in.pos] == ':') ++in.pos;
+    int minutes = digits2();
+    if (hours > 23 || minutes > 59)
+        throw Error("at " + character_at(in.text, start, in.pos - start) + ": expected " +
+                    expected);
+    return std::chrono::seconds{sign * (hours * 3600 + minutes * 60)};
+}
+
+// What the fields of one text said, before the date is worked out.
+struct Fields {
+    int year = -1;
+    unsigned month = 0, day = 0, day_of_year = 0;
+    std::optional<date::weekday> weekday;
+    int hour = 0, minute = 0, second = 0, pm = -1;
+    std::int64_t fraction_ms = 0;
+    std::size_t weekday_at = 0, weekday_end = 0, day_of_year_at = 0;
+};
+
+// The day the fields name: year-month-day or year and day of the year, which
+// must exist and agree with a day of the year or weekday also given.
+std::int32_t resolve_day(const Fields& f, std::string_view text) {
+    std::int32_t day_number;
+    if (f.day != 0) {
+        unsigned last = days_in_month(f.year, f.month);
+        if (f.day > last)
+            throw Error("no such date: " + std::to_string(f.year) + "-" + two_digits(f.month) +
+                        " has " + std::to_string(last) + " days");
+        day_number = day_number_from_civil(f.year, f.month, f.day);
+        if (f.day_of_year != 0) {
+            unsigned actual = unsigned(day_number - day_number_from_civil(f.year, 1, 1)) + 1;
+            if (actual != f.day_of_year)
+                throw Error("at " + character_at(text, f.day_of_year_at, 3) + ": day of the year " +
+                            std::to_string(f.day_of_year) + " does not agree with " +
+                            date_text(f.year, f.month, f.day) + ", day " + std::to_string(actual));
+        }
+    } else {
+        if (f.day_of_year > days_in_year(f.year))
+            throw Error("no such date: " + std::to_string(f.year) + " has " +
+                        std::to_string(days_in_year(f.year)) + " days");
+        day_number = day_number_from_civil(f.year, 1, 1) + std::int32_t(f.day_of_year) - 1;
+    }
+    if (f.weekday) {
+        date::weekday actual{date::sys_days{date::days{day_number}}};
+        if (actual != *f.weekday) {
+            CivilDate civil = civil_from_day_number(day_number);
+            throw Error("at " + character_at(text, f.weekday_at, f.weekday_end - f.weekday_at) +
+                        ": " + date_text(civil.year, civil.month, civil.day) + " is a " +
+                        std::string(weekday_name(actual)));
         }
     }
-    for (std::size_t i = 0; i < count; ++i) {
-        if (matches(names[i], 3)) {
-            pos += 3;
-            return int(i);
-        }
-    }
-    return -1;
+    return day_number;
 }
 
 }  // namespace
+
+const TimeFormat::Directive* TimeFormat::directive_for(char letter) {
+    static constexpr Directive kTable[] = {
+        {'Y', Field::Year, 'Y', "%Y (a four-digit year)"},
+        {'y', Field::TwoDigitYear, 'y', "%y (a two-digit year)"},
+        {'m', Field::Month, 'm', "%m (a month number 1-12)"},
+        {'d', Field::Day, 'd', "%d (a day of the month 1-31)"},
+        {'e', Field::Day, 'd', "%e (a day of the month 1-31)"},
+        {'H', Field::Hour24, 'H', "%H (an hour 0-23)"},
+        {'I', Field::Hour12, 'I', "%I (an hour 1-12)"},
+        {'M', Field::Minute, 'M', "%M (minutes 0-59)"},
+        {'S', Field::Second, 'S', "%S (seconds 0-59)"},
+        {'f', Field::Fraction, 'f', "%f (digits of a fraction of a second)"},
+        {'p', Field::AmPm, 'p', "%p (AM or PM)"},
+        {'b', Field::MonthName, 'b', "%b (a month name such as Mar or March)"},
+        {'B', Field::MonthName, 'b', "%B (a month name such as Mar or March)"},
+        {'a', Field::WeekdayName, 'a', "%a (a weekday name such as Thu or Thursday)"},
+        {'A', Field::WeekdayName, 'a', "%A (a weekday name such as Thu or Thursday)"},
+        {'j', Field::DayOfYear, 'j', "%j (a day of the year 1-366)"},
+        {'z', Field::Offset, 'z', "%z (an offset such as +01:00, +0100 or Z)"},
+    };
+    for (const Directive& directive : kTable)
+        if (directive.letter == letter) return &directive;
+    return nullptr;
+}
+
+const char* TimeFormat::expected_for(char letter) {
+    const Directive* directive = directive_for(letter);
+    return directive ? directive->expected : "%";
+}
 
 TimeFormat TimeFormat::parse(std::string_view format) {
     if (format.size() > kLongestFormat)
@@ -113,17 +191,15 @@ TimeFormat TimeFormat::parse(std::string_view format) {
                     " bytes long; this one has " + std::to_string(format.size()));
     TimeFormat result;
     std::string_view trimmed = trim_ascii_space(format);
-    if (trimmed.size() == 5) {
-        if (ascii_lowercase(trimmed) == "excel") {
-            result.spreadsheet_ = true;
-            result.has_time_ = true;
-            result.has_fraction_ = true;
-            return result;
-        }
+    if (trimmed.size() == 5 && ascii_lowercase(trimmed) == "excel") {
+        result.spreadsheet_ = true;
+        result.has_time_ = true;
+        result.has_fraction_ = true;
+        return result;
     }
     if (trimmed.empty()) throw Error("expected a format such as '%d.%m.%Y %H:%M', or excel");
 
-    // Which directives occur (by letter), to check the combination at the end.
+    // Which fields occur (by the letter of their key), to check the combination at the end.
     bool seen[128] = {};
     for (std::size_t i = 0; i < format.size(); ++i) {
         char c = format[i];
@@ -140,70 +216,27 @@ TimeFormat TimeFormat::parse(std::string_view format) {
         if (i + 1 == format.size())
             throw Error("the format ends with a lone %; write %% for a percent sign");
         char d = format[++i];
-        Field field;
-        switch (d) {
-            case '%':
-                result.steps_.push_back({Field::Literal, '%', 0});
-                continue;
-            case 'Y':
-                field = Field::Year;
-                break;
-            case 'y':
-                field = Field::TwoDigitYear;
-                break;
-            case 'm':
-                field = Field::Month;
-                break;
-            case 'd':
-            case 'e':
-                field = Field::Day;
-                break;
-            case 'H':
-                field = Field::Hour24;
-                break;
-            case 'I':
-                field = Field::Hour12;
-                break;
-            case 'M':
-                field = Field::Minute;
-                break;
-            case 'S':
-                field = Field::Second;
-                break;
-            case 'f':
-                field = Field::Fraction;
-                break;
-            case 'p':
-                field = Field::AmPm;
-                break;
-            case 'b':
-            case 'B':
-                field = Field::MonthName;
-                break;
-            case 'a':
-            case 'A':
-                field = Field::WeekdayName;
-                break;
-            case 'j':
-                field = Field::DayOfYear;
-                break;
-            case 'z':
-                field = Field::Offset;
-                break;
-            default:
-                throw Error("unknown directive at " +
-                            character_at(format, i - 1, 1 + utf8_sequence_length(format, i)) +
-                            "; expected one of " + std::string(kDirectives));
+        if (d == '%') {
+            result.steps_.push_back({Field::Literal, '%', 0});
+            continue;
         }
+        const Directive* directive = directive_for(d);
+        if (!directive)
+            throw Error("unknown directive at " +
+                        character_at(format, i - 1, 1 + utf8_sequence_length(format, i)) +
+                        "; expected one of " + std::string(kDirectives));
         // Two spellings of one field (%d and %e, %b and %B) count as one.
-        char key = d == 'e' ? 'd' : d == 'B' ? 'b' : d == 'A' ? 'a' : d;
-        if (seen[int(key)])
+        if (seen[int(directive->key)])
             throw Error("%" + std::string(1, d) + " at " + character_at(format, i - 1, 2) +
                         " reads a field the format already reads");
-        seen[int(key)] = true;
-        result.steps_.push_back({field, 0, d});
+        seen[int(directive->key)] = true;
+        result.steps_.push_back({directive->field, 0, d});
     }
+    result.check_combination(seen);
+    return result;
+}
 
+void TimeFormat::check_combination(const bool (&seen)[128]) {
     auto has = [&](char key) { return seen[int(key)]; };
     if (!has('Y') && !has('y')) throw Error("the format has no year; expected %Y or %y");
     if (has('Y') && has('y')) throw Error("the format has both %Y and %y; expected one year");
@@ -219,185 +252,90 @@ TimeFormat TimeFormat::parse(std::string_view format) {
     if (has('M') && !hour) throw Error("the format has %M without an hour (%H or %I)");
     if (has('S') && !has('M')) throw Error("the format has %S without minutes (%M)");
     if (has('f') && !has('S')) throw Error("the format has %f without seconds (%S)");
-    result.has_time_ = hour;
-    result.has_fraction_ = has('f');
-    result.has_offset_ = has('z');
-    return result;
+    has_time_ = hour;
+    has_fraction_ = has('f');
+    has_offset_ = has('z');
 }
 
 TimeReading TimeFormat::read(std::string_view raw) const {
-    std::string_view text = trim_ascii_space(raw);
-    std::size_t pos = 0;
-    int year = -1;
-    int month = 0, day = 0, day_of_year = 0, weekday = 0;
-    int hour = 0, minute = 0, second = 0, pm = -1;
-    std::int64_t fraction_ms = 0;
-    std::size_t weekday_at = 0, weekday_end = 0, day_of_year_at = 0;
+    Cursor in{trim_ascii_space(raw)};
+    Fields f;
     TimeReading reading;
-
-    // Reads 1..most digits (exactly `fixed` when given) and checks the range.
-    auto number = [&](const Step& step, std::size_t most, int low, int high, bool fixed = false) {
-        std::size_t start = pos;
-        int value = 0;
-        while (pos < text.size() && pos - start < most && is_ascii_digit(text[pos]))
-            value = value * 10 + (text[pos++] - '0');
-        if (pos == start || (fixed && pos - start != most))
-            mismatch(text, start, expected_for(step.directive));
-        if (value < low || value > high)
-            throw Error("at " + character_at(text, start, pos - start) + ": expected " +
-                        expected_for(step.directive));
-        return value;
-    };
-
     for (const Step& step : steps_) {
+        const char* expected = expected_for(step.directive);
         switch (step.field) {
             case Field::Literal:
-                if (pos >= text.size() || text[pos] != step.literal)
-                    mismatch(text, pos, "'" + std::string(1, step.literal) + "'");
-                ++pos;
+                if (in.at_end() || in.text[in.pos] != step.literal)
+                    mismatch(in.text, in.pos, "'" + std::string(1, step.literal) + "'");
+                ++in.pos;
                 break;
             case Field::Space:
-                if (pos >= text.size() || !is_ascii_space(text[pos]))
-                    mismatch(text, pos, "a space");
-                while (pos < text.size() && is_ascii_space(text[pos])) ++pos;
+                if (in.at_end() || !is_ascii_space(in.text[in.pos]))
+                    mismatch(in.text, in.pos, "a space");
+                while (!in.at_end() && is_ascii_space(in.text[in.pos])) ++in.pos;
                 break;
             case Field::Year:
-                year = number(step, 4, 0, 9999, true);
+                f.year = read_number(in, expected, 4, 0, 9999, true);
                 break;
             case Field::TwoDigitYear: {
-                // POSIX's rule, which Python's strptime follows: 69-99 are 1969-1999, 00-68 are
-                // 2000-2068.
-                int yy = number(step, 2, 0, 99, true);
-                year = yy < 69 ? 2000 + yy : 1900 + yy;
+                // POSIX's rule, which Python's strptime follows: 69-99 are
+                // 1969-1999, 00-68 are 2000-2068.
+                int yy = read_number(in, expected, 2, 0, 99, true);
+                f.year = yy < 69 ? 2000 + yy : 1900 + yy;
                 break;
             }
             case Field::Month:
-                month = number(step, 2, 1, 12);
+                f.month = unsigned(read_number(in, expected, 2, 1, 12));
                 break;
             case Field::Day:
                 // One space may pad a one-digit day ("Mar  5"), as %e writes it.
-                if (pos + 1 < text.size() && text[pos] == ' ' && is_ascii_digit(text[pos + 1]))
-                    ++pos;
-                day = number(step, 2, 1, 31);
+                if (in.pos + 1 < in.text.size() && in.text[in.pos] == ' ' &&
+                    is_ascii_digit(in.text[in.pos + 1]))
+                    ++in.pos;
+                f.day = unsigned(read_number(in, expected, 2, 1, 31));
                 break;
             case Field::Hour24:
-                hour = number(step, 2, 0, 23);
+                f.hour = read_number(in, expected, 2, 0, 23);
                 break;
             case Field::Hour12:
-                hour = number(step, 2, 1, 12);
+                f.hour = read_number(in, expected, 2, 1, 12);
                 break;
             case Field::Minute:
-                minute = number(step, 2, 0, 59);
+                f.minute = read_number(in, expected, 2, 0, 59);
                 break;
             case Field::Second:
-                second = number(step, 2, 0, 59);
+                f.second = read_number(in, expected, 2, 0, 59);
                 break;
-            case Field::Fraction: {
-                // Up to nanoseconds; rounded half up to the millisecond.
-                std::size_t start = pos;
-                std::int64_t nanos = 0;
-                while (pos < text.size() && pos - start < 9 && is_ascii_digit(text[pos]))
-                    nanos = nanos * 10 + (text[pos++] - '0');
-                if (pos == start) mismatch(text, start, expected_for(step.directive));
-                for (std::size_t n = pos - start; n < 9; ++n) nanos *= 10;
-                fraction_ms = (nanos + 500000) / 1000000;
+            case Field::Fraction:
+                f.fraction_ms = read_fraction(in, expected);
                 break;
-            }
-            case Field::AmPm: {
-                char a = pos < text.size() ? to_ascii_lower(text[pos]) : 0;
-                char m = pos + 1 < text.size() ? to_ascii_lower(text[pos + 1]) : 0;
-                if ((a != 'a' && a != 'p') || m != 'm') mismatch(text, pos, expected_for('p'));
-                pm = a == 'p';
-                pos += 2;
+            case Field::AmPm:
+                f.pm = read_am_pm(in, expected) ? 1 : 0;
                 break;
-            }
-            case Field::MonthName: {
-                int index = read_name(text, pos, kMonths.data(), kMonths.size());
-                if (index < 0) mismatch(text, pos, expected_for(step.directive));
-                month = index + 1;
+            case Field::MonthName:
+                f.month = unsigned(read_name(in, expected, match_month_name));
                 break;
-            }
-            case Field::WeekdayName: {
-                weekday_at = pos;
-                int index = read_name(text, pos, kWeekdays.data(), kWeekdays.size());
-                if (index < 0) mismatch(text, pos, expected_for(step.directive));
-                weekday = index + 1;
-                weekday_end = pos;
+            case Field::WeekdayName:
+                f.weekday_at = in.pos;
+                f.weekday = read_name(in, expected, match_weekday_name);
+                f.weekday_end = in.pos;
                 break;
-            }
             case Field::DayOfYear:
-                day_of_year_at = pos;
-                day_of_year = number(step, 3, 1, 366);
+                f.day_of_year_at = in.pos;
+                f.day_of_year = unsigned(read_number(in, expected, 3, 1, 366));
                 break;
-            case Field::Offset: {
-                std::size_t start = pos;
-                if (pos < text.size() && text[pos] == 'Z') {
-                    ++pos;
-                    reading.has_offset = true;
-                    break;
-                }
-                if (pos >= text.size() || (text[pos] != '+' && text[pos] != '-'))
-                    mismatch(text, pos, expected_for('z'));
-                int sign = text[pos++] == '-' ? -1 : 1;
-                auto digits2 = [&]() {
-                    if (pos + 2 > text.size() || !is_ascii_digit(text[pos]) ||
-                        !is_ascii_digit(text[pos + 1]))
-                        mismatch(text, pos, expected_for('z'));
-                    int v = (text[pos] - '0') * 10 + (text[pos + 1] - '0');
-                    pos += 2;
-                    return v;
-                };
-                int hours = digits2();
-                if (pos < text.size() && text[pos] == ':') ++pos;
-                int minutes = digits2();
-                if (hours > 23 || minutes > 59)
-                    throw Error("at " + character_at(text, start, pos - start) + ": expected " +
-                                expected_for('z'));
+            case Field::Offset:
+                reading.offset = read_offset(in, expected);
                 reading.has_offset = true;
-                reading.offset = std::chrono::seconds{sign * (hours * 3600 + minutes * 60)};
                 break;
-            }
         }
     }
-    if (pos != text.size()) mismatch(text, pos, "the end of the text");
+    if (!in.at_end()) mismatch(in.text, in.pos, "the end of the text");
 
-    if (pm >= 0) hour = hour % 12 + (pm ? 12 : 0);
-    bool leap = (year % 4 == 0 && year % 100 != 0) || year % 400 == 0;
-    std::int32_t day_number;
-    if (day != 0) {
-        static constexpr unsigned kDays[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
-        unsigned last = kDays[month - 1] + (month == 2 && leap);
-        if (unsigned(day) > last)
-            throw Error("no such date: " + std::to_string(year) + "-" +
-                        two_digits(unsigned(month)) + " has " + std::to_string(last) + " days");
-        day_number = day_number_from_civil(year, unsigned(month), unsigned(day));
-        if (day_of_year != 0) {
-            int actual = int(day_number - day_number_from_civil(year, 1, 1)) + 1;
-            if (actual != day_of_year)
-                throw Error("at " + character_at(text, day_of_year_at, 3) + ": day of the year " +
-                            std::to_string(day_of_year) + " does not agree with " +
-                            date_text(year, unsigned(month), unsigned(day)) + ", day " +
-                            std::to_string(actual));
-        }
-    } else {
-        if (day_of_year > 365 + leap)
-            throw Error("no such date: " + std::to_string(year) + " has " +
-                        std::to_string(365 + leap) + " days");
-        day_number = day_number_from_civil(year, 1, 1) + day_of_year - 1;
-    }
-    CivilDate civil = civil_from_day_number(day_number);
-    if (weekday != 0) {
-        unsigned actual = date::weekday{date::sys_days{date::days{day_number}}}.iso_encoding();
-        if (int(actual) != weekday) {
-            std::string name(kWeekdays[actual - 1]);
-            name[0] = char(name[0] - 'a' + 'A');
-            throw Error("at " + character_at(text, weekday_at, weekday_end - weekday_at) + ": " +
-                        date_text(civil.year, civil.month, civil.day) + " is a " + name);
-        }
-    }
-    reading.local = LocalTime{date::days{day_number}} + std::chrono::hours{hour} +
-                    std::chrono::minutes{minute} + std::chrono::seconds{second} +
-                    Millis{fraction_ms};
+    if (f.pm >= 0) f.hour = f.hour % 12 + (f.pm ? 12 : 0);
+    reading.local = LocalTime{date::days{resolve_day(f, in.text)}} + std::chrono::hours{f.hour} +
+                    std::chrono::minutes{f.minute} + std::chrono::seconds{f.second} +
+                    Millis{f.fraction_ms};
     return reading;
 }
 

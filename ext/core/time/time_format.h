@@ -69,6 +69,19 @@ class TimeFormat {
         char literal;    // Literal: the byte to match
         char directive;  // the letter after %, for messages
     };
+    // What a directive letter reads: its field, the letter it shares that
+    // field with (%e reads %d's), and how messages name it. One table serves
+    // the format's parse and the reader's messages.
+    struct Directive {
+        char letter;
+        Field field;
+        char key;
+        const char* expected;
+    };
+    static const Directive* directive_for(char letter);
+    static const char* expected_for(char letter);
+    // The combination of directives a format reads must name one moment.
+    void check_combination(const bool (&seen)[128]);
 
     std::vector<Step> steps_;
     bool spreadsheet_ = false;

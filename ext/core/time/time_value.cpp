@@ -11,6 +11,7 @@
 #include "core/text/number_text.h"
 #include "core/time/civil_days.h"
 #include "core/time/common_form.h"
+#include "core/time/second_fraction.h"
 
 namespace almanac {
 namespace {
@@ -102,6 +103,95 @@ TimeValue parse_time_text(std::string_view text) {
     return value;
 }
 
+namespace {
+
+constexpr const char* kExpectedOffset = "expected a zone offset as Z, +HH:MM or -HH:MM at the end";
+
+// The date at fixed places, YYYY-MM-DD, checked against the calendar.
+date::local_days read_date_part(std::string_view text) {
+    auto digit = [&](std::size_t i) { return unsigned(text[i]) - '0'; };
+    if (text.size() < 10 || text[4] != '-' || text[7] != '-') fail(kExpectedForms);
+    for (std::size_t i : {0, 1, 2, 3, 5, 6, 8, 9})
+        if (!is_ascii_digit(text[i])) fail(kExpectedForms);
+    int y = int(digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3));
+    unsigned mo = digit(5) * 10 + digit(6);
+    unsigned d = digit(8) * 10 + digit(9);
+    if (mo < 1 || mo > 12)
+        fail("month " + two_digits(int(mo)) + " does not exist; " + kExpectedForms);
+    if (d < 1 || d > days_in_month(y, mo))
+        fail("no such date: " + std::to_string(y) + "-" + two_digits(int(mo)) + " has " +
+             std::to_string(days_in_month(y, mo)) + " days");
+    return date::local_days{date::days{day_number_from_civil(y, mo, d)}};
+}
+
+// HH:MM[:SS[.fff...]] at pos, advancing it; the precision goes into form.
+Millis read_time_of_day(std::string_view text, std::size_t& pos, TextForm& form) {
+    auto digit = [&](std::size_t i) { return int(unsigned(text[i]) - '0'); };
+    auto digits_at = [&](std::initializer_list<std::size_t> places) {
+        for (std::size_t i : places)
+            if (!is_ascii_digit(text[i])) return false;
+        return true;
+    };
+    if (text.size() < pos + 5 || text[pos + 2] != ':' ||
+        !digits_at({pos, pos + 1, pos + 3, pos + 4})) {
+        fail(kExpectedForms);
+    }
+    int h = digit(pos) * 10 + digit(pos + 1);
+    int mi = digit(pos + 3) * 10 + digit(pos + 4);
+    int s = 0;
+    pos += 5;
+    form.precision = TextForm::Precision::Minutes;
+    std::int64_t fraction_millis = 0;
+    if (pos < text.size() && text[pos] == ':') {
+        ++pos;
+        if (text.size() < pos + 2 || !digits_at({pos, pos + 1})) fail(kExpectedForms);
+        s = digit(pos) * 10 + digit(pos + 1);
+        pos += 2;
+        form.precision = TextForm::Precision::Seconds;
+        if (pos < text.size() && text[pos] == '.') {
+            ++pos;
+            auto fraction = read_second_fraction(text.substr(pos));
+            if (!fraction) fail(kExpectedForms);
+            pos += fraction->digits;
+            fraction_millis = fraction->millis;
+            form.precision = TextForm::Precision::Fraction;
+        }
+    }
+    if (h > 23) fail("hour " + two_digits(h) + " does not exist; hours run 00 to 23");
+    if (mi > 59) fail("minute " + two_digits(mi) + " does not exist; minutes run 00 to 59");
+    if (s > 59) fail("second " + two_digits(s) + " does not exist; seconds run 00 to 59");
+    return hours{h} + minutes{mi} + seconds{s} + Millis{fraction_millis};
+}
+
+// What follows the time of day: nothing, Z, or ±HH:MM[:SS] to the end.
+void read_offset_suffix(std::string_view text, std::size_t pos, TextForm& form) {
+    if (pos == text.size()) return;
+    char c = text[pos];
+    if ((c == 'Z' || c == 'z') && pos + 1 == text.size()) {
+        form.suffix = TextForm::Suffix::Z;
+        return;
+    }
+    if (c != '+' && c != '-') fail(kExpectedForms);
+    ++pos;
+    int oh, om, os = 0;
+    if (!read_digits(text, pos, 2, oh) || pos >= text.size() || text[pos++] != ':' ||
+        !read_digits(text, pos, 2, om)) {
+        fail(kExpectedOffset);
+    }
+    // ±HH:MM:SS is what almanac writes for historic local mean times.
+    if (pos < text.size() && text[pos] == ':') {
+        ++pos;
+        if (!read_digits(text, pos, 2, os)) fail(kExpectedOffset);
+    }
+    if (pos != text.size()) fail(kExpectedOffset);
+    if (oh > 14 || om > 59 || os > 59)
+        fail("zone offset out of range; offsets run -14:00 to +14:00");
+    form.suffix = TextForm::Suffix::Offset;
+    form.offset = std::chrono::seconds{(c == '-' ? -1 : 1) * (oh * 3600 + om * 60 + os)};
+}
+
+}  // namespace
+
 TimeValue parse_time_text_in_full(std::string_view raw) {
     std::string_view text = trim(raw);
     // A date never reads as a number; skip the number test for the common case.
@@ -117,31 +207,8 @@ TimeValue parse_time_text_in_full(std::string_view raw) {
 
     TimeValue value;
     value.representation = Representation::Text;
-    // Fixed positions first: YYYY-MM-DD, then [T ]HH:MM. One length check
-    // covers the digits, which keeps the common case short.
-    auto digit = [&](std::size_t i) { return unsigned(text[i]) - '0'; };
-    auto digits_at = [&](std::initializer_list<std::size_t> places) {
-        for (std::size_t i : places)
-            if (!is_ascii_digit(text[i])) return false;
-        return true;
-    };
-    if (text.size() < 10 || text[4] != '-' || text[7] != '-' ||
-        !digits_at({0, 1, 2, 3, 5, 6, 8, 9})) {
-        fail(kExpectedForms);
-    }
-    int y = int(digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3));
-    int mo = int(digit(5) * 10 + digit(6));
-    int d = int(digit(8) * 10 + digit(9));
+    date::local_days day = read_date_part(text);
     std::size_t pos = 10;
-    if (mo < 1 || mo > 12) fail("month " + two_digits(mo) + " does not exist; " + kExpectedForms);
-    date::year_month_day ymd{date::year{y}, date::month{unsigned(mo)}, date::day{unsigned(d)}};
-    if (!ymd.ok()) {
-        auto last = date::year_month_day_last{date::year{y},
-                                              date::month_day_last{date::month{unsigned(mo)}}};
-        fail("no such date: " + std::to_string(y) + "-" + two_digits(mo) + " has " +
-             std::to_string(unsigned(last.day())) + " days");
-    }
-    date::local_days day{date::days{day_number_from_civil(y, unsigned(mo), unsigned(d))}};
     if (pos == text.size()) {
         value.when = day;
         value.form.precision = TextForm::Precision::Date;
@@ -157,73 +224,11 @@ TimeValue parse_time_text_in_full(std::string_view raw) {
     } else {
         fail(kExpectedForms);
     }
-    int h, mi, s = 0;
-    if (text.size() < pos + 5 || text[pos + 2] != ':' ||
-        !digits_at({pos, pos + 1, pos + 3, pos + 4})) {
-        fail(kExpectedForms);
-    }
-    h = int(digit(pos) * 10 + digit(pos + 1));
-    mi = int(digit(pos + 3) * 10 + digit(pos + 4));
-    pos += 5;
-    value.form.precision = TextForm::Precision::Minutes;
-    std::int64_t fraction_millis = 0;
-    if (pos < text.size() && text[pos] == ':') {
-        ++pos;
-        if (text.size() < pos + 2 || !digits_at({pos, pos + 1})) fail(kExpectedForms);
-        s = int(digit(pos) * 10 + digit(pos + 1));
-        pos += 2;
-        value.form.precision = TextForm::Precision::Seconds;
-        if (pos < text.size() && text[pos] == '.') {
-            ++pos;
-            std::size_t start = pos;
-            double scale = 0.1, fraction = 0;
-            while (pos < text.size() && is_ascii_digit(text[pos])) {
-                fraction += (text[pos] - '0') * scale;
-                scale /= 10;
-                ++pos;
-            }
-            if (pos == start) fail(kExpectedForms);
-            fraction_millis = static_cast<std::int64_t>(fraction * 1000.0 + 0.5);
-            value.form.precision = TextForm::Precision::Fraction;
-        }
-    }
-    if (h > 23) fail("hour " + two_digits(h) + " does not exist; hours run 00 to 23");
-    if (mi > 59) fail("minute " + two_digits(mi) + " does not exist; minutes run 00 to 59");
-    if (s > 59) fail("second " + two_digits(s) + " does not exist; seconds run 00 to 59");
-
+    Millis time_of_day = read_time_of_day(text, pos, value.form);
     while (pos < text.size() && is_ascii_space(text[pos])) ++pos;
-    std::chrono::seconds offset{0};
-    if (pos < text.size()) {
-        char c = text[pos];
-        if ((c == 'Z' || c == 'z') && pos + 1 == text.size()) {
-            value.form.suffix = TextForm::Suffix::Z;
-        } else if (c == '+' || c == '-') {
-            ++pos;
-            int oh, om, os = 0;
-            if (!read_digits(text, pos, 2, oh) || pos >= text.size() || text[pos++] != ':' ||
-                !read_digits(text, pos, 2, om)) {
-                fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
-            }
-            // ±HH:MM:SS is what almanac writes for historic local mean times.
-            if (pos < text.size() && text[pos] == ':') {
-                ++pos;
-                if (!read_digits(text, pos, 2, os))
-                    fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
-            }
-            if (pos != text.size())
-                fail("expected a zone offset as Z, +HH:MM or -HH:MM at the end");
-            if (oh > 14 || om > 59 || os > 59)
-                fail("zone offset out of range; offsets run -14:00 to +14:00");
-            offset = std::chrono::seconds{(c == '-' ? -1 : 1) * (oh * 3600 + om * 60 + os)};
-            value.form.suffix = TextForm::Suffix::Offset;
-            value.form.offset = offset;
-        } else {
-            fail(kExpectedForms);
-        }
-    }
-    auto local = LocalTime{day.time_since_epoch()} + hours{h} + minutes{mi} + seconds{s} +
-                 Millis{fraction_millis};
-    Instant instant = Instant{local.time_since_epoch()} - offset;
+    read_offset_suffix(text, pos, value.form);
+    Instant instant =
+        instant_at_offset(LocalTime{day.time_since_epoch()} + time_of_day, value.form.offset);
     check_range(instant, [] { return std::string("the time"); });
     value.when = instant;
     return value;

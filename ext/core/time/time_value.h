@@ -72,6 +72,12 @@ TimeValue parse_time_text_in_full(std::string_view text);
 TimeValue parse_time_real(double value);
 TimeValue parse_time_integer(std::int64_t value);
 
+// The instant a wall-clock reading names when the clock was `offset` ahead
+// of UTC: the one local-minus-offset step of every reader.
+inline Instant instant_at_offset(LocalTime reading, std::chrono::seconds offset) {
+    return Instant{reading.time_since_epoch()} - offset;
+}
+
 // Limits of the supported calendar, years 0000 through 9999.
 Instant earliest_supported_instant();
 Instant latest_supported_instant();  // exclusive

@@ -121,10 +121,12 @@ TEST_CASE("the seasonal Theil-Sen slope pairs points of one season only") {
     // Hirsch, Slack & Smith (1982); by hand: season 1 slopes 2, 2, 2; season 2
     // slopes 1 → median of {1, 2, 2, 2} is 2. Across seasons the jump of 100
     // between them would enter the two-argument slope.
-    std::vector<SeasonalPoint> points{{1, 1, 1}, {2, 3, 1}, {3, 5, 1}, {1, 101, 2}, {2, 102, 2}};
+    const SeasonKey one = numbered_season(1), two = numbered_season(2);
+    std::vector<SeasonalPoint> points{
+        {1, 1, one}, {2, 3, one}, {3, 5, one}, {1, 101, two}, {2, 102, two}};
     CHECK(*seasonal_theil_sen_slope(points) == 2.0);
     // No season holds two distinct x: no slope.
-    CHECK_FALSE(seasonal_theil_sen_slope({{1, 1, 1}, {2, 3, 2}}));
+    CHECK_FALSE(seasonal_theil_sen_slope({{1, 1, one}, {2, 3, two}}));
 }
 
 TEST_CASE("the seasonal slope equals the brute-force median of within-season slopes") {
@@ -135,12 +137,13 @@ TEST_CASE("the seasonal slope equals the brute-force median of within-season slo
         std::vector<SeasonalPoint> points;
         for (int i = 0; i < n; ++i)
             points.push_back(
-                {double(i / 4), 0.3 * i + noise(random) + 10 * (i % 4), double(i % 4)});
+                {double(i / 4), 0.3 * i + noise(random) + 10 * (i % 4), numbered_season(i % 4)});
         // Oracle: the definition, spelled out over every within-season pair.
         std::vector<double> slopes;
         for (const auto& a : points)
             for (const auto& b : points)
-                if (a.season == b.season && a.x > b.x) slopes.push_back((a.y - b.y) / (a.x - b.x));
+                if (same_season(a.season, b.season) && a.x > b.x)
+                    slopes.push_back((a.y - b.y) / (a.x - b.x));
         std::sort(slopes.begin(), slopes.end());
         const std::size_t m = slopes.size();
         const double expected = m % 2 ? slopes[m / 2] : (slopes[m / 2 - 1] + slopes[m / 2]) / 2.0;

@@ -26,3 +26,27 @@ TEST_CASE("civil day numbers agree with the date library on every day of years 0
     }
     CHECK(compared == 3652425);  // 10,000 Gregorian years of 365.2425 days
 }
+
+TEST_CASE("month lengths and leap years are the civil-day algorithms' own answers") {
+    // Oracle: the date library's year_month_day_last and year::is_leap, and the
+    // day numbers of consecutive first days of the month.
+    long months = 0;
+    for (int year = 0; year <= 9999; ++year) {
+        CHECK(is_leap_year(year) == date::year{year}.is_leap());
+        for (unsigned month = 1; month <= 12; ++month) {
+            const auto next = month == 12 ? day_number_from_civil(year + 1, 1, 1)
+                                          : day_number_from_civil(year, month + 1, 1);
+            const auto length = next - day_number_from_civil(year, month, 1);
+            const date::year_month_day_last last{date::year{year},
+                                                 date::month_day_last{date::month{month}}};
+            if (std::int32_t(days_in_month(year, month)) != length ||
+                days_in_month(year, month) != unsigned(last.day()))
+                FAIL("days_in_month(" << year << ", " << month << ")");
+            ++months;
+        }
+        if (std::int32_t(days_in_year(year)) !=
+            day_number_from_civil(year + 1, 1, 1) - day_number_from_civil(year, 1, 1))
+            FAIL("days_in_year(" << year << ")");
+    }
+    CHECK(months == 120000);
+}

@@ -122,7 +122,11 @@ TEST_CASE("period starts and serials by day number equal the general path's") {
                            "quarter starting april",
                            "year",
                            "3 months from 2025-11-15",
-                           "year starting july"};
+                           "year starting july",
+                           "retail week ending saturday nearest end of january",
+                           "retail month 5-4-4 ending last sunday of march",
+                           "retail quarter ending friday nearest end of december",
+                           "retail year ending last saturday of january"};
     std::mt19937_64 random(7);
     std::uniform_int_distribution<std::int64_t> any_day(-719528,
                                                         2932896);  // 0000-01-01..9999-12-31
@@ -164,8 +168,14 @@ TEST_CASE("a zoned period's serial by one offset look-up equals period_of's") {
     const char* zones[] = {"America/Juneau",      "America/Sitka",    "Pacific/Apia",
                            "Australia/Lord_Howe", "America/Santiago", "America/Havana",
                            "America/Denver",      "Asia/Kolkata"};
-    const char* specs[] = {"day",   "week", "month", "half-month", "quarter starting april",
-                           "2 days"};
+    const char* specs[] = {"day",
+                           "week",
+                           "month",
+                           "half-month",
+                           "quarter starting april",
+                           "2 days",
+                           "retail month ending saturday nearest end of january",
+                           "retail week ending last sunday of october"};
     std::mt19937_64 random(11);
     // 1860-2040 by random instants, plus every hour around each change.
     std::uniform_int_distribution<std::int64_t> any_second(-3471292800LL, 2209075200LL);

@@ -97,3 +97,48 @@ TEST_CASE("only units of fixed length have one") {
     CHECK_THROWS_WITH(parse_period_spec("month").fixed_length(),
                       Catch::Contains("no fixed length"));
 }
+
+TEST_CASE("retail specs name the unit, the month pattern and the anchor") {
+    // Expected values: the README's retail grammar (the contract).
+    auto spec = parse_period_spec("  Retail   Months 4-5-4 ending SAT nearest   end of jan ");
+    CHECK(spec.unit == PeriodUnit::RetailMonth);
+    CHECK(spec.retail_pattern.weeks == std::array<unsigned, 3>{{4, 5, 4}});
+    CHECK(spec.retail_anchor == RetailAnchor{date::Saturday, date::January, true});
+    CHECK(spec.describe() == "retail month 4-5-4 ending saturday nearest end of january");
+    auto year = parse_period_spec("retail year ending last sunday of march");
+    CHECK(year.unit == PeriodUnit::RetailYear);
+    CHECK(year.retail_anchor == RetailAnchor{date::Sunday, date::March, false});
+    CHECK(year.describe() == "retail year ending last sunday of march");
+    CHECK(parse_period_spec("retail month ending last sunday of march").retail_pattern.weeks ==
+          std::array<unsigned, 3>{{4, 4, 5}});
+    CHECK(parse_period_spec("retail weeks ending friday nearest end of december").unit ==
+          PeriodUnit::RetailWeek);
+    CHECK(parse_period_spec("retail quarter ending last friday of june").unit ==
+          PeriodUnit::RetailQuarter);
+}
+
+TEST_CASE("retail specs refuse what the grammar does not allow, saying what was expected") {
+    auto refused = [](const char* text, const char* words) {
+        INFO(text);
+        try {
+            parse_period_spec(text);
+            FAIL("accepted");
+        } catch (const Error& error) {
+            CHECK_THAT(error.what(), Catch::Contains(words));
+        }
+    };
+    refused("2 retail weeks ending last saturday of january", "takes no count");
+    refused("retail year", "needs an anchor");
+    refused("retail month 4-4-4 ending last saturday of january", "expected 4-4-5, 4-5-4 or 5-4-4");
+    refused("retail week 4-4-5 ending last saturday of january", "retail month only");
+    refused("retail year starting february", "takes no 'starting'");
+    refused("retail year ending last saturday of january from 2025-01-26", "takes no 'from'");
+    refused("retail fortnight ending last saturday of january", "unknown retail unit");
+    refused("retail year ending final saturday of january", "is not a weekday");
+    refused("retail year ending last saturday in january", "the anchor has 'of'");
+    refused("retail year ending saturday closest end of january", "the anchor has 'nearest'");
+    refused("retail year ending saturday nearest", "the anchor ends before 'end'");
+    refused("retail year ending last saturday of smarch", "is not a month");
+    refused("retail year ending last saturday of january please", "unexpected 'please'");
+    refused("retail", "needs a unit");
+}
