@@ -87,9 +87,18 @@ report() {
 html_table() {
   local title=$1 note=$2 file=$3
   shift 3
-  printf '<h2>%s</h2>\n<p class="note">%s</p>\n<div class="wide"><table>\n' "$title" "$note"
-  report "$file" html "$@"
-  printf '</table></div>\n'
+  printf '<h2>%s</h2>\n<p class="note">%s</p>\n' "$title" "$note"
+  report "$file" html "$@" | table_and_range
+}
+
+# table_and_range: a report's HTML rows as a table, and the note lines under
+# it (the range it used, what it left out) as a paragraph after the table.
+table_and_range() {
+  awk 'BEGIN { print "<div class=\"wide\"><table>" }
+       /^<TR><TH>note<\/TH>/ { range = 1; next }
+       !range { print; next }
+       /^<TR><TD>/ { sub(/^<TR><TD>/, ""); sub(/<\/TD>$/, ""); said = said (said ? "; " : "") $0 }
+       END { print "</table></div>"; if (said) print "<p class=\"note\">" said "</p>" }'
 }
 
 # summary_table UNIT NOUN: the latest period of UNIT against the one before and
@@ -101,7 +110,7 @@ summary_table() {
     printf ' trading_days, amount, per_trading_day, against, base_period, base_span, base_trading_days,'
     printf ' base_amount, base_per_trading_day, change_pct, change_per_day_pct);\n'
     # The report's last line says which range it used; the summary states it apart.
-    report sql/compare.sql insert unit "$unit" by_segment "$by_segment" | grep -v "^INSERT INTO compared VALUES('range "
+    report sql/compare.sql insert unit "$unit" by_segment "$by_segment" | grep -v "^INSERT INTO compared VALUES('\(range \|left out\|[0-9]* rows\? without\)"
     printf "SELECT '<div class=\"wide\"><table class=\"summary\"><caption>%s ' || p.period || ' <span class=\"span\">' || p.span || '</span>'" "$noun"
     printf " || CASE WHEN p.complete THEN '' ELSE ' <span class=\"partial\">partial: ' || p.days_covered || ' of ' || p.days_in_period || ' days</span>' END"
     printf " || '</caption><thead><tr><th rowspan=\"2\">Shop</th><th rowspan=\"2\">Amount</th><th rowspan=\"2\">Trading days</th>"
@@ -139,15 +148,16 @@ section "Weekday profile (sql/weekday_profile.sql)"
 report sql/weekday_profile.sql column
 
 # Seasons and unusual days (sql/seasonal_profile.sql, sql/anomalies.sql).
-section "Seasonal profile: weekday and month-of-year index per item, 100 = an ordinary day (sql/seasonal_profile.sql)"
+section "Seasonal profile: the season part per weekday and month, in percent of the mean day and week, the noise beside it (sql/seasonal_profile.sql)"
 report sql/seasonal_profile.sql column
 anomalies_list=$(report sql/anomalies.sql list)   # day|item|amount|typical|score|kind, for the charts too
 recent_start=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "${local_view[@]}" "$db" \
   "SELECT period_shift(max(period_floor(ts, 'week', '$zone')), -12, 'week') FROM sales")
-section "Unusual days of the last 13 weeks, against the same weekday of the 8 weeks either side (sql/anomalies.sql)"
+section "Unusual days of the last 13 weeks, the noise part against its neighbours', and the closures (sql/anomalies.sql)"
 report sql/anomalies.sql column start "'$recent_start'"
-printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6 { n[$6]++ } END {
-  printf "Over the whole range: %d spike, %d drop, %d closed (item-days)\n", n["spike"], n["drop"], n["closed"] }'
+printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6 { n[$6]++ } NF == 4 { c++ } END {
+  printf "Over the whole range: %d spike, %d drop, %d closed (item-days); %d closures of a shop or of the business\n",
+         n["spike"], n["drop"], n["closed"], c }'
 
 # A table with a segment column (the demo's shops) is broken down by it. The
 # module is loaded for this look too: sales may be a view that calls almanac's
@@ -164,6 +174,7 @@ items=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "$db" \
   "SELECT item FROM sales GROUP BY item ORDER BY exact_sum(amount) DESC, item LIMIT 12")
 declare -a chart_files=()
 declare -a chart_items=()
+declare -a parts_files=()
 while IFS= read -r item; do
   [ -n "$item" ] || continue
   slug=$(printf '%s' "$item" | tr '[:upper:]' '[:lower:]' | tr -c 'a-z0-9' '-' | sed 's/-*$//')
@@ -174,6 +185,10 @@ while IFS= read -r item; do
     height 300 marks "'$marks'" > "$out/charts/$slug.svg"
   chart_files+=("$out/charts/$slug.svg")
   chart_items+=("$item")
+  # Its trend, season and noise (demo/parts_chart.sql), for the HTML report's section.
+  report demo/parts_chart.sql list item "$item" title "$item: amount per week, trend, trend + season" \
+    > "$out/charts/$slug-parts.svg"
+  parts_files+=("$out/charts/$slug-parts.svg")
 done <<< "$items"
 
 last_day=$(sqlite3 -batch -init /dev/null -cmd ".load build/almanac" "${local_view[@]}" "$db" \
@@ -239,13 +254,20 @@ HEAD
   inline_svg "$out/weekly_bars.svg"
   printf '</div>\n'
   html_table "Trend per item" \
-    "Slope of the weekly amount per week; verdict rising/falling when |slope| &gt; 2 &times; its standard error (a rule of thumb)." \
+    "Weekly amounts, whole ISO weeks. The verdict is the seasonal Mann&ndash;Kendall test, each week against the same ISO week of the other years (the plain test with less than two whole years): rising or falling when p &lt; 0.05, in the direction of the Sen slope; otherwise no clear trend. &ldquo;strongly seasonal&rdquo; is added when the season strength is at least 0.9. Amounts are compared to the cent." \
     sql/trend.sql
-  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n<div class="wide"><table>\n' \
-    "A day's amount against the median of the same weekday over the 8 weeks before and after (the day excluded); listed when the modified z-score 0.6745 &times; (amount &minus; typical) / MAD is beyond &plusmn;3.5. Each item's chart below marks its unusual days." \
-    "$(printf '%s\n' "$anomalies_list" | grep -c '|') item-days: show the list"
-  report sql/anomalies.sql html
-  printf '</table></div>\n</details>\n'
+  printf '<h2>Trend, season and noise</h2>\n<p class="note">%s</p>\n' \
+    "Each item's weekly amounts split by STL (period_decomposition, cycle year): the amounts thin, the trend thick in the same colour, trend + season in the second colour. What the amounts do beyond trend + season is the noise; the noise ranking below measures it in the daily amounts."
+  for i in "${!parts_files[@]}"; do
+    printf '<h3>%s</h3>\n<div class="chart">\n' "$(printf '%s' "${chart_items[$i]}" | escape_html)"
+    inline_svg "${parts_files[$i]}"
+    printf '</div>\n'
+  done
+  printf '<h2>Unusual days</h2>\n<p>%s</p>\n<details><summary>%s</summary>\n' \
+    "A day's noise part (its amount minus trend + season, period_decomposition with cycle week) against the noise of the 56 days before and after (the day and closed days excluded); listed when the modified z-score 0.6745 &times; (noise &minus; median) / MAD is beyond &plusmn;3.5. After the days, the closures: runs of days on which a shop, or the whole business, sold nothing, with their first and last day. Each item's chart below marks its unusual days." \
+    "$(printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 6' | wc -l) item-days and $(printf '%s\n' "$anomalies_list" | awk -F'|' 'NF == 4' | wc -l) closures: show the list"
+  report sql/anomalies.sql html | table_and_range
+  printf '</details>\n'
   printf '<h2>The three largest items, last 13 weeks: raw days and their 7-day moving mean</h2>\n<div class="chart">\n'
   inline_svg "$out/chart_top_items.svg"
   printf '</div>\n'
@@ -259,12 +281,12 @@ HEAD
     "Every ISO week shown; complete = 0 marks a week the data covers only in part." sql/totals.sql last 13
   html_table "Monthly totals" "Means are empty where a month has no sales." sql/totals.sql unit month
   html_table "Fiscal quarters (fiscal year from October)" "" sql/totals.sql unit "quarter starting october"
-  html_table "Noise ranking" "Spread of the weeks around each item's trend line, relative to its mean week; noisiest first." \
+  html_table "Noise ranking" "The spread of each item's daily noise part (what neither its level nor its weekday explains; closed days left out) relative to its mean day, noisiest first; beside it the trend and season strengths of its weekly amounts (0 to 1: how much of the swings is trend, how much season)." \
     sql/noise_ranking.sql
   html_table "Weekday profile" "Mean and median of a day with sales; index 100 = the average such day." \
     sql/weekday_profile.sql
   html_table "Seasonal profile" \
-    "Mean day of each weekday and each month over the item's mean day, in percent: 100 is an ordinary day, 0 a period without sales." \
+    "The season part of each weekday (daily amounts, cycle week) and month (weekly amounts, cycle year), in percent of the item's mean day and week: how far above or below its own level the item typically is then. A peak is named only when it stands out of the noise beside it." \
     sql/seasonal_profile.sql
   if [ -z "$own_db" ]; then
     printf '<p class="note">Hollow Oak Bakehouse is invented: three shops (Millrace, Quarry Hill, Lantern Square), generated by demo/generate.py.</p>\n'

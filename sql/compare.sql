@@ -218,5 +218,5 @@ SELECT c.segment, c.item, period_label(c.start, coalesce(@unit, 'week'), s.zone)
        round(100.0 * (c.amount / nullif(c.trading_days, 0) - c.base_amount / nullif(c.base_trading_days, 0))
              / nullif(c.base_amount / nullif(c.base_trading_days, 0), 0), 1) AS change_per_day_pct
 FROM compared AS c, settings AS s ORDER BY c.segment <> 'all segments', c.segment, c.item, c.against <> 'previous';
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

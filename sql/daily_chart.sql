@@ -89,16 +89,11 @@ settings AS (
 ),
 -- 1,092 days of three items do not fit in 960 pixels: by default the chart
 -- shows the last 13 weeks, where a day is still a few pixels wide.
-data_range AS (
-  SELECT min(d.period_start) AS first, coalesce(@stop, max(d.period_end)) AS stop
-  FROM temp.almanac_chart_days AS d
-  WHERE d.segment IS NULL
-),
 range AS (
   SELECT coalesce(@start, CASE WHEN coalesce(@weeks, 13) = 0 THEN first
-                               ELSE max(first, period_shift(stop, -coalesce(@weeks, 13), 'week')) END) AS start,
-         stop
-  FROM data_range
+                               ELSE max(first, period_shift(stop, -coalesce(@weeks, 13), 'week')) END) AS start, stop
+  FROM (SELECT json_extract(r, '$.start') AS first, coalesce(@stop, json_extract(r, '$.stop')) AS stop
+        FROM temp.almanac_range)
 ),
 -- The series a day counts for: its item; with @by_segment, 'all segments' and its own segment.
 daily_sales AS (
@@ -126,8 +121,7 @@ daily AS (
 SELECT item, serial, day, 'raw' AS layer, amount AS value, 0 AS step FROM daily
 UNION ALL
 SELECT item, serial, day, 'smooth', moving_mean(amount, 7) OVER (PARTITION BY item ORDER BY serial
-                                    RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING), 0
-FROM daily
+                                    RANGE BETWEEN 3 PRECEDING AND 3 FOLLOWING), 0 FROM daily
 UNION ALL
 -- A marked day: 0, the day's amount, then no value, which ends the stroke.
 SELECT 'unusual day', d.serial, d.day, 'smooth', CASE s.step WHEN 1 THEN 0 WHEN 2 THEN d.amount END, s.step

@@ -1,8 +1,38 @@
 -- SPDX-License-Identifier: MIT
--- almanac report: the noise ranking. Per item, how far its weekly amounts
--- scatter around their own least-squares trend line, relative to the item's
--- mean week: the noisiest items first. A noisy item needs more weeks before
--- a change in it means anything; a quiet one shows a change at once.
+-- almanac report: the noise ranking. Per item, how much of its daily amounts
+-- neither its weekly rhythm nor its slow level explains, relative to its
+-- mean day: the noisiest items first. A noisy item needs more days before a
+-- change in it means anything; a quiet one shows a change at once.
+--
+-- How noise is measured: each item's daily amounts (every whole day of the
+-- range, a day without sales as 0) are split by period_decomposition with
+-- cycle week (STL) into trend + season + noise. With hundreds of weeks the
+-- fit is well-conditioned and robust: the trend part follows the slow level,
+-- the yearly season included, the season part is the weekday rhythm, and the
+-- noise part is what is left. noise_pct = 100 * stddev of the noise part /
+-- mean day. A seasonal item is not noisy because it has a season: its
+-- season sits in the trend and season parts, not in the noise. Days on
+-- which the segment sold nothing at all (closures, listed by
+-- sql/anomalies.sql) are left out of the spread: five holidays a year
+-- would otherwise make up most of a steady item's "noise". The fit is the
+-- non-robust one ({"robust": false}): the robust fit sets its scale from
+-- the median residual, which is 0 for an item sold on fewer than half of
+-- the days (an autumn item), and then leaves such an item no noise at all;
+-- and it puts a promotion wholly into the noise, where the non-robust fit
+-- spreads a little of it over the neighbouring days.
+--
+-- Beside it, whether an item's swings over the year are season or noise:
+-- the strengths of Wang, Smith & Hyndman (2006) from the weekly amounts
+-- decomposed with cycle year,
+--     trend_strength  = max(0, 1 - var(noise) / var(trend + noise))
+--     season_strength = max(0, 1 - var(noise) / var(season + noise))
+-- (sample variances; 0 = none, near 1 = the part dominates the noise). They
+-- need at least two whole years of whole ISO weeks (104): with less they
+-- are NULL, because a yearly season cannot be told from a trend in one year.
+-- With few years, read them with care: each week of the year then has only
+-- a few values, and the season part takes up part of the noise too (on
+-- three years an item without a season shows a season strength near 0.7;
+-- sql/trend.sql calls an item strongly seasonal from 0.9 on).
 --
 -- Reads a table or view named sales:
 --   sales(ts, item, qty, amount [, segment])
@@ -37,25 +67,29 @@
 --                 'all segments' ('(none)' for rows whose segment is NULL)   default 0
 --   @item         unset or '*': every item; a name: that item's row only (a name
 --                 that matches no item stops the report naming the closest item)
---   @day_start    'HH:MM': weeks of business days that begin at that hour
---   Whole periods only: weeks are ISO weeks (Monday start), and only those
---   wholly inside the range are fitted (covered_start = period_start and
---   covered_end = period_end in period_totals): a week cut by either end
---   would pull the line down there. The range is chosen as in sql/trend.sql
---   (stray and future rows left out and named on the last line of the
---   output). @unit and @last make no sense here and are refused.
+--   @day_start    'HH:MM': business days (and their weeks) that begin at that hour
+--   Whole periods only: only the whole days and whole ISO weeks of the range
+--   are decomposed (period_decomposition lists no partial period): a period
+--   cut by either end would look like a drop. The range is chosen as in
+--   sql/trend.sql (stray and future rows left out and named on the last line
+--   of the output); within it, each item's days run from the first to the
+--   last day with sales of its segment. @unit and @last make no sense here
+--   and are refused.
 --
 -- Columns, one row per item, noisiest first:
 --   rank             1 = noisiest
 --   item
---   weeks            weeks in the fit (all whole weeks of the range, a week without sales as 0)
---   mean_per_week    mean weekly amount over those weeks (the same number as in sql/trend.sql)
---   resid_sd         spread of the weeks around the item's trend line, resid_sd(total, week serial)
---   noise_pct        100 * resid_sd / mean_per_week: the typical miss of the line, in percent of a mean week
---   sd_pct           100 * stddev_samp / mean_per_week: the same without taking the trend out
---   Seasons count as scatter here (a line has no seasons), so a seasonal item
---   ranks as noisy; compare a season with the same weeks of last year instead
---   (sql/compare.sql).
+--   days             whole days decomposed (a day without sales as 0)
+--   mean_per_day     mean daily amount over those days
+--   noise_sd         stddev_samp of the noise part of the days (cycle week)
+--   noise_pct        100 * noise_sd / mean_per_day: the typical unexplained
+--                    part of a day, in percent of a mean day
+--   trend_strength   of the weekly amounts with cycle year (see above; NULL
+--                    with less than two whole years), 2 places
+--   season_strength  the same for the yearly season: near 1, the item's swings
+--                    over the year are its season, not noise
+--   An item whose days hold fewer than two whole weeks has NULL parts and
+--   ranks last.
 --
 -- Run:
 --   sqlite3 -cmd '.load build/almanac' -cmd '.parameter set @zone America/Denver' \
@@ -63,43 +97,76 @@
 DROP TABLE IF EXISTS temp.almanac_range;
 CREATE TEMP TABLE almanac_range AS SELECT
   data_range(ts, amount, 'day' || coalesce(' from 2000-01-01 ' || @day_start, ''), coalesce(@zone, 'UTC')) AS r FROM sales;
+DROP TABLE IF EXISTS temp.almanac_noise_settings;
+CREATE TEMP TABLE almanac_noise_settings AS
+SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
+       'day' || coalesce(' from 2000-01-01 ' || @day_start, '') AS day,
+       coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
+FROM temp.almanac_range
+-- One look at sales as period_totals reads it, so that money written as text
+-- stops the report naming sales itself (the decomposition reads a copy).
+WHERE (SELECT count(*) FROM period_totals('sales', 'year', coalesce(@zone, 'UTC'))) >= 0
+  AND refuse_parameter('@unit', @unit, 'noise_ranking.sql decomposes whole days and weeks; it takes no @unit') IS NULL
+  AND refuse_parameter('@last', @last, 'noise_ranking.sql decomposes every whole day of the range') IS NULL;
+-- The rows of the range for period_decomposition, each sale's ts moved to
+-- the start of its (business) day: the decomposition's days are calendar
+-- days, and a business day that begins at @day_start is the calendar day of
+-- its start.
+DROP TABLE IF EXISTS temp.almanac_parts_sales;
+CREATE TEMP TABLE almanac_parts_sales AS
+SELECT s.* FROM sales AS s, temp.almanac_noise_settings AS c, temp.almanac_range AS g
+WHERE period_label(s.ts, c.day, c.zone) BETWEEN coalesce(c.start, json_extract(g.r, '$.start'))
+      AND date(coalesce(c.stop, json_extract(g.r, '$.stop')), '-1 day');
+UPDATE temp.almanac_parts_sales SET ts = period_floor(ts, 'day from 2000-01-01 ' || @day_start, coalesce(@zone, 'UTC'))
+WHERE @day_start IS NOT NULL;
 DROP TABLE IF EXISTS temp.almanac_noise_rows;
 CREATE TEMP TABLE almanac_noise_rows AS
 WITH
-settings AS (
-  SELECT coalesce(@zone, 'UTC') AS zone, coalesce(@by_segment, 0) AS by_segment,
-         'week' || coalesce(' from 2000-01-03 ' || @day_start, '') AS spec,
-         coalesce(@start, json_extract(r, '$.start_if_cut')) AS start, coalesce(@stop, json_extract(r, '$.stop_if_cut')) AS stop
-  FROM temp.almanac_range
-  WHERE refuse_parameter('@unit', @unit, 'noise_ranking.sql fits whole ISO weeks; it takes no @unit') IS NULL
-    AND refuse_parameter('@last', @last, 'noise_ranking.sql fits every whole week of the range') IS NULL
+settings AS (SELECT * FROM temp.almanac_noise_settings),
+-- Each segment is decomposed on its own rows.
+daily AS MATERIALIZED (
+  SELECT CASE WHEN d.all_segments THEN 'all segments' ELSE coalesce(d.segment, '(none)') END AS segment,
+         d.item, d.serial, d.amount, d.noise
+  FROM settings, period_decomposition('almanac_parts_sales', 'day', 'week', settings.zone, '{"robust": false}') AS d
+  WHERE d.all_segments = 1 OR settings.by_segment = 1
 ),
--- Weekly totals, whole weeks only, an item's week without sales as 0 (period_totals' zero fill);
--- each segment is fitted on its own rows.
+-- A day on which the segment sold nothing at all is a closure, not noise
+-- (sql/anomalies.sql lists them): it is left out of the noise's spread.
+open_days AS (SELECT segment, serial FROM daily GROUP BY segment, serial HAVING sum(amount <> 0) > 0),
 weekly AS MATERIALIZED (
-  SELECT CASE WHEN t.all_segments THEN 'all segments' ELSE coalesce(t.segment, '(none)') END AS segment,
-         t.item, t.serial, t.sales, t.amount AS total
-  FROM settings, period_totals('sales', settings.spec, settings.zone, settings.start, settings.stop) AS t
-  WHERE (t.all_segments = 1 OR settings.by_segment = 1)
-    AND t.covered_start = t.period_start AND t.covered_end = t.period_end
+  SELECT CASE WHEN d.all_segments THEN 'all segments' ELSE coalesce(d.segment, '(none)') END AS segment,
+         d.item, d.trend, d.season, d.noise
+  FROM settings, period_decomposition('almanac_parts_sales', 'week', 'year', settings.zone) AS d
+  WHERE d.all_segments = 1 OR settings.by_segment = 1
 ),
-chosen AS (SELECT known_name(item, @item, 'item') AS item FROM weekly WHERE segment = 'all segments'),
-fit AS (
-  SELECT segment, w.item, count(*) AS weeks, avg(total) AS mean,
-         resid_sd(total, serial) AS resid_sd, stddev_samp(total) AS sd
-  FROM weekly AS w, chosen
-  WHERE chosen.item IS NULL OR chosen.item = '*' OR w.item = chosen.item GROUP BY segment, w.item
-  HAVING sum(w.sales) > 0
+chosen AS (SELECT known_name(item, @item, 'item') AS item FROM daily WHERE segment = 'all segments'),
+noise AS (
+  SELECT segment, d.item, count(*) AS days, avg(amount) AS mean,
+         stddev_samp(CASE WHEN o.serial IS NOT NULL THEN noise END) AS noise_sd
+  FROM daily AS d LEFT JOIN open_days AS o USING (segment, serial), chosen
+  WHERE chosen.item IS NULL OR chosen.item = '*' OR d.item = chosen.item GROUP BY segment, d.item
+  HAVING sum(amount <> 0) > 0
+),
+-- Wang, Smith & Hyndman (2006): the share of the detrended (deseasonalised)
+-- variance that is not noise. NULL parts (fewer than two whole years) give NULL.
+strength AS (
+  SELECT segment, item,
+         max(0, 1 - power(stddev_samp(noise), 2) / power(stddev_samp(trend + noise), 2)) AS trend_strength,
+         max(0, 1 - power(stddev_samp(noise), 2) / power(stddev_samp(season + noise), 2)) AS season_strength
+  FROM weekly GROUP BY segment, item HAVING count(noise) > 0
 )
-SELECT segment, row_number() OVER (PARTITION BY segment ORDER BY resid_sd / mean DESC, item) AS rank, item, weeks,
-       round(mean, 2) AS mean_per_week, round(resid_sd, 2) AS resid_sd,
-       round(100.0 * resid_sd / mean, 1) AS noise_pct, round(100.0 * sd / mean, 1) AS sd_pct
-FROM fit
-WHERE mean > 0;
+SELECT n.segment, row_number() OVER (PARTITION BY n.segment ORDER BY n.noise_sd / n.mean DESC NULLS LAST, n.item) AS rank,
+       n.item, n.days, round(n.mean, 2) AS mean_per_day, round(n.noise_sd, 2) AS noise_sd,
+       round(100.0 * n.noise_sd / n.mean, 1) AS noise_pct,
+       round(s.trend_strength, 2) AS trend_strength, round(s.season_strength, 2) AS season_strength
+FROM noise AS n LEFT JOIN strength AS s USING (segment, item)
+WHERE n.mean > 0;
+DROP TABLE temp.almanac_parts_sales;
+DROP TABLE temp.almanac_noise_settings;
 -- Without @by_segment the columns are those of the report before segments.
-SELECT rank, item, weeks, mean_per_week, resid_sd, noise_pct, sd_pct
+SELECT rank, item, days, mean_per_day, noise_sd, noise_pct, trend_strength, season_strength
 FROM temp.almanac_noise_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY rank;
 SELECT * FROM temp.almanac_noise_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, rank;
 DROP TABLE temp.almanac_noise_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

@@ -54,8 +54,7 @@ settings AS (
                coalesce(@unit, 'week') || coalesce(' from ' || period_floor('2000-01-03', coalesce(@unit, 'week'))
                                                    || ' ' || @day_start, '') AS spec,
                coalesce(@stop, json_extract(r, '$.stop')) AS stop,
-               CASE WHEN json_extract(r, '$.left_out') > 0 THEN ' (' || json_extract(r, '$.note') || ')' ELSE '' END
-                 AS left_out
+               iif(json_extract(r, '$.left_out') > 0, ' (' || json_extract(r, '$.note') || ')', '') AS left_out
         FROM temp.almanac_range
         WHERE refuse_parameter('@start', @start, 'period_bars.sql draws the last @last periods; set @last') IS NULL)
 ),

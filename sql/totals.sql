@@ -96,12 +96,14 @@ shape AS (
   FROM (SELECT *, period_floor('2000-01-03 12:34:56', spec, zone) AS probe FROM settings)
 ),
 totals AS MATERIALIZED (
-  SELECT t.*, period_serial(t.period_start, shape.spec, shape.zone) AS period
+  SELECT t.all_segments, t.segment, t.item, t.period_start, t.covered_start, t.covered_end, t.sales, t.qty, t.amount,
+         t.serial AS day, period_serial(t.period_start, shape.spec, shape.zone) AS period
   FROM shape, period_totals(CASE WHEN shape.whole_days THEN 'sales' END, shape.day, shape.zone,
                             shape.start, shape.stop) AS t
   WHERE t.all_segments = 1 OR shape.by_segment = 1
   UNION ALL
-  SELECT t.*, t.serial
+  SELECT t.all_segments, t.segment, t.item, t.period_start, t.covered_start, t.covered_end, t.sales, t.qty, t.amount,
+         period_serial(t.period_start, shape.day, shape.zone), t.serial
   FROM shape, period_totals(CASE WHEN NOT shape.whole_days THEN 'sales' END, shape.spec, shape.zone,
                             shape.start, shape.stop) AS t
   WHERE t.all_segments = 1 OR shape.by_segment = 1
@@ -112,9 +114,8 @@ per_period AS (
          CASE WHEN chosen.item IS NULL THEN 'all items' ELSE t.item END AS item,
          min(t.period_start) AS first_start, min(t.covered_start) AS covered_start, max(t.covered_end) AS covered_end,
          sum(t.sales) AS sales, exact_sum(t.qty) AS qty, exact_sum(t.amount) AS amount,
-         count(DISTINCT CASE WHEN t.sales > 0 THEN period_serial(t.period_start, shape.day, shape.zone) END)
-           AS days_with_sales
-  FROM totals AS t, chosen, shape
+         count(DISTINCT CASE WHEN t.sales > 0 THEN t.day END) AS days_with_sales
+  FROM totals AS t, chosen
   WHERE chosen.item IS NULL OR chosen.item = '*' OR t.item = chosen.item GROUP BY 1, 2, 3
 )
 -- A period's days are counted on the local calendar (of business days, with @day_start).
@@ -130,5 +131,5 @@ SELECT period_label(t.first_start, coalesce(@unit, 'week'), s.zone) AS period, t
 FROM per_period AS t, shape AS s
 WHERE @last IS NULL OR t.period > (SELECT max(period) FROM per_period) - @last
 ORDER BY t.period, t.segment <> 'all segments', t.segment, t.item;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

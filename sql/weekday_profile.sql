@@ -107,5 +107,5 @@ FROM temp.almanac_weekday_rows WHERE coalesce(@by_segment, 0) <> 1 ORDER BY item
 SELECT segment, weekday, item, days, days_with_sales, qty, amount, share_pct, mean_per_day, median_per_day, "index"
 FROM temp.almanac_weekday_rows WHERE @by_segment = 1 ORDER BY segment <> 'all segments', segment, item, weekday_number;
 DROP TABLE temp.almanac_weekday_rows;
-SELECT json_extract(r, '$.note') AS note FROM temp.almanac_range;
+SELECT value AS note FROM temp.almanac_range, json_each(r, '$.notes');
 DROP TABLE temp.almanac_range;

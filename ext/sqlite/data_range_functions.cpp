@@ -25,11 +25,15 @@
 //       days, rows    days from first to last kept day, rows on them
 //       left_out      rows left out
 //       no_amount     rows whose amount is NULL (in the range or not)
-//       note          one line for a report: the range, then what was left
-//                     out, then rows without an amount ("range
-//                     2023-01-02..2025-12-28: 1092 days, 405365 rows; left
-//                     out: 1 stray row on 2005-03-01, ...; 1 row without an
-//                     amount (counted in sales, not in amount)")
+//       notes         the lines a report prints under its table, each at
+//                     most 60 characters (the shell's column mode wraps
+//                     longer ones): "range 2023-01-02..2025-12-28: 1092
+//                     days, 405365 rows", then "left out: nothing" or a line
+//                     per run left out ("left out: 1 stray row on
+//                     2005-03-01", "left out: 2 future rows
+//                     2031-05-01..2031-05-02"), then "1 row without an
+//                     amount (sql/data_check.sql lists it)" when there is one
+//       note          the same lines joined by "; ", for a chart's title
 //  4. A ts that is not a time value is an error, as everywhere
 //     (valid_time(ts) finds such rows).
 #include <chrono>
@@ -104,17 +108,11 @@ std::string days_text(const PeriodCalendar& calendar, std::int64_t first, std::i
                          : label_of_day(calendar, first) + ".." + label_of_day(calendar, last);
 }
 
-// The value of a key already written into `json` (a string or null), written again.
-std::string json_value_text(const std::string& json, const std::string& key) {
-    auto at = json.find("\"" + key + "\":");
-    auto begin = at + key.size() + 3;
-    if (json.compare(begin, 4, "null") == 0) return "null";
-    return json.substr(begin, json.find('"', begin + 1) - begin + 1);
-}
-
 std::string rows_text(std::int64_t rows, const char* kind) {
     return std::to_string(rows) + " " + kind + (rows == 1 ? " row" : " rows");
 }
+
+std::string quoted(const std::string& text) { return "\"" + text + "\""; }  // labels and boundaries: no escapes
 
 void data_range_final(sqlite3_context* context) {
     guarded(context, [&] {
@@ -125,7 +123,7 @@ void data_range_final(sqlite3_context* context) {
         }
         const PeriodCalendar& calendar = *state->calendar;
         std::string json = "{";
-        std::string left_out;
+        std::vector<std::string> notes;  // each short enough for the shell's column mode (60 characters)
         std::int64_t left_rows = state->future_rows;
         if (!state->days.empty()) {
             std::vector<DayRows> days;
@@ -134,42 +132,43 @@ void data_range_final(sqlite3_context* context) {
             DaySplit split = split_stray_days(days);
             Period first = calendar.period_by_serial(split.kept.first);
             Period last = calendar.period_by_serial(split.kept.last);
-            Instant whole_stop = std::min(last.end, calendar.floor(state->now));
-            if (whole_stop < first.start) whole_stop = first.start;
+            Instant whole_stop = std::max(first.start, std::min(last.end, calendar.floor(state->now)));
             std::int64_t day_count = split.kept.last - split.kept.first + 1;
-            json += "\"start\":\"" + calendar.format_boundary(first.start) + "\",\"stop\":\"" +
-                    calendar.format_boundary(last.end) + "\",\"whole_stop\":\"" +
-                    calendar.format_boundary(whole_stop) + "\",\"first_day\":\"" + calendar.label(first) +
-                    "\",\"last_day\":\"" + calendar.label(last) + "\",\"days\":" + std::to_string(day_count) +
-                    ",\"rows\":" + std::to_string(split.kept.rows) + ",";
-            for (const auto& run : split.strays) {
-                left_rows += run.rows;
-                left_out += (left_out.empty() ? "" : ", ") + rows_text(run.rows, "stray") + " " +
-                            days_text(calendar, run.first, run.last);
-            }
-            json += "\"note\":\"range " + calendar.label(first) + ".." + calendar.label(last) + ": " +
-                    std::to_string(day_count) + (day_count == 1 ? " day, " : " days, ") +
-                    std::to_string(split.kept.rows) + (split.kept.rows == 1 ? " row" : " rows");
+            for (const auto& run : split.strays) left_rows += run.rows;
+            std::string start = quoted(calendar.format_boundary(first.start));
+            std::string stop = quoted(calendar.format_boundary(last.end));
+            json += "\"start\":" + start + ",\"stop\":" + stop + ",\"start_if_cut\":" +
+                    (left_rows > 0 ? start : "null") + ",\"stop_if_cut\":" + (left_rows > 0 ? stop : "null") +
+                    ",\"whole_stop\":" + quoted(calendar.format_boundary(whole_stop)) + ",\"first_day\":" +
+                    quoted(calendar.label(first)) + ",\"last_day\":" + quoted(calendar.label(last)) +
+                    ",\"days\":" + std::to_string(day_count) + ",\"rows\":" + std::to_string(split.kept.rows) + ",";
+            notes.push_back("range " + calendar.label(first) + ".." + calendar.label(last) + ": " +
+                            std::to_string(day_count) + (day_count == 1 ? " day, " : " days, ") +
+                            std::to_string(split.kept.rows) + (split.kept.rows == 1 ? " row" : " rows"));
+            for (const auto& run : split.strays)
+                notes.push_back("left out: " + rows_text(run.rows, "stray") + " " +
+                                days_text(calendar, run.first, run.last));
         } else {
-            json += "\"start\":null,\"stop\":null,\"whole_stop\":null,\"first_day\":null,\"last_day\":null,"
-                    "\"days\":0,\"rows\":0,\"note\":\"range: no rows up to now";
+            json += "\"start\":null,\"stop\":null,\"start_if_cut\":null,\"stop_if_cut\":null,\"whole_stop\":null,"
+                    "\"first_day\":null,\"last_day\":null,\"days\":0,\"rows\":0,";
+            notes.push_back("range: no rows up to now");
         }
         if (state->future_rows > 0)
-            left_out += (left_out.empty() ? "" : ", ") + rows_text(state->future_rows, "future") + " " +
-                        days_text(calendar, calendar.serial_of(state->future_first),
-                                  calendar.serial_of(state->future_last));
-        json += "; left out: " + (left_out.empty() ? std::string("nothing") : left_out);
+            notes.push_back("left out: " + rows_text(state->future_rows, "future") + " " +
+                            days_text(calendar, calendar.serial_of(state->future_first),
+                                      calendar.serial_of(state->future_last)));
+        if (left_rows == 0) notes.push_back("left out: nothing");
         if (state->no_amount > 0)
-            json += "; " + std::to_string(state->no_amount) + (state->no_amount == 1 ? " row" : " rows") +
-                    " without an amount (counted in sales, not in amount; sql/data_check.sql lists them)";
-        if (left_rows > 0 && !state->days.empty()) {
-            json += "\",\"start_if_cut\":" + json_value_text(json, "start") +
-                    ",\"stop_if_cut\":" + json_value_text(json, "stop");
-        } else {
-            json += "\",\"start_if_cut\":null,\"stop_if_cut\":null";
+            notes.push_back(std::to_string(state->no_amount) +
+                            (state->no_amount == 1 ? " row without an amount (sql/data_check.sql lists it)"
+                                                   : " rows without an amount (sql/data_check.sql lists them)"));
+        std::string note, list;
+        for (const auto& line : notes) {
+            note += (note.empty() ? "" : "; ") + line;
+            list += (list.empty() ? "" : ",") + quoted(line);
         }
-        json += ",\"left_out\":" + std::to_string(left_rows) + ",\"no_amount\":" +
-                std::to_string(state->no_amount) + "}";
+        json += "\"left_out\":" + std::to_string(left_rows) + ",\"no_amount\":" + std::to_string(state->no_amount) +
+                ",\"note\":" + quoted(note) + ",\"notes\":[" + list + "]}";
         sqlite3_result_text(context, json.data(), static_cast<int>(json.size()), SQLITE_TRANSIENT);
     });
 }

@@ -315,6 +315,30 @@ def median_of_slopes(rows):
     return statistics.median(slopes) if slopes else None
 
 
+def stl_parts(values, period, robust):
+    """(trend, season, noise) of statsmodels.tsa.seasonal.STL with its defaults (seasonal 7)."""
+    from statsmodels.tsa.seasonal import STL   # imported here: only the decomposed reports need it
+    fit = STL(values, period=period, robust=robust).fit()
+    return list(fit.trend), list(fit.seasonal), list(fit.resid)
+
+
+def strengths(trend_part, season_part, noise_part):
+    """Trend and season strength as Hyndman & Athanasopoulos, Forecasting: Principles and
+    Practice (3rd ed.), section 4.3 give them (after Wang, Smith & Hyndman 2006):
+    F_T = max(0, 1 - Var(R) / Var(T + R)), F_S = max(0, 1 - Var(R) / Var(S + R))."""
+    var = statistics.variance
+    return (max(0.0, 1 - var(noise_part) / var([t + r for t, r in zip(trend_part, noise_part)])),
+            max(0.0, 1 - var(noise_part) / var([s + r for s, r in zip(season_part, noise_part)])))
+
+
+def weekly_strengths(ys):
+    """The strengths of a weekly series with cycle year (52 weeks): None below two whole
+    cycles; statsmodels' robust fit from four whole cycles on (ext/README.md's default), else not."""
+    if len(ys) < 104:
+        return None, None
+    return strengths(*stl_parts(ys, 52, robust=len(ys) >= 208))
+
+
 def trend(rows, zone, spark_weeks=4, start=None, stop=None):
     """sql/trend.sql: whole ISO weeks of the range; seasonal (ISO week number) Kendall
     test and Sen slope from 104 weeks on, without the week numbers in which the item
@@ -351,19 +375,57 @@ def trend(rows, zone, spark_weeks=4, start=None, stop=None):
         for x, y in zip(xs, ys):
             blocks[(x - xs[0]) // spark_weeks].append(y)
         block_means = [statistics.fmean(blocks[b]) for b in sorted(blocks)]
+        season_strength = weekly_strengths(ys)[1]
+        if weeks >= 10 and season_strength is not None and season_strength >= 0.9:
+            verdict += ", strongly seasonal"    # the header's threshold
         result[item] = dict(weeks=weeks, seasonal=seasonal, p=p, sen=sen, mean=mean, traded_mean=traded_mean,
+                            season_strength=season_strength,
                             ls=ls, verdict=verdict, pct_per_year=100 * (365.2425 / 7) * sen / traded_mean,
                             shape_levels=sparkline_levels(block_means))
     return result
 
 
+def daily_series(rows, zone):
+    """Per item, the amounts of every local day from the first sale's day to the last
+    (0 for a day without sales of the item), and the days on which anything sold."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales)
+    days = [first + dt.timedelta(days=k) for k in range((after - first).days)]
+    sums = defaultdict(list)
+    for s in sales:
+        sums[(s.day, s.item)].append(s.amount)
+    open_days = {s.day for s in sales}
+    items = sorted({s.item for s in sales})
+    return days, open_days, {item: [math.fsum(sums.get((day, item), [])) for day in days] for item in items}
+
+
 def noise_ranking(rows, zone):
-    """sql/noise_ranking.sql: items by resid_sd / mean, largest first."""
-    fits = {item: line_fit(xs, ys) for item, (xs, ys) in weekly_series(rows, zone).items()}
-    ranked = sorted((item for item in fits if fits[item]["mean"] > 0),
-                    key=lambda item: (-fits[item]["resid_sd"] / fits[item]["mean"], item))
-    return [dict(item=item, **fits[item], noise_pct=100 * fits[item]["resid_sd"] / fits[item]["mean"],
-                 sd_pct=100 * fits[item]["sd"] / fits[item]["mean"]) for item in ranked]
+    """sql/noise_ranking.sql: the daily amounts split by statsmodels' STL with period 7,
+    non-robust (the header's choice); noise_sd = statistics.stdev of the noise over the
+    days on which anything sold; noise_pct = 100 noise_sd / mean of every day; the
+    strengths of the whole weeks with period 52; largest noise_pct first."""
+    days, open_days, series = daily_series(rows, zone)
+    weekly = trend_weeks(rows, zone)
+    result = []
+    for item, ys in series.items():
+        mean = statistics.fmean(ys)
+        if mean <= 0:
+            continue
+        _, _, noise = stl_parts(ys, 7, robust=False)
+        noise_sd = statistics.stdev(r for day, r in zip(days, noise) if day in open_days)
+        trend_strength, season_strength = weekly_strengths(weekly[item][1])
+        result.append(dict(item=item, days=len(ys), mean=mean, noise_sd=noise_sd, noise_pct=100 * noise_sd / mean,
+                           trend_strength=trend_strength, season_strength=season_strength))
+    return sorted(result, key=lambda e: (-e["noise_pct"], e["item"]))
+
+
+def trend_weeks(rows, zone):
+    """The whole ISO weeks of the data's range, per item (as sql/trend.sql fits them)."""
+    sales = sales_of(rows, zone)
+    first, after = day_range(sales)
+    first = first + dt.timedelta(days=(7 - first.weekday()) % 7)   # first Monday on or after
+    after = after - dt.timedelta(days=after.weekday())              # last Monday on or before
+    return weekly_series(rows, zone, first, after)
 
 
 def weekday_profile(rows, zone, item=None):

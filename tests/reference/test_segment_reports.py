@@ -121,12 +121,11 @@ def test_noise_ranking_means_add_up_per_segment(shops):
                 if item == r["item"] and (r["segment"] == "all segments" or seg == r["segment"])]
         days = [local_day(ts) for ts, item, _, _, seg in rows
                 if r["segment"] == "all segments" or seg == r["segment"]]
-        # oracle: ISO weeks from the segment's first to its last local day (date.isocalendar)
-        first = min(days) - dt.timedelta(days=min(days).weekday())
-        weeks = ((max(days) - first).days // 7) + 1
-        assert r["weeks"] == weeks, r
-        # oracle: math.fsum of the segment's amounts over its weeks, rounded as the report rounds
-        assert abs(r["mean_per_week"] - math.fsum(mine) / weeks) <= 0.005 + 1e-9, r
+        # oracle: the local days from the segment's first to its last (zoneinfo, datetime)
+        count = (max(days) - min(days)).days + 1
+        assert r["days"] == count, r
+        # oracle: math.fsum of the segment's amounts over its days, rounded as the report rounds
+        assert abs(r["mean_per_day"] - math.fsum(mine) / count) <= 0.005 + 1e-9, r
 
 
 def test_weekday_amounts_add_up_per_segment(shops):

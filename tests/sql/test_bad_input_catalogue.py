@@ -416,8 +416,11 @@ add("(SELECT data_range(t, 1, 'day') FROM (SELECT '2026-01-01' AS t) WHERE 0)",
 add("(SELECT json_extract(data_range(t, a, 'day', 'UTC', '2026-06-01'), '$.note') FROM (SELECT '2026-01-01' AS t, "
     "NULL AS a UNION ALL SELECT '2026-01-03', 2.5 UNION ALL SELECT '2027-01-01', 1))",
     Result("range 2026-01-01..2026-01-03: 3 days, 2 rows; left out: 1 future row on 2027-01-01; 1 row without an "
-           "amount (counted in sales, not in amount; sql/data_check.sql lists them)",
+           "amount (sql/data_check.sql lists it)",
            "by hand: two rows up to now, one after it, one of the three without an amount"))
+add("(SELECT json_extract(r, '$.stop') || ' ' || json_extract(r, '$.whole_stop') FROM (SELECT data_range(t, 1, "
+    "'day', 'UTC', '2026-01-03 12:00') AS r FROM (SELECT '2026-01-01 09:00' AS t UNION ALL SELECT '2026-01-03 10:00')))",
+    Result("2026-01-04 2026-01-03", "by hand: the day that holds now (2026-01-03) is not whole yet"))
 add("valid_number('1,050.00')", Result(0, "ext/README.md: '1,234.50' is not a number; valid_number never raises"))
 add("valid_number(' 12.5')", Result(1, "ext/README.md: TEXT SQLite reads as a number is a number"))
 add("valid_number('')", Result(0, "ext/README.md: the empty string is not a number"))
@@ -425,6 +428,7 @@ add("valid_number(X'01')", Result(0, "valid_number never raises; a BLOB is not a
 add("valid_number(9e999)", Result(0, "ext/README.md: infinities are not numbers to add"))
 add("valid_number(NULL)", Result(None, "SQL: NULL gives NULL"))
 add("valid_number(3)", Result(1, "an INTEGER is a number"))
+
 # ---- seasons: any value but NULL names a season (ext/README.md "Trend, season and noise, apart") ----
 THREE_POINTS = "(SELECT {fn}(y, x, {v}) FROM (SELECT 1 AS y, 1 AS x UNION ALL SELECT 3, 2 UNION ALL SELECT 2, 3))"
 for v in ("'abc'", "''", "'1,234.50'", "X'0102'", "9e999", "-9e999", "CAST(X'310032' AS TEXT)"):

@@ -23,6 +23,7 @@ from zoneinfo import ZoneInfo
 import pytest
 
 from conftest import MODULE, SOURCE
+from report_shell import generate_export, run_report
 
 ZONE = "America/Denver"
 TABLES = ["totals", "compare", "trend", "noise_ranking", "weekday_profile", "seasonal_profile", "anomalies"]
@@ -33,9 +34,7 @@ LAST_DAY = dt.date(2025, 6, 25)  # a Wednesday (date.weekday() == 2)
 @pytest.fixture(scope="module")
 def clean(tmp_path_factory):
     path = tmp_path_factory.mktemp("faults") / "clean.db"
-    subprocess.run(["/usr/bin/python3", str(SOURCE / "demo" / "generate.py"), "--out", str(path),
-                    "--start", "2023-06-05", "--end", LAST_DAY.isoformat(), "--scale", "0.05"],
-                   check=True, capture_output=True, timeout=300)
+    generate_export(path, "2023-06-05", LAST_DAY.isoformat(), 0.05)
     return path
 
 
@@ -50,24 +49,23 @@ def planted(clean, tmp_path, rows):
 
 
 def run(database, report, **params):
-    module = MODULE[:-3] if MODULE.endswith(".so") else MODULE
-    lines = [f".load {module}", ".mode quote", f".parameter set @zone {ZONE}"]
-    for name, value in params.items():
-        value = '"' + "'" + value.replace("'", "''") + "'" + '"' if isinstance(value, str) else value
-        lines.append(f".parameter set @{name} {value}")
-    script = "\n".join(lines) + "\n" + (SOURCE / "sql" / f"{report}.sql").read_text()
-    result = subprocess.run(["sqlite3", "-bail", str(database)], input=script, capture_output=True, text=True,
-                            timeout=300)
+    result = run_report(database, report, ZONE, **params)
     assert result.returncode == 0, result.stderr
     return result.stdout
 
 
+def is_note(line):
+    """A line of the note under every report (data_range's notes), in .mode quote."""
+    return line.startswith(("'range ", "'left out: ")) or "without an amount (sql/data_check.sql" in line
+
+
 def without_range_line(output):
-    return [line for line in output.splitlines() if not line.startswith("'range ")]
+    return [line for line in output.splitlines() if not is_note(line)]
 
 
 def range_line(output):
-    return [line for line in output.splitlines() if line.startswith("'range ")]
+    """The note's lines joined as data_range's one-line note joins them."""
+    return ["'" + "; ".join(line.strip("'") for line in output.splitlines() if is_note(line)) + "'"]
 
 
 STRAY = ("2005-06-07 18:00:00", "Espresso", 1, 3.25, "Millrace")     # twenty years early
@@ -87,9 +85,11 @@ def test_stray_and_future_rows_are_named_and_change_nothing_else(clean, tmp_path
     keep = lambda lines: [line for line in lines if not by_segment or line.startswith("'all segments'")
                           or report in ("totals", "compare")]
     assert keep(without_range_line(after)) == keep(without_range_line(before))
-    assert range_line(before) == ["'range 2023-06-05..2025-06-25: 752 days, "
-                                  + range_line(before)[0].split(", ")[1].split(";")[0] + "; left out: nothing'"]
-    assert range_line(after)[0].endswith("left out: 1 stray row on 2005-06-07, 1 future row on 2031-05-01'")
+    rows = sqlite3.connect(clean).execute("SELECT count(*) FROM sales").fetchone()[0]
+    # oracle: the generator's range (--start, --end) and the table's row count
+    assert range_line(before) == [f"'range 2023-06-05..2025-06-25: 752 days, {rows} rows; left out: nothing'"]
+    assert range_line(after) == [f"'range 2023-06-05..2025-06-25: 752 days, {rows} rows; "
+                                 "left out: 1 stray row on 2005-06-07; left out: 1 future row on 2031-05-01'"]
 
 
 @pytest.mark.parametrize("report", CHARTS)
@@ -97,7 +97,7 @@ def test_the_charts_say_what_they_left_out(clean, tmp_path, report):
     faulty = planted(clean, tmp_path, [STRAY, FUTURE])
     before, after = run(clean, report), run(faulty, report)
     assert "left out" not in before
-    assert "left out: 1 stray row on 2005-06-07, 1 future row on 2031-05-01" in after
+    assert "left out: 1 stray row on 2005-06-07; left out: 1 future row on 2031-05-01" in after
     # the same bars and lines otherwise: only the title differs
     strip = lambda svg: [line for line in svg.splitlines() if "Amount per" not in line]
     assert strip(after) == strip(before)
@@ -165,7 +165,7 @@ def test_an_empty_amount_is_named_by_the_data_check_and_counted_in_the_note(clea
     # oracle: the one row planted, rowid 1234
     assert [line.split(",")[0] for line in check] == ["1234"]
     assert "'amount','the amount is empty: the sale counts, its money does not'" in check[0]
-    assert "1 row without an amount" in range_line(shell("totals"))[0]
+    assert range_line(shell("totals"))[0].endswith("; 1 row without an amount (sql/data_check.sql lists it)'")
 
 
 def test_the_data_check_names_rows_that_would_stop_a_report(clean, tmp_path):
