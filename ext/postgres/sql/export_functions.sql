@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 
 -- Exact sums (ext/postgres/export_functions.cpp): combined exactly, so every plan
 -- gives the same bits; a real inverse for sliding frames.

@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 
 -- Order statistics and robust trends (ext/postgres/order_statistics_functions.cpp):
 -- states combine by merging their values.

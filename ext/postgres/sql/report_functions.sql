@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 
 -- Report functions (ext/postgres/report_functions.cpp): plain aggregates whose
 -- states are their rows, combined by feeding one state's rows into the other.

@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 
 -- Trend and noise statistics (ext/postgres/statistics_functions.cpp): exact
 -- sums combine exactly, and each has a real inverse for sliding frames.

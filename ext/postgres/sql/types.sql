@@ -1,3 +1,4 @@
+-- SPDX-License-Identifier: MIT
 -- almanac for PostgreSQL: the types of spec and zone arguments.
 \echo Use "CREATE EXTENSION almanac" to load this file. \quit
 
