@@ -148,7 +148,8 @@ def test_a_report_of_sql_reads_into_pandas(venv, shop):
     output = run_in(venv, """
 import sqlite3, almanac
 connection = almanac.load(sqlite3.connect("shop.db"))
-(weeks,) = almanac.read_report(connection, "sql/totals.sql", zone="America/Denver")
+weeks, note = almanac.read_report(connection, "sql/totals.sql", zone="America/Denver")
+assert list(note.columns) == ["note"] and note["note"][0].startswith("range "), note
 print(weeks.to_json(orient="records"))
 # The report leaves nothing behind in the connection (its temporary view is dropped).
 assert connection.execute("SELECT count(*) FROM temp.sqlite_master").fetchone()[0] == 0
@@ -188,8 +189,10 @@ print(json.dumps([table.astype(object).where(table.notna(), None).to_dict("recor
     shell = run_shell(".parameter set @zone \"'America/Denver'\"\n.parameter set @spark_weeks 6\n.mode json\n"
                       + (shop / "sql" / "trend.sql").read_text(), database=str(shop / "shop.db"))
     expected = json.loads("[" + shell.replace("]\n[", "],\n[") + "]") if shell.strip() else []
-    assert len(tables) == len(expected) == 1
-    same_rows(tables[0], expected[0])
+    # the trend table, then the report's note (its range and what it left out)
+    assert len(tables) == len(expected) == 2
+    for table, want in zip(tables, expected):
+        same_rows(table, want)
 
 
 def python_blocks(markdown):
