@@ -256,12 +256,8 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         cursor->done = false;
         start_series(*cursor);
         return SQLITE_OK;
-    } catch (const std::bad_alloc&) {
-        return SQLITE_NOMEM;
-    } catch (const SqlError& error) {
-        return set_table_error(base->pVtab, error.what());
-    } catch (const std::exception& error) {
-        return set_table_error(base->pVtab, std::string(kName) + "(): " + error.what());
+    } catch (...) {
+        return scan_failure(base->pVtab, kName);
     }
 }
 
@@ -276,10 +272,8 @@ int next(sqlite3_vtab_cursor* base) {
         ++cursor->series;
         start_series(*cursor);
         return SQLITE_OK;
-    } catch (const std::bad_alloc&) {
-        return SQLITE_NOMEM;
-    } catch (const std::exception& error) {
-        return set_table_error(base->pVtab, std::string(kName) + "(): " + error.what());
+    } catch (...) {
+        return scan_failure(base->pVtab, kName);
     }
 }
 

@@ -48,6 +48,7 @@
 #include <string>
 #include <vector>
 
+#include "argument_table.h"
 #include "arguments.h"
 #include "core/stats/period_totals.h"
 #include "core/text/error.h"
@@ -112,12 +113,6 @@ struct Cursor {
     }
     const ListedSeries& listed() const { return reading.series[series]; }
 };
-
-int set_error(sqlite3_vtab* table, const std::string& message) {
-    sqlite3_free(table->zErrMsg);
-    table->zErrMsg = sqlite3_mprintf("%s", message.c_str());
-    return SQLITE_ERROR;
-}
 
 int connect(sqlite3* db, void*, int, const char* const*, sqlite3_vtab** out, char**) {
     int rc = sqlite3_declare_vtab(
@@ -199,7 +194,7 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     static const char* names[kArguments] = {"source", "spec", "zone", "start", "stop"};
     for (int argument = 0; argument < 2; ++argument) {
         if (!given[argument]) {
-            return set_error(base->pVtab,
+            return set_table_error(base->pVtab,
                              std::string(kName) + "(): " + names[argument] +
                                  " is missing; expected period_totals(source, spec [, zone [,"
                                  " start [, stop]]])");
@@ -230,15 +225,8 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
         cursor->current = cursor->calendar->period_by_serial(cursor->listed().range.first_serial);
         cursor->done = false;
         return SQLITE_OK;
-    } catch (const std::bad_alloc&) {
-        return SQLITE_NOMEM;
-    } catch (const Interrupted& error) {
-        set_error(base->pVtab, error.what());
-        return SQLITE_INTERRUPT;
-    } catch (const SqlError& error) {
-        return set_error(base->pVtab, error.what());
-    } catch (const std::exception& error) {
-        return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+    } catch (...) {
+        return scan_failure(base->pVtab, kName);
     }
 }
 
@@ -256,10 +244,8 @@ int next(sqlite3_vtab_cursor* base) {
         }
         cursor->current = cursor->calendar->period_by_serial(cursor->listed().range.first_serial);
         return SQLITE_OK;
-    } catch (const std::bad_alloc&) {
-        return SQLITE_NOMEM;
-    } catch (const std::exception& error) {
-        return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+    } catch (...) {
+        return scan_failure(base->pVtab, kName);
     }
 }
 

@@ -17,6 +17,7 @@
 #include <memory>
 #include <optional>
 
+#include "argument_table.h"
 #include "arguments.h"
 #include "core/text/error.h"
 #include "core/time/period_cursor.h"
@@ -48,12 +49,6 @@ struct Cursor {
         }
     }
 };
-
-int set_error(sqlite3_vtab* table, const std::string& message) {
-    sqlite3_free(table->zErrMsg);
-    table->zErrMsg = sqlite3_mprintf("%s", message.c_str());
-    return SQLITE_ERROR;
-}
 
 int connect(sqlite3* db, void*, int, const char* const*, sqlite3_vtab** out, char**) {
     int rc =
@@ -132,9 +127,9 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     static const char* names[kArguments] = {"start", "stop", "spec", "zone"};
     for (int argument = 0; argument < 3; ++argument) {
         if (!given[argument]) {
-            return set_error(cursor->base.pVtab,
-                             std::string(kName) + "(): " + names[argument] +
-                                 " is missing; expected periods(start, stop, spec [, zone])");
+            return set_table_error(cursor->base.pVtab,
+                                   std::string(kName) + "(): " + names[argument] +
+                                       " is missing; expected periods(start, stop, spec [, zone])");
         }
     }
     try {
@@ -157,9 +152,9 @@ int filter(sqlite3_vtab_cursor* base, int mask, const char*, int argc, sqlite3_v
     } catch (const std::bad_alloc&) {
         return SQLITE_NOMEM;
     } catch (const SqlError& error) {
-        return set_error(cursor->base.pVtab, error.what());
+        return set_table_error(cursor->base.pVtab, error.what());
     } catch (const std::exception& error) {
-        return set_error(cursor->base.pVtab, std::string(kName) + "(): " + error.what());
+        return set_table_error(cursor->base.pVtab, std::string(kName) + "(): " + error.what());
     }
 }
 
@@ -181,7 +176,7 @@ int next(sqlite3_vtab_cursor* base) {
     } catch (const Error& error) {
         // Past the limit of periods per call (core/time/period_cursor.h).
         try {
-            return set_error(base->pVtab, std::string(kName) + "(): " + error.what());
+            return set_table_error(base->pVtab, std::string(kName) + "(): " + error.what());
         } catch (const std::bad_alloc&) {
             return SQLITE_NOMEM;
         }

@@ -1,8 +1,10 @@
 // SPDX-License-Identifier: MIT
 #include "source_reading.h"
 
+#include <new>
 #include <string>
 
+#include "argument_table.h"
 #include "core/text/error.h"
 #include "core/time/period_range.h"
 #include "parallel_reading.h"
@@ -217,6 +219,21 @@ SourceReading read_source(sqlite3* db, const SourceRequest& request) {
 int register_source_reading(sqlite3* db) {
     int rc = register_reading_pass(db);
     return rc == SQLITE_OK ? register_reading_threads(db) : rc;
+}
+
+int scan_failure(sqlite3_vtab* table, const char* function_name) {
+    try {
+        throw;
+    } catch (const std::bad_alloc&) {
+        return SQLITE_NOMEM;
+    } catch (const Interrupted& error) {
+        set_table_error(table, error.what());
+        return SQLITE_INTERRUPT;
+    } catch (const SqlError& error) {
+        return set_table_error(table, error.what());
+    } catch (const std::exception& error) {
+        return set_table_error(table, std::string(function_name) + "(): " + error.what());
+    }
 }
 
 }  // namespace almanac::sqlite

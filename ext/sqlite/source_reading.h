@@ -63,6 +63,13 @@ class Interrupted : public SqlError {
     using SqlError::SqlError;
 };
 
+// Called inside a catch (...) of a table function reading a source (its
+// filter, its next): the exception in flight as SQLite's answer. Out of
+// memory stays SQLITE_NOMEM, an interrupt SQLITE_INTERRUPT, an SqlError keeps
+// its message, any other failure is prefixed with the function's name. One
+// place, so every table that reads a source answers the same way.
+int scan_failure(sqlite3_vtab* table, const char* function_name);
+
 // The caller's range; a missing bound is taken from the data.
 struct RangeBounds {
     std::optional<Instant> start, stop;
